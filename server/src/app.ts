@@ -1,0 +1,102 @@
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { Router, type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { Config } from './config';
+import type { Database } from './db/client';
+import type { Logger } from './logger';
+import { csrfProtection } from './auth/csrf';
+import type { OidcClient } from './auth/oidc';
+import { authRouter, loadUser, requireUser } from './auth/routes';
+import { sessionMiddleware } from './auth/session';
+import { errorHandler, notFoundHandler } from './http/problem';
+import { projectsRouter } from './projects/routes';
+import { studiesRouter } from './studies/routes';
+
+export interface AppDeps {
+  config: Config;
+  database: Database;
+  logger: Logger;
+  oidc: OidcClient;
+}
+
+/**
+ * Builds the Express app without listening, so tests mount it with supertest. main.ts starts it.
+ */
+export function createApp(deps: AppDeps): Express {
+  const { config, database, logger } = deps;
+  const db = database.db;
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.PUBLIC_URL.startsWith('https://')) app.set('trust proxy', 1);
+
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const id = (req.headers['x-request-id'] as string | undefined) ?? randomUUID();
+        res.setHeader('x-request-id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === '/healthz' },
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // Angular and Material put component styles in <style> elements; plot libraries set inline styles.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          workerSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          frameAncestors: ["'none'"],
+          formAction: ["'self'"],
+        },
+      },
+      // Sign-in redirects go to the identity provider's origin.
+      crossOriginOpenerPolicy: { policy: 'same-origin' },
+    }),
+  );
+
+  app.get('/healthz', async (_req, res) => {
+    await database.pool.query('select 1');
+    res.json({ status: 'ok' });
+  });
+
+  app.use(express.json({ limit: '2mb' }));
+  app.use(sessionMiddleware(config, database.pool));
+  app.use(loadUser(db));
+  // Anonymous calls answer 401 before anything else is looked at; then anti-forgery.
+  app.use('/api', requireUser, csrfProtection());
+  app.use('/auth/logout', csrfProtection());
+  app.use(authRouter({ config, db, oidc: deps.oidc, logger }));
+
+  const api = Router();
+  api.use(projectsRouter({ db }));
+  api.use(studiesRouter({ db }));
+  api.use(notFoundHandler);
+  app.use('/api', api);
+
+  // In production the built Angular app is served from the same origin as the API.
+  const web = path.resolve(config.WEB_DIST);
+  if (existsSync(path.join(web, 'index.html'))) {
+    app.use(express.static(web, { index: false, maxAge: '1h', setHeaders: (res, file) => file.endsWith('.html') && res.setHeader('cache-control', 'no-cache') }));
+    app.get(/^\/(?!api\/|auth\/).*/, (_req, res) => {
+      res.setHeader('cache-control', 'no-cache');
+      res.sendFile(path.join(web, 'index.html'));
+    });
+  }
+
+  app.use(notFoundHandler);
+  app.use(errorHandler(logger));
+  return app;
+}

@@ -1,0 +1,22 @@
+import connectPgSimple from 'connect-pg-simple';
+import session from 'express-session';
+import type pg from 'pg';
+import type { Config } from '../config';
+
+export const SESSION_COOKIE = 'laminote.sid';
+
+/** Server-side sessions in PostgreSQL; the browser holds only an httpOnly, SameSite=Lax cookie. */
+export function sessionMiddleware(config: Config, pool: pg.Pool) {
+  const PgStore = connectPgSimple(session);
+  const secure = config.PUBLIC_URL.startsWith('https://');
+  return session({
+    name: SESSION_COOKIE,
+    secret: config.SESSION_SECRET,
+    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    proxy: secure,
+    cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: config.SESSION_TTL_HOURS * 3600_000, path: '/' },
+  });
+}

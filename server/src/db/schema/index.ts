@@ -1,0 +1,4 @@
+export * from './identity';
+export * from './projects';
+export * from './studies';
+export * from './review';

@@ -1,0 +1,46 @@
+import type { Server } from 'node:http';
+import { createApp } from './app';
+import { ConfigError, loadConfig } from './config';
+import { connect } from './db/client';
+import { applyMigrations } from './db/migrate';
+import { createLogger } from './logger';
+import { createOidcClient } from './auth/oidc';
+
+/** Starts the server: configuration, migrations, listen, and a clean shutdown on SIGINT/SIGTERM. */
+async function main(): Promise<void> {
+  let config;
+  try {
+    config = loadConfig();
+  } catch (err) {
+    if (err instanceof ConfigError) {
+      process.stderr.write(`${err.message}\n`);
+      process.exit(2);
+    }
+    throw err;
+  }
+  const logger = createLogger(config.LOG_LEVEL);
+  const database = connect(config.DATABASE_URL);
+  await applyMigrations(database.db);
+  const app = createApp({ config, database, logger, oidc: createOidcClient(config) });
+  const server: Server = app.listen(config.PORT, config.HOST, () => {
+    logger.info({ url: config.PUBLIC_URL, host: config.HOST, port: config.PORT }, 'Laminote is listening');
+  });
+  let stopping = false;
+  const stop = (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    logger.info({ signal }, 'shutting down');
+    server.close(() => {
+      void database.close().finally(() => process.exit(0));
+    });
+    server.closeAllConnections?.();
+    setTimeout(() => process.exit(1), 10_000).unref();
+  };
+  process.on('SIGINT', () => stop('SIGINT'));
+  process.on('SIGTERM', () => stop('SIGTERM'));
+}
+
+main().catch((err: unknown) => {
+  process.stderr.write(`Laminote server failed to start: ${err instanceof Error ? err.message : String(err)}\n`);
+  process.exit(1);
+});
