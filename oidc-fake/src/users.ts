@@ -18,7 +18,7 @@ export interface DemoUser {
   title: string;
 }
 
-export const DEMO_USERS: readonly DemoUser[] = Object.freeze([
+const people: DemoUser[] = [
   {
     sub: 'tamsk-ines',
     email: 'ines.caldera@tamsk.example',
@@ -68,7 +68,9 @@ export const DEMO_USERS: readonly DemoUser[] = Object.freeze([
     siteAdmin: false,
     title: 'Structures (no project)',
   },
-].map((user) => Object.freeze(user)));
+];
+
+export const DEMO_USERS: readonly Readonly<DemoUser>[] = Object.freeze(people.map((user) => Object.freeze(user)));
 
 export function findDemoUser(sub: string): DemoUser | undefined {
   return DEMO_USERS.find((user) => user.sub === sub);
