@@ -1,0 +1,35 @@
+import type { Express } from 'express';
+import { createApp } from '../../server/src/app';
+import { createOidcClient } from '../../server/src/auth/oidc';
+import { loadConfig, type Config } from '../../server/src/config';
+import { createLogger } from '../../server/src/logger';
+import { seedDemo } from '../../server/src/seed/demo';
+import { demoStudyFillers } from '../../server/src/seed/fillers';
+import { createTestDatabase, type TestDatabase } from './db';
+import { testEnv } from './env';
+
+export interface TestApp {
+  app: Express;
+  config: Config;
+  database: TestDatabase;
+  demo: Awaited<ReturnType<typeof seedDemo>>;
+  close(): Promise<void>;
+}
+
+/** The real app on a database of its own with the demo scenario seeded, mounted without a port. */
+export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
+  const database = await createTestDatabase();
+  const config = loadConfig({
+    ...process.env,
+    NODE_ENV: 'test',
+    DATABASE_URL: database.url,
+    PUBLIC_URL: testEnv.publicUrl,
+    OIDC_ISSUER: testEnv.oidcIssuer,
+    LOG_LEVEL: process.env['TEST_LOG_LEVEL'] ?? 'silent',
+    WEB_DIST: '/nonexistent',
+    ...overrides,
+  });
+  const demo = await seedDemo(database.db, demoStudyFillers);
+  const app = createApp({ config, database, logger: createLogger(config.LOG_LEVEL), oidc: createOidcClient(config) });
+  return { app, config, database, demo, close: () => database.drop() };
+}
