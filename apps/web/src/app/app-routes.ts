@@ -1,0 +1,23 @@
+import type { Routes } from '@angular/router';
+import { landingWhenSignedOut, requireSignIn } from './core/guards';
+import { Landing } from './landing/landing';
+import { ProjectList } from './projects/project-list';
+import { NotFound } from './shared/not-found';
+
+export const routes: Routes = [
+  { path: '', pathMatch: 'full', component: Landing, canActivate: [landingWhenSignedOut], title: 'Laminote' },
+  { path: 'projects', component: ProjectList, canActivate: [requireSignIn], title: 'Projects · Laminote' },
+  {
+    path: 'projects/:projectId',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./project/project-page').then((m) => m.ProjectPage),
+    title: 'Project · Laminote',
+  },
+  {
+    path: 'studies/:studyId',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
+    title: 'Study · Laminote',
+  },
+  { path: '**', component: NotFound, title: 'Not found · Laminote' },
+];

@@ -1,0 +1,15 @@
+import { provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
+import type { EnvironmentProviders } from '@angular/core';
+import { sessionInterceptor } from './session-interceptor';
+
+/**
+ * HttpClient as the server expects it: the anti-forgery token from the readable `XSRF-TOKEN` cookie goes
+ * back as `X-XSRF-TOKEN` on every POST, PATCH, PUT and DELETE, and an ended session sends the person to
+ * the landing page.
+ */
+export function provideLaminoteHttp(): EnvironmentProviders {
+  return provideHttpClient(
+    withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }),
+    withInterceptors([sessionInterceptor]),
+  );
+}

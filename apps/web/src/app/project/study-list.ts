@@ -1,0 +1,87 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { MatTableModule } from '@angular/material/table';
+import { RouterLink } from '@angular/router';
+import type { Study } from '@laminote/contracts';
+import { Notifier } from '../core/notifier';
+import { loader } from '../shared/load-state';
+import { ProblemBanner } from '../shared/problem-banner';
+import { StudyApi } from '../shared/study-api';
+import { StudyDialog, type StudyDialogData } from './study-dialog';
+
+/** A project's studies; engineers and leads create, rename, archive and restore them. */
+@Component({
+  selector: 'lam-study-list',
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatProgressBarModule,
+    MatSlideToggleModule,
+    MatTableModule,
+    ProblemBanner,
+    RouterLink,
+  ],
+  templateUrl: './study-list.html',
+  styleUrl: './study-list.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class StudyList {
+  private readonly api = inject(StudyApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+
+  readonly projectId = input.required<string>();
+  /** Whether the caller may create, rename and archive studies here. */
+  readonly mayEdit = input(false);
+
+  protected readonly showArchived = signal(false);
+  private readonly studiesLoad = loader(
+    () => ({ projectId: this.projectId(), archived: this.showArchived() }),
+    ({ projectId, archived }) => this.api.list(projectId, { archived }),
+  );
+  protected readonly state = this.studiesLoad.state;
+  protected readonly columns = computed(() =>
+    this.mayEdit() ? ['title', 'createdBy', 'updatedAt', 'actions'] : ['title', 'createdBy', 'updatedAt'],
+  );
+
+  protected reload(): void {
+    this.studiesLoad.reload();
+  }
+
+  protected create(): void {
+    this.openDialog({ projectId: this.projectId() }, (study) => `Study “${study.title}” created`);
+  }
+
+  protected rename(study: Study): void {
+    this.openDialog({ study }, (saved) => `Study renamed to “${saved.title}”`);
+  }
+
+  protected setArchived(study: Study, archived: boolean): void {
+    this.api.update(study.id, { archived }).subscribe({
+      next: (saved) => {
+        this.notifier.done(archived ? `“${saved.title}” archived` : `“${saved.title}” restored`);
+        this.reload();
+      },
+      error: (error: unknown) => this.notifier.problem(error),
+    });
+  }
+
+  private openDialog(data: StudyDialogData, message: (study: Study) => string): void {
+    this.dialog
+      .open<StudyDialog, StudyDialogData, Study>(StudyDialog, { data, width: '34rem' })
+      .afterClosed()
+      .subscribe((study) => {
+        if (!study) return;
+        this.notifier.done(message(study));
+        this.reload();
+      });
+  }
+}
