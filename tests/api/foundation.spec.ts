@@ -150,3 +150,12 @@ describe('role matrix', () => {
     await expect(t.database.pool.query('update audit_events set action = $1', ['tampered'])).rejects.toThrow(/immutable/);
   });
 });
+
+describe('branches', () => {
+  it('gives every new study a main branch, readable by every member', async () => {
+    const res = await as['viewer']!.get(`/api/studies/${t.demo.studyId}/branches`).expect(200);
+    expect(res.body).toHaveLength(1);
+    expect(res.body[0]).toMatchObject({ name: 'main', studyId: t.demo.studyId, headVersionId: null, archived: false });
+    await as['outsider']!.get(`/api/studies/${t.demo.studyId}/branches`).expect(404);
+  });
+});

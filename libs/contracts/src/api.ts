@@ -135,3 +135,17 @@ export type UpdateStudy = z.input<typeof updateStudySchema>;
 /** POST /auth/logout answers where the browser goes next (the provider's end-session page). */
 export const logoutSchema = z.object({ redirectTo: z.string() });
 export type Logout = z.infer<typeof logoutSchema>;
+
+/** GET /api/studies/:studyId/branches */
+export const branchSchema = z.object({
+  id,
+  studyId: id,
+  name: z.string(),
+  purpose: z.string(),
+  forkedFromVersionId: id.nullable(),
+  headVersionId: id.nullable(),
+  archived: z.boolean(),
+  createdBy: z.object({ id, name: z.string() }).nullable(),
+  createdAt: isoDate,
+});
+export type Branch = z.infer<typeof branchSchema>;

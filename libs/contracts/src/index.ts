@@ -1,2 +1,4 @@
 export * from './roles';
 export * from './api';
+export * from './engine';
+export * from './notebook';

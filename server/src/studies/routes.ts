@@ -26,6 +26,11 @@ export function studiesRouter({ db }: { db: Db }): Router {
     res.json(await service.getStudy(db, study.id));
   });
 
+  router.get('/studies/:studyId/branches', async (req, res) => {
+    const { study } = await studyAccess(db, req.user!, req.params.studyId);
+    res.json(await service.listBranches(db, study.id));
+  });
+
   router.patch('/studies/:studyId', async (req, res) => {
     const { study, access } = await studyAccess(db, req.user!, req.params.studyId);
     requireAction(access, 'editStudy');

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, isNotNull, isNull, sql } from 'drizzle-orm';
-import type { CreateStudy, Study, UpdateStudy } from '@laminote/contracts';
+import type { Branch, CreateStudy, Study, UpdateStudy } from '@laminote/contracts';
 import type { Tx } from '../db/client';
 import { branches, drafts, studies, users } from '../db/schema';
 import type { SessionUser } from '../auth/types';
@@ -83,4 +83,25 @@ export async function updateStudy(tx: Tx, actor: SessionUser, projectId: string,
     .where(eq(studies.id, studyId));
   const action = input.archived === true ? 'study.archive' : input.archived === false ? 'study.restore' : 'study.update';
   await audit(tx, { actorId: actor.id, projectId, action, targetType: 'study', targetId: studyId, detail: { ...input } });
+}
+
+/** The branches of a study, main first, then by creation. */
+export async function listBranches(tx: Tx, studyId: string): Promise<Branch[]> {
+  const rows = await tx
+    .select({ b: branches, creatorName: users.name })
+    .from(branches)
+    .leftJoin(users, eq(users.id, branches.createdBy))
+    .where(eq(branches.studyId, studyId))
+    .orderBy(sql`${branches.name} <> ${MAIN_BRANCH}`, asc(branches.createdAt));
+  return rows.map(({ b, creatorName }) => ({
+    id: b.id,
+    studyId: b.studyId,
+    name: b.name,
+    purpose: b.purpose,
+    forkedFromVersionId: b.forkedFromVersionId,
+    headVersionId: b.headVersionId,
+    archived: b.archivedAt !== null,
+    createdBy: b.createdBy ? { id: b.createdBy, name: creatorName ?? '' } : null,
+    createdAt: b.createdAt.toISOString(),
+  }));
 }

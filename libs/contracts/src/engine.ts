@@ -1,0 +1,240 @@
+import { z } from 'zod';
+
+/**
+ * The engine contract (DESIGN.md, "The engine contract"): the case the boundary-layer engine analyses
+ * and the result it returns. The API, the worker threads, the job queue and the command line all
+ * validate with these schemas, so they refuse the same things with the same field names.
+ *
+ * Lengths are divided by the reference length L (usually the chord); velocities by V∞.
+ */
+
+export const TRANSITION_CRITERIA = ['eN', 'michel', 'hRx', 'granville'] as const;
+export type TransitionCriterion = (typeof TRANSITION_CRITERIA)[number];
+
+/** What set the governing transition location. */
+export const TRANSITION_CAUSES = [...TRANSITION_CRITERIA, 'trip', 'laminarSeparation'] as const;
+export type TransitionCause = (typeof TRANSITION_CAUSES)[number];
+
+/** Size limits of one case; larger input is refused with these numbers in the message. */
+export const ENGINE_LIMITS = {
+  maxSurfaces: 16,
+  maxStationsPerSurface: 100_000,
+  maxTableCharacters: 8_000_000,
+  maxTableRows: 200_000,
+} as const;
+
+const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive({ error: `${what} must be greater than zero` });
+
+const flowSchema = z
+  .strictObject({
+    /** V∞ L / ν∞. */
+    reynolds: positive('reynolds').max(1e10, { error: 'reynolds above 1e10 is outside the engine range' }).optional(),
+    /** ISA pressure (geopotential) altitude. */
+    altitude_m: z.number().min(-5000, { error: 'altitude_m below -5000 m is outside the ISA table' }).max(80_000, { error: 'altitude_m above 80000 m is outside the ISA table' }).optional(),
+    referenceLength_m: positive('referenceLength_m').optional(),
+    isaTemperatureOffset_K: z.number().min(-100).max(100).optional(),
+    /** Free-stream Mach number; 0 means incompressible. */
+    mach: z.number().min(0, { error: 'mach must not be negative' }).optional(),
+    /** Critical amplification exponent of the e^N method. */
+    nCrit: positive('nCrit').max(30, { error: 'nCrit above 30 is not physical' }).optional(),
+    /** Free-stream turbulence intensity as a fraction (0.0007 = 0.07 %). */
+    turbulenceIntensity: positive('turbulenceIntensity').max(0.5, { error: 'turbulenceIntensity is a fraction (0.001 = 0.1 %)' }).optional(),
+  })
+  .superRefine((flow, ctx) => {
+    const mach = flow.mach ?? 0;
+    if (mach >= 1) {
+      ctx.addIssue({ code: 'custom', path: ['mach'], message: `supersonic free stream (mach ${mach}) is outside the engine range; give 0 <= mach < 1` });
+      return;
+    }
+    const atmosphereGiven = flow.altitude_m !== undefined || flow.referenceLength_m !== undefined || flow.isaTemperatureOffset_K !== undefined;
+    if (flow.reynolds !== undefined) {
+      if (atmosphereGiven) {
+        ctx.addIssue({ code: 'custom', path: ['reynolds'], message: 'give either reynolds, or altitude_m with mach and referenceLength_m, not both' });
+      }
+      return;
+    }
+    if (flow.altitude_m === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['reynolds'], message: 'missing: give reynolds, or altitude_m with mach and referenceLength_m' });
+    } else if (flow.referenceLength_m === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['referenceLength_m'], message: 'missing: altitude_m needs referenceLength_m (and mach) to give a Reynolds number' });
+    } else if (!(mach > 0)) {
+      ctx.addIssue({ code: 'custom', path: ['mach'], message: 'must be greater than zero when the Reynolds number comes from altitude_m (Re <= 0 otherwise)' });
+    }
+  });
+
+const stationArray = (what: string) =>
+  z
+    .array(z.number({ error: `${what} values must be numbers` }))
+    .max(ENGINE_LIMITS.maxStationsPerSurface, { error: `more than ${ENGINE_LIMITS.maxStationsPerSurface} stations (limit)` });
+
+const surfaceSchema = z
+  .strictObject({
+    name: z.string().trim().min(1, { error: 'name must not be empty' }).max(64),
+    /** Arc length from the attachment line, strictly increasing. */
+    s: stationArray('s').min(3, { error: 'needs at least 3 stations' }),
+    /** Ue / V∞ (one of ue or cp). */
+    ue: stationArray('ue').optional(),
+    /** Pressure coefficient, converted to Ue / V∞ with the free-stream Mach number (one of ue or cp). */
+    cp: stationArray('cp').optional(),
+    /** Body radius; present means axisymmetric (Mangler transformation). */
+    r: stationArray('r').optional(),
+    /** Forced transition at this arc length. */
+    trip: z.number().optional(),
+  })
+  .superRefine((surface, ctx) => {
+    const n = surface.s.length;
+    if ((surface.ue === undefined) === (surface.cp === undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['ue'], message: 'give exactly one of ue or cp' });
+      return;
+    }
+    for (const key of ['ue', 'cp', 'r'] as const) {
+      const values = surface[key];
+      if (values !== undefined && values.length !== n) {
+        ctx.addIssue({ code: 'custom', path: [key], message: `has ${values.length} values but s has ${n}` });
+        return;
+      }
+    }
+    const s = surface.s;
+    if (s[0] < 0) {
+      ctx.addIssue({ code: 'custom', path: ['s', 0], message: `arc length must not be negative (${s[0]})` });
+      return;
+    }
+    for (let i = 1; i < n; i++) {
+      if (!(s[i] > s[i - 1])) {
+        ctx.addIssue({ code: 'custom', path: ['s', i], message: `s must increase (${s[i]} after ${s[i - 1]})` });
+        return;
+      }
+    }
+    const ue = surface.ue;
+    if (ue !== undefined) {
+      if (ue[0] < 0) {
+        ctx.addIssue({ code: 'custom', path: ['ue', 0], message: `Ue/V∞ must not be negative (${ue[0]})` });
+        return;
+      }
+      for (let i = 1; i < n; i++) {
+        if (!(ue[i] > 0)) {
+          ctx.addIssue({ code: 'custom', path: ['ue', i], message: `Ue/V∞ must be positive after the first station (${ue[i]})` });
+          return;
+        }
+      }
+    }
+    const r = surface.r;
+    if (r !== undefined) {
+      for (let i = 0; i < n; i++) {
+        if (r[i] < 0 || (i > 0 && r[i] === 0)) {
+          ctx.addIssue({ code: 'custom', path: ['r', i], message: `body radius must be positive (zero allowed only at the first station), got ${r[i]}` });
+          return;
+        }
+      }
+    }
+    if (surface.trip !== undefined && (surface.trip < s[0] || surface.trip > s[n - 1])) {
+      ctx.addIssue({ code: 'custom', path: ['trip'], message: `trip at s = ${surface.trip} is outside the surface (${s[0]} to ${s[n - 1]})` });
+    }
+  });
+
+export const engineCaseSchema = z
+  .strictObject({
+    flow: flowSchema,
+    surfaces: z.array(surfaceSchema).max(ENGINE_LIMITS.maxSurfaces, { error: `more than ${ENGINE_LIMITS.maxSurfaces} surfaces (limit)` }).optional(),
+    /** Closed-loop `x [y] cp` table from the trailing edge over one side to the other. */
+    pressureTable: z.string().max(ENGINE_LIMITS.maxTableCharacters, { error: `longer than ${ENGINE_LIMITS.maxTableCharacters} characters (limit)` }).optional(),
+    criteria: z.array(z.enum(TRANSITION_CRITERIA)).default([...TRANSITION_CRITERIA]),
+    /** Leading-edge sweep in degrees, for the attachment-line check. */
+    sweepDeg: z.number().gt(-90, { error: 'sweepDeg must lie between -90 and 90' }).lt(90, { error: 'sweepDeg must lie between -90 and 90' }).default(0),
+    /** Leading-edge radius normal to the leading edge (divided by L), for the attachment-line check. */
+    leadingEdgeRadius: positive('leadingEdgeRadius').optional(),
+    /** March the turbulent boundary layer (Head) after transition; false stops at transition. */
+    turbulent: z.boolean().default(true),
+  })
+  .superRefine((engineCase, ctx) => {
+    const hasSurfaces = engineCase.surfaces !== undefined && engineCase.surfaces.length > 0;
+    const hasTable = engineCase.pressureTable !== undefined && engineCase.pressureTable.trim() !== '';
+    if (!hasSurfaces && !hasTable) {
+      ctx.addIssue({ code: 'custom', path: ['surfaces'], message: 'nothing to analyse: give surfaces or a pressureTable' });
+    } else if (hasSurfaces && hasTable) {
+      ctx.addIssue({ code: 'custom', path: ['pressureTable'], message: 'give either surfaces or a pressureTable, not both' });
+    } else if (hasSurfaces) {
+      const seen = new Set<string>();
+      engineCase.surfaces!.forEach((surface, i) => {
+        if (seen.has(surface.name)) ctx.addIssue({ code: 'custom', path: ['surfaces', i, 'name'], message: `surface name "${surface.name}" is used twice` });
+        seen.add(surface.name);
+      });
+    }
+  });
+
+/** A validated case, defaults applied. */
+export type EngineCase = z.infer<typeof engineCaseSchema>;
+/** A case as a client writes it (defaults may be left out). */
+export type EngineCaseInput = z.input<typeof engineCaseSchema>;
+
+const criterionResultSchema = z
+  .object({
+    s: z.number(),
+    /** Momentum-thickness Reynolds number Ue θ / ν at the predicted location. */
+    reTheta: z.number(),
+    /** Ue s / ν at the predicted location. */
+    reS: z.number(),
+  })
+  .nullable();
+
+const nullableStations = z.array(z.number().nullable());
+
+const surfaceResultSchema = z.object({
+  name: z.string(),
+  stations: z.object({
+    s: z.array(z.number()),
+    /** Chordwise coordinate, where the input gave one (pressure tables). */
+    x: z.array(z.number()).optional(),
+    ue: z.array(z.number()),
+    /** null where the boundary layer was not computed (after turbulent separation, or turbulent: false). */
+    theta: nullableStations,
+    deltaStar: nullableStations,
+    H: nullableStations,
+    /** Skin friction τw / (½ ρ Ue²) on the local edge velocity; null where undefined (Ue = 0, θ = 0). */
+    cf: nullableStations,
+    /** Envelope N-factor in the laminar part, null after transition. */
+    n: nullableStations,
+  }),
+  transition: z.object({
+    s: z.number().nullable(),
+    by: z.enum(TRANSITION_CAUSES).nullable(),
+    criteria: z.object({
+      eN: criterionResultSchema.optional(),
+      michel: criterionResultSchema.optional(),
+      hRx: criterionResultSchema.optional(),
+      granville: criterionResultSchema.optional(),
+    }),
+  }),
+  laminarSeparation: z.object({ s: z.number() }).nullable(),
+  turbulentSeparation: z.object({ s: z.number() }).nullable(),
+  /** Profile drag of this surface (Squire–Young), on V∞ and L; null when it cannot be estimated. */
+  cd: z.number().nullable(),
+  /** Friction drag of this surface, ∫ τw ds / (½ ρ V∞² L). */
+  cdFriction: z.number().nullable(),
+});
+
+export const ATTACHMENT_LINE_VERDICTS = ['laminar', 'contaminationRisk', 'unstable'] as const;
+
+export const engineResultSchema = z.object({
+  engineVersion: z.string(),
+  flow: z.object({
+    reynolds: z.number(),
+    mach: z.number(),
+    nCrit: z.number(),
+    nCritFrom: z.enum(['given', 'turbulenceIntensity', 'default']),
+  }),
+  surfaces: z.array(surfaceResultSchema),
+  cd: z.number().nullable(),
+  attachmentLine: z
+    .object({
+      reBar: z.number(),
+      verdict: z.enum(ATTACHMENT_LINE_VERDICTS),
+      from: z.enum(['velocityGradient', 'leadingEdgeRadius']),
+    })
+    .nullable(),
+  warnings: z.array(z.string()),
+});
+
+export type EngineResult = z.infer<typeof engineResultSchema>;
+export type EngineSurfaceResult = z.infer<typeof surfaceResultSchema>;
+export type AttachmentLineVerdict = (typeof ATTACHMENT_LINE_VERDICTS)[number];
