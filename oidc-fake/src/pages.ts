@@ -193,9 +193,9 @@ body {
 .mark {
   width: 2.25rem; height: 2.25rem; border-radius: .6rem .6rem .6rem 0;
   background:
-    linear-gradient(90deg, var(--accent) 0 55%, transparent 55%) 0 .55rem / 100% 3px no-repeat,
-    linear-gradient(90deg, var(--accent) 0 75%, transparent 75%) 0 1.05rem / 100% 3px no-repeat,
-    linear-gradient(90deg, var(--accent) 0 95%, transparent 95%) 0 1.55rem / 100% 3px no-repeat,
+    linear-gradient(90deg, var(--accent) 0 50%, transparent 50%) .3rem .5rem / calc(100% - .6rem) 3px no-repeat,
+    linear-gradient(90deg, var(--accent) 0 75%, transparent 75%) .3rem .95rem / calc(100% - .6rem) 3px no-repeat,
+    linear-gradient(90deg, var(--accent) 0 100%, transparent 100%) .3rem 1.4rem / calc(100% - .6rem) 3px no-repeat,
     var(--accent-wash);
   border: 1px solid var(--accent);
 }
