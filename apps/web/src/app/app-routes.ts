@@ -19,5 +19,5 @@ export const routes: Routes = [
     loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
     title: 'Study · Laminote',
   },
-  { path: '**', component: NotFound, title: 'Not found · Laminote' },
+  { path: '**', component: NotFound, data: { subject: 'page' }, title: 'Not found · Laminote' },
 ];

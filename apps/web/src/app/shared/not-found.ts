@@ -17,10 +17,12 @@ export type NotFoundSubject = 'project' | 'study' | 'page';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class NotFound {
-  readonly subject = input<NotFoundSubject>('page');
+  /** Also bound from route data; a route that gives none leaves it undefined, which reads as `page`. */
+  readonly subject = input<NotFoundSubject | undefined>('page');
+  private readonly subjectOrPage = computed(() => this.subject() ?? 'page');
 
   protected readonly heading = computed(() => {
-    switch (this.subject()) {
+    switch (this.subjectOrPage()) {
       case 'project':
         return 'Project not found or not shared with you';
       case 'study':
@@ -31,7 +33,7 @@ export class NotFound {
   });
 
   protected readonly explanation = computed(() =>
-    this.subject() === 'page'
+    this.subjectOrPage() === 'page'
       ? 'There is nothing at this address.'
       : `It may have been removed, or you are not a member of its project. The project's lead can add you.`,
   );
