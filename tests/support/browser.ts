@@ -1,0 +1,35 @@
+import { execFileSync } from 'node:child_process';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { DEMO_USERS } from '../../oidc-fake/src/users';
+import { testEnv } from './env';
+
+/** Debian's chromium, headless, with no traffic beyond this machine. */
+export function chromiumPath(): string {
+  if (process.env['CHROMIUM_PATH']) return process.env['CHROMIUM_PATH'];
+  try {
+    return execFileSync('sh', ['-c', 'command -v chromium || command -v chromium-browser'], { encoding: 'utf8' }).trim();
+  } catch {
+    throw new Error("chromium is not installed: apt-get install chromium (the browser tests use Debian's chromium)");
+  }
+}
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: chromiumPath(),
+    headless: true,
+    args: ['--no-sandbox', '--disable-background-networking', '--disable-gpu', '--no-first-run', '--disable-component-update', '--disable-sync', '--disable-quic'],
+  });
+}
+
+/**
+ * Signs a demo person in the way a person does: the app's sign-in button, then their button on the
+ * identity provider's page. Leaves the page on the app.
+ */
+export async function signInThroughProvider(page: Page, role: 'lead' | 'engineer' | 'reviewer' | 'viewer' | 'admin'): Promise<void> {
+  const person = role === 'admin' ? DEMO_USERS.find((u) => u.siteAdmin)! : DEMO_USERS.find((u) => u.role === role)!;
+  await page.goto(testEnv.appUrl);
+  await page.getByRole('button', { name: /sign in/i }).first().click();
+  await page.waitForURL((url) => url.href.startsWith(testEnv.oidcIssuer));
+  await page.getByRole('button', { name: new RegExp(`Sign in as ${person.name}`) }).click();
+  await page.waitForURL((url) => url.href.startsWith(testEnv.appUrl));
+}
