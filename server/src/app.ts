@@ -41,6 +41,10 @@ export function createApp(deps: AppDeps): Express {
         return id;
       },
       autoLogging: { ignore: (req) => req.url === '/healthz' },
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
     }),
   );
   app.use(
@@ -62,8 +66,9 @@ export function createApp(deps: AppDeps): Express {
           formAction: ["'self'"],
         },
       },
-      // Sign-in redirects go to the identity provider's origin.
       crossOriginOpenerPolicy: { policy: 'same-origin' },
+      // HSTS only means something over https; on a loopback http address it would only confuse.
+      strictTransportSecurity: config.PUBLIC_URL.startsWith('https://'),
     }),
   );
 
