@@ -23,22 +23,22 @@ export const ENGINE_LIMITS = {
   maxTableRows: 200_000,
 } as const;
 
-const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive({ error: `${what} must be greater than zero` });
+const positive = () => z.number({ error: 'must be a number' }).positive({ error: 'must be greater than zero' });
 
 const flowSchema = z
   .strictObject({
     /** V∞ L / ν∞. */
-    reynolds: positive('reynolds').max(1e10, { error: 'reynolds above 1e10 is outside the engine range' }).optional(),
+    reynolds: positive().max(1e10, { error: 'above 1e10 is outside the engine range' }).optional(),
     /** ISA pressure (geopotential) altitude. */
-    altitude_m: z.number().min(-5000, { error: 'altitude_m below -5000 m is outside the ISA table' }).max(80_000, { error: 'altitude_m above 80000 m is outside the ISA table' }).optional(),
-    referenceLength_m: positive('referenceLength_m').optional(),
+    altitude_m: z.number().min(-5000, { error: 'below -5000 m is outside the standard atmosphere' }).max(80_000, { error: 'above 80000 m is outside the standard atmosphere' }).optional(),
+    referenceLength_m: positive().optional(),
     isaTemperatureOffset_K: z.number().min(-100).max(100).optional(),
     /** Free-stream Mach number; 0 means incompressible. */
     mach: z.number().min(0, { error: 'mach must not be negative' }).optional(),
     /** Critical amplification exponent of the e^N method. */
-    nCrit: positive('nCrit').max(30, { error: 'nCrit above 30 is not physical' }).optional(),
+    nCrit: positive().max(30, { error: 'above 30 is not physical' }).optional(),
     /** Free-stream turbulence intensity as a fraction (0.0007 = 0.07 %). */
-    turbulenceIntensity: positive('turbulenceIntensity').max(0.5, { error: 'turbulenceIntensity is a fraction (0.001 = 0.1 %)' }).optional(),
+    turbulenceIntensity: positive().max(0.5, { error: 'is a fraction (0.001 = 0.1 %) and at most 0.5' }).optional(),
   })
   .superRefine((flow, ctx) => {
     const mach = flow.mach ?? 0;
@@ -62,22 +62,22 @@ const flowSchema = z
     }
   });
 
-const stationArray = (what: string) =>
+const stationArray = () =>
   z
-    .array(z.number({ error: `${what} values must be numbers` }))
+    .array(z.number({ error: 'must be a number' }))
     .max(ENGINE_LIMITS.maxStationsPerSurface, { error: `more than ${ENGINE_LIMITS.maxStationsPerSurface} stations (limit)` });
 
 const surfaceSchema = z
   .strictObject({
     name: z.string().trim().min(1, { error: 'name must not be empty' }).max(64),
     /** Arc length from the attachment line, strictly increasing. */
-    s: stationArray('s').min(3, { error: 'needs at least 3 stations' }),
+    s: stationArray().min(3, { error: 'needs at least 3 stations' }),
     /** Ue / V∞ (one of ue or cp). */
-    ue: stationArray('ue').optional(),
+    ue: stationArray().optional(),
     /** Pressure coefficient, converted to Ue / V∞ with the free-stream Mach number (one of ue or cp). */
-    cp: stationArray('cp').optional(),
+    cp: stationArray().optional(),
     /** Body radius; present means axisymmetric (Mangler transformation). */
-    r: stationArray('r').optional(),
+    r: stationArray().optional(),
     /** Forced transition at this arc length. */
     trip: z.number().optional(),
   })
@@ -128,7 +128,7 @@ const surfaceSchema = z
       }
     }
     if (surface.trip !== undefined && (surface.trip < s[0] || surface.trip > s[n - 1])) {
-      ctx.addIssue({ code: 'custom', path: ['trip'], message: `trip at s = ${surface.trip} is outside the surface (${s[0]} to ${s[n - 1]})` });
+      ctx.addIssue({ code: 'custom', path: ['trip'], message: `s = ${surface.trip} is outside the surface (${s[0]} to ${s[n - 1]})` });
     }
   });
 
@@ -142,7 +142,7 @@ export const engineCaseSchema = z
     /** Leading-edge sweep in degrees, for the attachment-line check. */
     sweepDeg: z.number().gt(-90, { error: 'sweepDeg must lie between -90 and 90' }).lt(90, { error: 'sweepDeg must lie between -90 and 90' }).default(0),
     /** Leading-edge radius normal to the leading edge (divided by L), for the attachment-line check. */
-    leadingEdgeRadius: positive('leadingEdgeRadius').optional(),
+    leadingEdgeRadius: positive().optional(),
     /** March the turbulent boundary layer (Head) after transition; false stops at transition. */
     turbulent: z.boolean().default(true),
   })

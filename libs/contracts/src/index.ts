@@ -2,3 +2,5 @@ export * from './roles';
 export * from './api';
 export * from './engine';
 export * from './notebook';
+export * from './versions';
+export * from './review';

@@ -1,0 +1,527 @@
+import {
+  engineCaseSchema,
+  type EngineCase,
+  type EngineResult,
+  type EngineSurfaceResult,
+  type TransitionCause,
+  type TransitionCriterion,
+} from '@laminote/contracts';
+import type { z } from 'zod';
+import { attachmentLineCheck } from './attachment-line';
+import { edgeVelocityRatio, localMach, localMachFromVelocity, stagnationPressureCoefficient } from './compressible';
+import { criticalReTheta, envelopeGrowthRate, MACK_TURBULENCE_RANGE, mackCriticalN } from './envelope-en';
+import { deriveFlowCondition, type FlowCondition } from './flow-condition';
+import { granvilleReThetaRise } from './granville';
+import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './head';
+import { hRexTransitionReX } from './h-rex';
+import { michelTransitionReTheta } from './michel';
+import { parsePressureTable } from './pressure-table';
+import { leastSquaresSlope } from './smoothing';
+import { splitAtStagnation, StagnationError } from './stagnation';
+import { squireYoungDrag } from './squire-young';
+import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
+
+/**
+ * The engine's entry point: validate a case, march the boundary layer along each surface (Thwaites,
+ * then Head after transition), evaluate the transition criteria, and estimate the drag (Squire–Young).
+ * The API, the worker threads, the job queue and the command line all call `analyzeCase`.
+ */
+
+/** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
+export const ENGINE_VERSION = '1.0.0';
+
+/** Shown wherever results are: what these numbers are and what decides instead. */
+export const ENGINE_CAUTION =
+  'Engineering estimates from integral boundary-layer methods and empirical transition criteria. ' +
+  'Validated tools, test data and the governing design and certification practice decide.';
+
+/** Bad input: `field` names where, e.g. `surfaces[0].s[12]` or `pressureTable line 7`. */
+export class CaseError extends Error {
+  constructor(
+    readonly field: string,
+    readonly detail: string,
+  ) {
+    super(`${field}: ${detail}`);
+    this.name = 'CaseError';
+  }
+}
+
+const DEFAULT_N_CRIT = 9;
+/** Cp may exceed the stagnation value by round-off in the input, not more. */
+const STAGNATION_CP_TOLERANCE = 1e-6;
+const SMOOTHING_HALF_WIDTH = 2;
+
+interface PreparedSurface {
+  name: string;
+  s: Float64Array;
+  ue: Float64Array;
+  x: Float64Array | null;
+  radius: Float64Array | null;
+  trip: number | null;
+  /** d(Ue/V∞)/ds at a stagnation-point start, when known better than from the stations. */
+  stagnationGradient: number | null;
+}
+
+interface SurfaceContext {
+  reynolds: number;
+  mach: number;
+  nCrit: number;
+  criteria: readonly TransitionCriterion[];
+  turbulent: boolean;
+  warnings: string[];
+}
+
+/** Analyse a case (any JSON value); throws CaseError for bad input. */
+export function analyzeCase(input: unknown): EngineResult {
+  const parsed = engineCaseSchema.safeParse(input);
+  if (!parsed.success) throw caseErrorFromIssue(parsed.error.issues[0]);
+  const engineCase: EngineCase = parsed.data;
+  const warnings: string[] = [];
+
+  let flow: FlowCondition;
+  try {
+    flow = deriveFlowCondition(engineCase.flow);
+  } catch (error) {
+    throw new CaseError('flow', error instanceof Error ? error.message : String(error));
+  }
+  const { nCrit, nCritFrom } = criticalN(engineCase.flow, warnings);
+  if (flow.mach >= 0.3) {
+    warnings.push(`mach ${flow.mach}: the boundary-layer methods are incompressible; compressibility enters only through the Cp to Ue conversion`);
+  }
+
+  const surfaces =
+    engineCase.pressureTable !== undefined && engineCase.pressureTable.trim() !== ''
+      ? surfacesFromTable(engineCase.pressureTable, flow.mach, warnings)
+      : engineCase.surfaces!.map((surface, index) => surfaceFromArrays(surface, index, flow.mach, warnings));
+
+  const criteria = [...new Set(engineCase.criteria)];
+  const context: SurfaceContext = { reynolds: flow.reynolds, mach: flow.mach, nCrit, criteria, turbulent: engineCase.turbulent, warnings };
+  const gradients: number[] = [];
+  const results = surfaces.map((surface) => analyzeSurface(surface, context, gradients));
+
+  let cd: number | null = 0;
+  for (const r of results) cd = cd === null || r.cd === null ? null : cd + r.cd;
+
+  let attachmentLine: EngineResult['attachmentLine'] = null;
+  if (engineCase.sweepDeg !== 0) {
+    const velocityGradient = gradients.length > 0 ? gradients.reduce((a, b) => a + b, 0) / gradients.length : null;
+    attachmentLine = attachmentLineCheck({ reynolds: flow.reynolds, sweepDeg: engineCase.sweepDeg, velocityGradient, leadingEdgeRadius: engineCase.leadingEdgeRadius });
+    if (attachmentLine === null) {
+      warnings.push('attachment line not checked: give leadingEdgeRadius, or surfaces that start at the attachment line (Ue = 0)');
+    } else if (attachmentLine.verdict !== 'laminar') {
+      warnings.push(
+        attachmentLine.verdict === 'unstable'
+          ? `attachment line: R̄ = ${attachmentLine.reBar.toFixed(0)} is above Poll's instability value (about 580); the leading edge is expected to be turbulent`
+          : `attachment line: R̄ = ${attachmentLine.reBar.toFixed(0)} is above Poll's contamination value (about 245); turbulence from a wing–body junction would spread along the leading edge`,
+      );
+    }
+  }
+
+  return {
+    engineVersion: ENGINE_VERSION,
+    flow: { reynolds: flow.reynolds, mach: flow.mach, nCrit, nCritFrom },
+    surfaces: results,
+    cd,
+    attachmentLine,
+    warnings,
+  };
+}
+
+function criticalN(flow: EngineCase['flow'], warnings: string[]): { nCrit: number; nCritFrom: EngineResult['flow']['nCritFrom'] } {
+  if (flow.nCrit !== undefined) {
+    if (flow.turbulenceIntensity !== undefined) warnings.push('flow.nCrit is given, so flow.turbulenceIntensity is not used');
+    return { nCrit: flow.nCrit, nCritFrom: 'given' };
+  }
+  if (flow.turbulenceIntensity !== undefined) {
+    const tu = flow.turbulenceIntensity;
+    if (tu < MACK_TURBULENCE_RANGE[0] || tu > MACK_TURBULENCE_RANGE[1]) {
+      warnings.push(`turbulenceIntensity ${tu} is outside the range of Mack's relation (about ${MACK_TURBULENCE_RANGE[0]} to ${MACK_TURBULENCE_RANGE[1]}); N_crit is extrapolated`);
+    }
+    return { nCrit: mackCriticalN(tu), nCritFrom: 'turbulenceIntensity' };
+  }
+  return { nCrit: DEFAULT_N_CRIT, nCritFrom: 'default' };
+}
+
+function caseErrorFromIssue(issue: z.core.$ZodIssue): CaseError {
+  let field = '';
+  for (const key of issue.path) {
+    field += typeof key === 'number' ? `[${key}]` : field === '' ? String(key) : `.${String(key)}`;
+  }
+  if (issue.code === 'unrecognized_keys') {
+    const key = issue.keys[0];
+    return new CaseError(field === '' ? key : `${field}.${key}`, 'unknown field');
+  }
+  if (issue.code === 'invalid_type' && / received undefined$/.test(issue.message)) {
+    return new CaseError(field === '' ? 'case' : field, 'missing');
+  }
+  if (field === '' && issue.code === 'invalid_type') return new CaseError('case', 'must be a JSON object with flow and surfaces or pressureTable');
+  return new CaseError(field === '' ? 'case' : field, issue.message);
+}
+
+function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number], index: number, mach: number, warnings: string[]): PreparedSurface {
+  const n = surface.s.length;
+  const s = Float64Array.from(surface.s);
+  const ue = new Float64Array(n);
+  const prefix = `surfaces[${index}]`;
+  let maxLocalMach = 0;
+  if (surface.cp !== undefined) {
+    const cp0 = stagnationPressureCoefficient(mach);
+    for (let i = 0; i < n; i++) {
+      const cp = surface.cp[i];
+      if (cp > cp0 + STAGNATION_CP_TOLERANCE) {
+        throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is above the stagnation value ${cp0.toFixed(4)} at mach ${mach}`);
+      }
+      const u = cp >= cp0 ? 0 : edgeVelocityRatio(cp, mach);
+      if (Number.isNaN(u)) throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is below the vacuum limit at mach ${mach}`);
+      if (i > 0 && !(u > 0)) throw new CaseError(`${prefix}.cp[${i}]`, 'Cp reaches the stagnation value away from the first station');
+      ue[i] = u;
+      if (mach > 0) maxLocalMach = Math.max(maxLocalMach, localMach(cp, mach));
+    }
+  } else {
+    ue.set(surface.ue!);
+    if (mach > 0) for (let i = 0; i < n; i++) maxLocalMach = Math.max(maxLocalMach, localMachFromVelocity(ue[i], mach));
+  }
+  if (maxLocalMach > 1) {
+    warnings.push(`${surface.name}: local Mach number up to ${maxLocalMach.toFixed(2)} (supersonic pocket); the methods assume subsonic attached flow, results there are doubtful`);
+  }
+  if (s[0] > 0 && ue[0] > 0) {
+    warnings.push(`${surface.name}: the first station is at s = ${s[0]} with Ue > 0; the boundary layer is taken to start there`);
+  }
+  return {
+    name: surface.name,
+    s,
+    ue,
+    x: null,
+    radius: surface.r === undefined ? null : Float64Array.from(surface.r),
+    trip: surface.trip ?? null,
+    stagnationGradient: null,
+  };
+}
+
+function surfacesFromTable(text: string, mach: number, warnings: string[]): PreparedSurface[] {
+  const table = parsePressureTable(text);
+  if (!table.ok) {
+    const problem = table.problems[0];
+    throw new CaseError(problem.line > 0 ? `pressureTable line ${problem.line}` : 'pressureTable', problem.message);
+  }
+  const rows = table.rows;
+  const n = rows.length;
+  const x = new Float64Array(n);
+  const y = table.hasY ? new Float64Array(n) : null;
+  const speed = new Float64Array(n);
+  const cp0 = stagnationPressureCoefficient(mach);
+  let maxLocalMach = 0;
+  for (let i = 0; i < n; i++) {
+    const row = rows[i];
+    x[i] = row.x;
+    if (y !== null) y[i] = row.y!;
+    if (row.cp > cp0 + STAGNATION_CP_TOLERANCE) {
+      throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is above the stagnation value ${cp0.toFixed(4)} at mach ${mach}`);
+    }
+    const u = row.cp >= cp0 ? 0 : edgeVelocityRatio(row.cp, mach);
+    if (Number.isNaN(u)) throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is below the vacuum limit at mach ${mach}`);
+    speed[i] = u;
+    if (mach > 0) maxLocalMach = Math.max(maxLocalMach, localMach(row.cp, mach));
+  }
+  let split;
+  try {
+    split = splitAtStagnation(x, y, speed);
+  } catch (error) {
+    if (error instanceof StagnationError) {
+      throw new CaseError(error.row > 0 || n === 0 ? `pressureTable line ${rows[Math.min(error.row, n - 1)].line}` : 'pressureTable', error.message);
+    }
+    throw error;
+  }
+  if (y === null) {
+    warnings.push('pressureTable has no y column: arc length is taken from x alone, which understates it round the leading edge; the first part of the loop is named upper');
+  }
+  if (maxLocalMach > 1) {
+    warnings.push(`pressureTable: local Mach number up to ${maxLocalMach.toFixed(2)} (supersonic pocket); the methods assume subsonic attached flow, results there are doubtful`);
+  }
+  for (const [name, branch] of [['upper', split.upper] as const, ['lower', split.lower] as const]) {
+    if (branch.s.length < 3) {
+      throw new CaseError('pressureTable', `the ${name} surface has fewer than 3 points after the stagnation point`);
+    }
+    for (let i = 2; i < branch.ue.length; i++) {
+      if (!(branch.ue[i] > 0)) {
+        throw new CaseError(`pressureTable line ${rows[branch.source[i]].line}`, `Cp reaches the stagnation value on the ${name} surface away from the leading edge`);
+      }
+    }
+  }
+  return [split.upper, split.lower].map((branch, k) => ({
+    name: k === 0 ? 'upper' : 'lower',
+    s: branch.s,
+    ue: branch.ue,
+    x: branch.x,
+    radius: null,
+    trip: null,
+    stagnationGradient: split.stagnation.velocityGradient,
+  }));
+}
+
+/** First upward crossing of g through zero between stations i−1 and i, as a fraction of the interval. */
+function crossing(gPrev: number, g: number): number {
+  return Number.isFinite(gPrev) && gPrev < g ? Math.min(1, Math.max(0, gPrev / (gPrev - g))) : 1;
+}
+
+function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradients: number[]): EngineSurfaceResult {
+  const { s, ue, radius } = surface;
+  const { reynolds, nCrit, criteria, warnings } = context;
+  const n = s.length;
+
+  const dUeds = leastSquaresSlope(s, ue, new Float64Array(n), SMOOTHING_HALF_WIDTH);
+  const stagnationStart = ue[0] === 0;
+  if (stagnationStart && surface.stagnationGradient !== null) dUeds[0] = surface.stagnationGradient;
+  if (stagnationStart && dUeds[0] > 0) gradients.push(dUeds[0]);
+  let dRds: Float64Array | null = null;
+  if (radius !== null) dRds = leastSquaresSlope(s, radius, new Float64Array(n), SMOOTHING_HALF_WIDTH);
+
+  const theta = new Float64Array(n);
+  const lambda = new Float64Array(n);
+  const shape = new Float64Array(n);
+  const cf = new Float64Array(n);
+  const wallShear = new Float64Array(n);
+  thwaitesMarch(s, ue, dUeds, reynolds, radius, { theta, lambda, shapeFactor: shape, skinFriction: cf, wallShear });
+  if (!(theta[0] >= 0)) {
+    // A stagnation start without a positive velocity gradient: take the state of the next station.
+    theta[0] = theta[1];
+    lambda[0] = lambda[1];
+    shape[0] = shape[1];
+    wallShear[0] = 0;
+    warnings.push(`${surface.name}: Ue rises too slowly from the stagnation point to set the start of the laminar layer; the second station's state is used`);
+  }
+
+  // Laminar separation: first station where λ falls to −0.09.
+  let separationIndex = n;
+  let laminarSeparationS: number | null = null;
+  for (let i = 1; i < n; i++) {
+    if (lambda[i] <= THWAITES_SEPARATION_LAMBDA) {
+      const f = crossing(THWAITES_SEPARATION_LAMBDA - lambda[i - 1], THWAITES_SEPARATION_LAMBDA - lambda[i]);
+      laminarSeparationS = s[i - 1] + f * (s[i] - s[i - 1]);
+      separationIndex = i;
+      break;
+    }
+  }
+
+  // Transition criteria along the laminar solution, up to laminar separation.
+  const nFactor = new Float64Array(n);
+  const wantEN = criteria.includes('eN');
+  const wantMichel = criteria.includes('michel');
+  const wantHRx = criteria.includes('hRx');
+  const wantGranville = criteria.includes('granville');
+  const found: Partial<Record<TransitionCriterion, { s: number; reTheta: number; reS: number } | null>> = {};
+  for (const c of criteria) found[c] = null;
+  const record = (criterion: TransitionCriterion, i: number, f: number) => {
+    const si = s[i - 1] + f * (s[i] - s[i - 1]);
+    const reThetaPrev = reynolds * ue[i - 1] * theta[i - 1];
+    const reThetaHere = reynolds * ue[i] * theta[i];
+    const uAt = ue[i - 1] + f * (ue[i] - ue[i - 1]);
+    if (laminarSeparationS !== null && si > laminarSeparationS) return;
+    found[criterion] = { s: si, reTheta: reThetaPrev + f * (reThetaHere - reThetaPrev), reS: reynolds * uAt * si };
+  };
+  let gEN = -Infinity;
+  let gMichel = -Infinity;
+  let gHRx = -Infinity;
+  let gGranville = -Infinity;
+  let rate = 0;
+  let instabilityS = NaN;
+  let instabilityReTheta = NaN;
+  let lambdaIntegral = 0;
+  // Stations are evaluated up to the first one past laminar separation; a criterion met beyond the
+  // separation point is not reported (the laminar solution ends there).
+  const last = Math.min(n - 1, separationIndex);
+  for (let i = 0; i <= last; i++) {
+    const reTheta = reynolds * ue[i] * theta[i];
+    const reS = reynolds * ue[i] * s[i];
+    const h = shape[i];
+    const critical = criticalReTheta(h);
+    // Envelope N by the trapezoidal rule on dN/ds.
+    const rateHere = reTheta > critical ? envelopeGrowthRate(h, theta[i]) : 0;
+    if (i > 0) nFactor[i] = nFactor[i - 1] + 0.5 * (rate + rateHere) * (s[i] - s[i - 1]);
+    rate = rateHere;
+    if (i === 0) continue;
+    if (wantEN && found.eN === null) {
+      const g = nFactor[i] - nCrit;
+      if (g >= 0) record('eN', i, crossing(gEN, g));
+      gEN = g;
+    }
+    if (wantMichel && found.michel === null && reS > 0) {
+      const g = reTheta - michelTransitionReTheta(reS);
+      if (g >= 0) record('michel', i, crossing(gMichel, g));
+      gMichel = g;
+    }
+    if (wantHRx && found.hRx === null && reS > 0) {
+      const g = Math.log(reS) - Math.log(hRexTransitionReX(h));
+      if (g >= 0) record('hRx', i, crossing(gHRx, g));
+      gHRx = g;
+    }
+    if (wantGranville && found.granville === null) {
+      if (Number.isNaN(instabilityS)) {
+        if (reTheta >= critical) {
+          const reThetaPrev = reynolds * ue[i - 1] * theta[i - 1];
+          const criticalPrev = criticalReTheta(shape[i - 1]);
+          const f = crossing(reThetaPrev - criticalPrev, reTheta - critical);
+          instabilityS = s[i - 1] + f * (s[i] - s[i - 1]);
+          instabilityReTheta = reThetaPrev + f * (reTheta - reThetaPrev);
+          const lambdaAt = lambda[i - 1] + f * (lambda[i] - lambda[i - 1]);
+          lambdaIntegral = 0.5 * (lambdaAt + lambda[i]) * (s[i] - instabilityS);
+        }
+      } else {
+        lambdaIntegral += 0.5 * (lambda[i - 1] + lambda[i]) * (s[i] - s[i - 1]);
+      }
+      if (!Number.isNaN(instabilityS)) {
+        const meanLambda = s[i] > instabilityS ? lambdaIntegral / (s[i] - instabilityS) : lambda[i];
+        const g = reTheta - instabilityReTheta - granvilleReThetaRise(meanLambda);
+        if (g >= 0) record('granville', i, crossing(gGranville, g));
+        gGranville = g;
+      }
+    }
+  }
+
+  // The governing transition: the earliest of the criteria, a trip, and laminar separation.
+  let transitionS: number | null = null;
+  let transitionBy: TransitionCause | null = null;
+  for (const c of criteria) {
+    const r = found[c];
+    if (r != null && (transitionS === null || r.s < transitionS)) {
+      transitionS = r.s;
+      transitionBy = c;
+    }
+  }
+  if (surface.trip !== null && (transitionS === null || surface.trip < transitionS) && (laminarSeparationS === null || surface.trip <= laminarSeparationS)) {
+    transitionS = surface.trip;
+    transitionBy = 'trip';
+  }
+  let laminarSeparation: { s: number } | null = null;
+  if (laminarSeparationS !== null && (transitionS === null || laminarSeparationS < transitionS)) {
+    transitionS = laminarSeparationS;
+    transitionBy = 'laminarSeparation';
+    laminarSeparation = { s: laminarSeparationS };
+    warnings.push(
+      `${surface.name}: laminar separation at s = ${round(laminarSeparationS)} ahead of natural transition; the layer is assumed to reattach turbulent at once (a short bubble), which a long bubble or stall would not do`,
+    );
+  }
+  if (found.michel != null && (found.michel.reS < 1e5 || found.michel.reS > 4e7)) {
+    warnings.push(`${surface.name}: Michel's criterion is applied at Re_s = ${found.michel.reS.toExponential(2)}, outside the range it was fitted to (1e5 to 4e7)`);
+  }
+
+  // Station values: laminar up to transition, turbulent after it.
+  const outTheta = theta;
+  const outShape = shape;
+  const outCf = cf;
+  const outShear = wallShear;
+  let turbulentSeparation: { s: number } | null = null;
+  let cd: number | null;
+  let cdFriction: number | null;
+  if (transitionS === null) {
+    cd = squireYoungDrag(theta[n - 1], ue[n - 1], shape[n - 1]);
+    cdFriction = integrateShear(s, outShear, n - 1, null);
+  } else {
+    let firstTurbulent = 0;
+    while (firstTurbulent < n && s[firstTurbulent] <= transitionS) firstTurbulent++;
+    markFrom(nFactor, firstTurbulent, n);
+    if (!context.turbulent) {
+      for (const a of [outTheta, outShape, outCf]) markFrom(a, firstTurbulent, n);
+      cd = null;
+      cdFriction = null;
+      warnings.push(`${surface.name}: the turbulent march is switched off, so the drag after transition at s = ${round(transitionS)} is not estimated`);
+    } else {
+      // The laminar state at transition, interpolated in the interval that holds it.
+      const k = Math.max(0, firstTurbulent - 1);
+      const k1 = Math.min(n - 1, k + 1);
+      const w = k1 > k ? Math.min(1, Math.max(0, (transitionS - s[k]) / (s[k1] - s[k]))) : 0;
+      let start = {
+        s: transitionS,
+        index: k,
+        theta: theta[k] + w * (theta[k1] - theta[k]),
+        ue: ue[k] + w * (ue[k1] - ue[k]),
+        laminarShear: Number.isFinite(wallShear[k]) ? wallShear[k] + w * (wallShear[k1] - wallShear[k]) : wallShear[k1],
+      };
+      if (!(start.ue > 0 && start.theta > 0)) {
+        // Transition forced at the leading edge or the stagnation point itself: the turbulent layer
+        // starts from the laminar state at the next station.
+        start = { s: s[1], index: 1, theta: theta[1], ue: ue[1], laminarShear: wallShear[1] };
+      }
+      const turbulentShear = ludwiegTillmannCf(TURBULENT_START_SHAPE_FACTOR, reynolds * start.ue * start.theta) * start.ue * start.ue;
+      const march = headMarch(
+        { s, ue, dUeds, radius, dRds, reynolds, startS: start.s, startTheta: start.theta },
+        { theta: outTheta, shapeFactor: outShape, skinFriction: outCf },
+      );
+      for (let j = start.index + 1; j < n; j++) outShear[j] = outCf[j] * ue[j] * ue[j];
+      if (march.separationS !== null) {
+        turbulentSeparation = { s: march.separationS };
+        warnings.push(`${surface.name}: turbulent separation at s = ${round(march.separationS)}; the march stops there and the drag is only indicative (Squire–Young at separation)`);
+      }
+      cd = squireYoungDrag(march.endTheta, march.endUe, march.endShapeFactor);
+      cdFriction = integrateShear(s, outShear, march.lastIndex, { s: start.s, index: start.index, laminar: start.laminarShear, turbulent: turbulentShear });
+    }
+  }
+
+  const stations: EngineSurfaceResult['stations'] = {
+    s: Array.from(s),
+    ue: Array.from(ue),
+    theta: nullable(outTheta, n),
+    deltaStar: product(outTheta, outShape, n),
+    H: nullable(outShape, n),
+    cf: nullable(outCf, n),
+    n: nullable(nFactor, n),
+  };
+  if (surface.x !== null) stations.x = Array.from(surface.x);
+  return {
+    name: surface.name,
+    stations,
+    transition: { s: transitionS, by: transitionBy, criteria: found },
+    laminarSeparation,
+    turbulentSeparation,
+    cd,
+    cdFriction,
+  };
+}
+
+/**
+ * ∫ τw ds / (½ ρ V∞² L) by the trapezoidal rule up to station `end`, splitting the interval that holds
+ * the transition, and integrating a sharp leading edge's τ ∝ s^−½ exactly.
+ */
+function integrateShear(
+  s: Float64Array,
+  shear: Float64Array,
+  end: number,
+  transition: { s: number; index: number; laminar: number; turbulent: number } | null,
+): number {
+  let total = 0;
+  for (let i = 1; i <= end; i++) {
+    const ds = s[i] - s[i - 1];
+    if (transition !== null && i - 1 === transition.index) {
+      const a = Number.isFinite(shear[i - 1]) ? 0.5 * (shear[i - 1] + transition.laminar) * (transition.s - s[i - 1]) : 2 * transition.laminar * (transition.s - s[i - 1]);
+      total += a + 0.5 * (transition.turbulent + shear[i]) * (s[i] - transition.s);
+    } else if (!Number.isFinite(shear[i - 1])) {
+      total += 2 * shear[i] * ds;
+    } else {
+      total += 0.5 * (shear[i - 1] + shear[i]) * ds;
+    }
+  }
+  return total;
+}
+
+function markFrom(a: Float64Array, from: number, n: number): void {
+  for (let i = from; i < n; i++) a[i] = NaN;
+}
+
+function nullable(a: Float64Array, n: number): (number | null)[] {
+  const out = new Array<number | null>(n);
+  for (let i = 0; i < n; i++) out[i] = Number.isFinite(a[i]) ? a[i] : null;
+  return out;
+}
+
+function product(a: Float64Array, b: Float64Array, n: number): (number | null)[] {
+  const out = new Array<number | null>(n);
+  for (let i = 0; i < n; i++) {
+    const v = a[i] * b[i];
+    out[i] = Number.isFinite(v) ? v : null;
+  }
+  return out;
+}
+
+function round(value: number): string {
+  return Number(value.toPrecision(4)).toString();
+}

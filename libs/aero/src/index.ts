@@ -1,0 +1,20 @@
+/**
+ * @laminote/aero — the boundary-layer and transition engine. Pure TypeScript, no DOM, no Node APIs.
+ */
+export { analyzeCase, CaseError, ENGINE_CAUTION, ENGINE_VERSION } from './analyze';
+export * from './atmosphere';
+export * from './attachment-line';
+export * from './compressible';
+export * from './demo-sections';
+export * from './envelope-en';
+export * from './flat-plate';
+export * from './flow-condition';
+export * from './granville';
+export * from './h-rex';
+export * from './head';
+export * from './michel';
+export * from './pressure-table';
+export * from './smoothing';
+export * from './squire-young';
+export * from './stagnation';
+export * from './thwaites';

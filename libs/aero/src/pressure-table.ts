@@ -1,0 +1,168 @@
+/**
+ * Reader for pasted or uploaded pressure tables: rows of `x cp` or `x y cp`.
+ *
+ * Fields are separated by tabs, commas, semicolons or spaces; `#` starts a comment to the end of the
+ * line; blank lines are skipped; one header row naming the columns is allowed before the data (names
+ * such as `x`, `x/c`, `y`, `z/c`, `cp`, `Cp`, `-cp`, in any order; `-cp` columns are negated).
+ * Without a header, two columns are `x cp` and three are `x y cp`. Every problem names its line
+ * (1-based; line 0 means the table as a whole) so the notebook can show it beside the text.
+ */
+
+export interface PressureTableRow {
+  /** 1-based line number in the pasted text. */
+  line: number;
+  x: number;
+  /** null when the table has no y column. */
+  y: number | null;
+  cp: number;
+}
+
+export interface PressureTableProblem {
+  /** 1-based line number; 0 means the table as a whole. */
+  line: number;
+  message: string;
+}
+
+export type PressureTableParse =
+  | { ok: true; rows: PressureTableRow[]; hasY: boolean; headerLine: number | null }
+  | { ok: false; problems: PressureTableProblem[] };
+
+export interface PressureTableOptions {
+  /** Refuse tables with more data rows than this (default 200 000). */
+  maxRows?: number;
+  /** Stop collecting problems after this many (default 20). */
+  maxProblems?: number;
+}
+
+const FIELD_SEPARATOR = /\s*[,;\t]\s*|\s+/;
+const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eEdD][+-]?\d+)?$/;
+
+type Column = 'x' | 'y' | 'cp' | 'minusCp';
+
+function columnOf(name: string): Column | null {
+  const key = name.toLowerCase().replace(/[\s_()[\]]/g, '');
+  if (key === 'x' || key === 'x/c' || key === 'xc' || key === 'x/l' || key === 's') return 'x';
+  if (key === 'y' || key === 'y/c' || key === 'yc' || key === 'z' || key === 'z/c' || key === 'zc') return 'y';
+  if (key === 'cp' || key === 'c_p' || key === 'cpressure') return 'cp';
+  if (key === '-cp') return 'minusCp';
+  return null;
+}
+
+function parseNumber(text: string): number {
+  return NUMBER.test(text) ? Number(text.replace(/[dD]/, 'e')) : NaN;
+}
+
+function splitFields(content: string): string[] {
+  let trimmed = content.trim();
+  // A separator at the end of a row (spreadsheet exports) does not open a field.
+  if (/[,;]$/.test(trimmed)) trimmed = trimmed.slice(0, -1).trimEnd();
+  return trimmed.split(FIELD_SEPARATOR);
+}
+
+/** Parse a pressure table; see the module comment for the accepted layout. */
+export function parsePressureTable(text: string, options: PressureTableOptions = {}): PressureTableParse {
+  const maxRows = options.maxRows ?? 200_000;
+  const maxProblems = options.maxProblems ?? 20;
+  const problems: PressureTableProblem[] = [];
+  const rows: PressureTableRow[] = [];
+  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+
+  let layout: { x: number; y: number; cp: number; cpSign: number; count: number; definedAt: number } | null = null;
+  let headerLine: number | null = null;
+  let names: string[] = [];
+
+  for (let index = 0; index < lines.length && problems.length < maxProblems; index++) {
+    const line = index + 1;
+    const hash = lines[index].indexOf('#');
+    const content = (hash >= 0 ? lines[index].slice(0, hash) : lines[index]).trim();
+    if (content === '') continue;
+    const fields = splitFields(content);
+
+    if (layout === null) {
+      const values = fields.map(parseNumber);
+      if (values.every(Number.isNaN) && headerLine === null && rows.length === 0 && /[a-zA-Z]/.test(content)) {
+        headerLine = line;
+        names = fields;
+        continue;
+      }
+      const header = headerLine === null ? null : names.map(columnOf);
+      const fromHeader = header === null ? null : layoutFromHeader(header, fields.length);
+      if (header !== null && fromHeader === null) {
+        problems.push({ line: headerLine!, message: `header "${names.join(' ')}" does not say which columns are x and cp (name them x, y, cp)` });
+        break;
+      }
+      if (fromHeader !== null) {
+        layout = { ...fromHeader, count: names.length, definedAt: headerLine! };
+        if (fields.length !== names.length) {
+          problems.push({ line, message: `${fields.length} values, but the header on line ${headerLine} names ${names.length} columns` });
+          continue;
+        }
+      } else if (fields.length === 2) {
+        layout = { x: 0, y: -1, cp: 1, cpSign: 1, count: 2, definedAt: line };
+      } else if (fields.length === 3) {
+        layout = { x: 0, y: 1, cp: 2, cpSign: 1, count: 3, definedAt: line };
+      } else {
+        problems.push({ line, message: `expected 2 values (x cp) or 3 values (x y cp), found ${fields.length}${decimalCommaHint(content)}` });
+        break;
+      }
+    }
+
+    if (fields.length !== layout.count) {
+      problems.push({ line, message: `${fields.length} values, expected ${layout.count} as on line ${layout.definedAt}${decimalCommaHint(content)}` });
+      continue;
+    }
+    const columnNames = layout.y >= 0 ? ['x', 'y', 'cp'] : ['x', 'cp'];
+    const picked = layout.y >= 0 ? [layout.x, layout.y, layout.cp] : [layout.x, layout.cp];
+    const values: number[] = [];
+    let bad = false;
+    for (let k = 0; k < picked.length; k++) {
+      const field = fields[picked[k]];
+      const value = field === '' ? NaN : parseNumber(field);
+      if (Number.isNaN(value)) {
+        problems.push({ line, message: field === '' ? `empty ${columnNames[k]} value` : `"${field}" is not a number (${columnNames[k]})` });
+        bad = true;
+        break;
+      }
+      if (!Number.isFinite(value)) {
+        problems.push({ line, message: `${columnNames[k]} value "${field}" is out of range` });
+        bad = true;
+        break;
+      }
+      values.push(value);
+    }
+    if (bad) continue;
+    if (rows.length >= maxRows) {
+      problems.push({ line, message: `more than ${maxRows} data rows (limit)` });
+      break;
+    }
+    rows.push(
+      layout.y >= 0
+        ? { line, x: values[0], y: values[1], cp: layout.cpSign * values[2] }
+        : { line, x: values[0], y: null, cp: layout.cpSign * values[1] },
+    );
+  }
+
+  if (problems.length > 0) return { ok: false, problems };
+  if (rows.length === 0) {
+    return { ok: false, problems: [{ line: headerLine ?? 0, message: headerLine === null ? 'the table has no data rows' : 'the table has a header but no data rows' }] };
+  }
+  return { ok: true, rows, hasY: layout !== null && layout.y >= 0, headerLine };
+}
+
+function layoutFromHeader(header: (Column | null)[], width: number): { x: number; y: number; cp: number; cpSign: number } | null {
+  const x = header.indexOf('x');
+  const y = header.indexOf('y');
+  const cp = header.indexOf('cp');
+  const minusCp = header.indexOf('minusCp');
+  const cpColumn = cp >= 0 ? cp : minusCp;
+  if (x >= 0 && cpColumn >= 0) return { x, y, cp: cpColumn, cpSign: cp >= 0 ? 1 : -1 };
+  // Unrecognised names on a plain two- or three-column table: read it by position.
+  if (header.length === width && (width === 2 || width === 3) && header.every((c) => c === null)) {
+    return width === 2 ? { x: 0, y: -1, cp: 1, cpSign: 1 } : { x: 0, y: 1, cp: 2, cpSign: 1 };
+  }
+  return null;
+}
+
+function decimalCommaHint(content: string): string {
+  return content.includes(';') && content.includes(',') ? ' (decimal commas are not read; use a decimal point)' : '';
+}

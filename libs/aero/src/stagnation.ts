@@ -1,0 +1,178 @@
+import { fitPolynomial } from './smoothing';
+
+/**
+ * Stagnation-point detection on a closed loop of surface points and the split into two surfaces.
+ *
+ * The loop runs from the trailing edge over one side, round the leading edge and back along the other
+ * side. Arc length is the polygon length Σ √(Δx² + Δy²) (Σ |Δx| when no y is given). The stagnation
+ * point is where the tangential velocity changes sign: the speed |Ue| is given a sign (negative
+ * before the lowest speed near the leading edge, positive after), a cubic is fitted by least squares to
+ * the signed velocity over the points round the minimum, and its root is the stagnation point. This
+ * resolves the point between stations and gives the leading-edge velocity gradient dUe/ds there,
+ * used by the stagnation-point start of the laminar march and by the attachment-line check
+ * (common practice; e.g. Cebeci & Cousteix, "Modeling and Computation of Boundary-Layer Flows", 2005).
+ */
+
+export interface SurfaceBranch {
+  /** Arc length from the stagnation point, strictly increasing, starting at 0. */
+  s: Float64Array;
+  /** |Ue|/V∞, 0 at the stagnation point. */
+  ue: Float64Array;
+  x: Float64Array;
+  y: Float64Array | null;
+  /** Row index in the loop for each station; −1 for the stagnation point itself. */
+  source: Int32Array;
+}
+
+export interface StagnationSplit {
+  stagnation: {
+    /** Arc length along the loop from its first point. */
+    loopArcLength: number;
+    x: number;
+    y: number | null;
+    /** d|Ue|/ds at the stagnation point, from the least-squares fit. */
+    velocityGradient: number;
+  };
+  upper: SurfaceBranch;
+  lower: SurfaceBranch;
+  /** true when the upper surface is the first part of the loop. */
+  upperFirst: boolean;
+}
+
+/** A point of the loop that prevents the split; `row` is the 0-based loop index. */
+export class StagnationError extends Error {
+  constructor(readonly row: number, message: string) {
+    super(message);
+    this.name = 'StagnationError';
+  }
+}
+
+/** Cumulative polygon arc length of the loop (|Δx| steps when y is null). */
+export function loopArcLength(x: ArrayLike<number>, y: ArrayLike<number> | null): Float64Array {
+  const n = x.length;
+  const arc = new Float64Array(n);
+  for (let i = 1; i < n; i++) {
+    const dx = x[i] - x[i - 1];
+    const ds = y === null ? Math.abs(dx) : Math.hypot(dx, y[i] - y[i - 1]);
+    if (!(ds > 0)) throw new StagnationError(i, 'repeats the point before it (zero arc length)');
+    arc[i] = arc[i - 1] + ds;
+  }
+  return arc;
+}
+
+/**
+ * Find the stagnation point of a closed loop with surface speeds `speed` = |Ue|/V∞ and split it into
+ * the upper and lower surfaces, each starting at the stagnation point.
+ */
+export function splitAtStagnation(x: ArrayLike<number>, y: ArrayLike<number> | null, speed: ArrayLike<number>): StagnationSplit {
+  const n = x.length;
+  if (n < 7) throw new StagnationError(0, `a closed loop needs at least 7 points, got ${n}`);
+  const arc = loopArcLength(x, y);
+
+  // The attachment line is near the leading edge: search the front part of the section only, so that
+  // a trailing-edge stagnation point at the ends of the loop is not taken for it.
+  let xMin = Infinity;
+  let xMax = -Infinity;
+  for (let i = 0; i < n; i++) {
+    if (x[i] < xMin) xMin = x[i];
+    if (x[i] > xMax) xMax = x[i];
+  }
+  const front = xMin + 0.3 * (xMax - xMin);
+  let k = -1;
+  for (let i = 1; i < n - 1; i++) if (x[i] <= front && (k < 0 || speed[i] < speed[k])) k = i;
+  if (k < 0) throw new StagnationError(0, 'no point near the leading edge; is this a closed loop from trailing edge to trailing edge?');
+  // The sign change lies between k and whichever neighbour is slower.
+  const a = speed[k - 1] < speed[k + 1] ? k - 1 : k;
+  const b = a + 1;
+  if (a < 1 || b > n - 2) throw new StagnationError(a < 1 ? 0 : n - 1, 'the stagnation point is at an end of the loop; the table must run from the trailing edge round the leading edge and back');
+
+  const signed = new Float64Array(n);
+  for (let i = 0; i < n; i++) signed[i] = i <= a ? -speed[i] : speed[i];
+  const from = Math.max(0, a - 2);
+  const to = Math.min(n - 1, b + 2);
+  const c = fitPolynomial(arc, signed, 3, from, to, arc[a]);
+  const value = (t: number) => c[0] + t * (c[1] + t * (c[2] + t * c[3]));
+  const slope = (t: number) => c[1] + t * (2 * c[2] + t * 3 * c[3]);
+  const span = arc[b] - arc[a];
+  // Bisection on the fitted cubic inside the bracketing interval; the data's own sign change keeps the
+  // root there, and linear interpolation of the data is the fallback if the fit does not bracket it.
+  let t0 = 0;
+  let t1 = span;
+  let root: number;
+  if (value(t0) <= 0 && value(t1) >= 0) {
+    for (let it = 0; it < 60; it++) {
+      const mid = 0.5 * (t0 + t1);
+      if (value(mid) <= 0) t0 = mid;
+      else t1 = mid;
+    }
+    root = 0.5 * (t0 + t1);
+  } else {
+    root = (span * speed[a]) / (speed[a] + speed[b]);
+  }
+  let gradient = slope(root);
+  if (!(gradient > 0)) gradient = (speed[a] + speed[b]) / span;
+  const fraction = root / span;
+  const stagnationArc = arc[a] + root;
+  const stagnationX = x[a] + fraction * (x[b] - x[a]);
+  const stagnationY = y === null ? null : y[a] + fraction * (y[b] - y[a]);
+
+  const tolerance = 1e-9 * arc[n - 1];
+  const first = branch(a, -1, 0, stagnationArc, tolerance, arc, x, y, speed, stagnationX, stagnationY);
+  const second = branch(b, 1, n - 1, stagnationArc, tolerance, arc, x, y, speed, stagnationX, stagnationY);
+  const upperFirst = y === null ? true : meanHeight(first) >= meanHeight(second);
+  return {
+    stagnation: { loopArcLength: stagnationArc, x: stagnationX, y: stagnationY, velocityGradient: gradient },
+    upper: upperFirst ? first : second,
+    lower: upperFirst ? second : first,
+    upperFirst,
+  };
+}
+
+function branch(
+  start: number,
+  step: number,
+  end: number,
+  stagnationArc: number,
+  tolerance: number,
+  arc: Float64Array,
+  x: ArrayLike<number>,
+  y: ArrayLike<number> | null,
+  speed: ArrayLike<number>,
+  stagnationX: number,
+  stagnationY: number | null,
+): SurfaceBranch {
+  const rows: number[] = [];
+  for (let i = start; step > 0 ? i <= end : i >= end; i += step) {
+    if (Math.abs(arc[i] - stagnationArc) > tolerance) rows.push(i);
+  }
+  const count = rows.length + 1;
+  const out: SurfaceBranch = {
+    s: new Float64Array(count),
+    ue: new Float64Array(count),
+    x: new Float64Array(count),
+    y: y === null ? null : new Float64Array(count),
+    source: new Int32Array(count),
+  };
+  out.x[0] = stagnationX;
+  if (out.y !== null) out.y[0] = stagnationY!;
+  out.source[0] = -1;
+  rows.forEach((row, j) => {
+    out.s[j + 1] = Math.abs(arc[row] - stagnationArc);
+    out.ue[j + 1] = speed[row];
+    out.x[j + 1] = x[row];
+    if (out.y !== null) out.y[j + 1] = y![row];
+    out.source[j + 1] = row;
+  });
+  return out;
+}
+
+function meanHeight(b: SurfaceBranch): number {
+  let area = 0;
+  let length = 0;
+  for (let i = 1; i < b.s.length; i++) {
+    const ds = b.s[i] - b.s[i - 1];
+    area += 0.5 * (b.y![i] + b.y![i - 1]) * ds;
+    length += ds;
+  }
+  return area / length;
+}
