@@ -55,14 +55,19 @@ describe('StudyList', () => {
     expect(await loader.getAllHarnesses(MatButtonHarness.with({ selector: '[aria-label^="Actions for"]' }))).toHaveLength(0);
   });
 
-  it('asks for archived studies too when the toggle is on', async () => {
+  it('adds the archived studies below the active ones when the toggle is on', async () => {
     const { fixture, loader } = await render(false);
     expectList(false).flush([study()]);
     await fixture.whenStable();
     await (await loader.getHarness(MatSlideToggleHarness.with({ label: /Show archived/ }))).toggle();
-    expectList(true).flush([study(), study({ id: '0f1e2d3c-4b5a-4968-8776-655443322110', title: 'Old tip', archived: true })]);
+    expectList(true).flush([study({ id: '0f1e2d3c-4b5a-4968-8776-655443322110', title: 'Old tip', archived: true })]);
+    expectList(false).flush([study()]);
     await fixture.whenStable();
     const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(rows['title'].text).toHaveLength(2);
+    expect(rows['title'].text[0]).toContain('Cruise upper surface, M 0.78');
+    expect(rows['title'].text[0]).not.toContain('Archived');
+    expect(rows['title'].text[1]).toContain('Old tip');
     expect(rows['title'].text[1]).toContain('Archived');
   });
 

@@ -9,6 +9,7 @@ import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { Study } from '@laminote/contracts';
+import { type Observable, forkJoin, map } from 'rxjs';
 import { Notifier } from '../core/notifier';
 import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
@@ -45,12 +46,19 @@ export class StudyList {
   protected readonly showArchived = signal(false);
   private readonly studiesLoad = loader(
     () => ({ projectId: this.projectId(), archived: this.showArchived() }),
-    ({ projectId, archived }) => this.api.list(projectId, { archived }),
+    ({ projectId, archived }) => (archived ? this.activeThenArchived(projectId) : this.api.list(projectId, { archived: false })),
   );
   protected readonly state = this.studiesLoad.state;
   protected readonly columns = computed(() =>
     this.mayEdit() ? ['title', 'createdBy', 'updatedAt', 'actions'] : ['title', 'createdBy', 'updatedAt'],
   );
+
+  /** The server lists active and archived studies apart; with the toggle on, both show, archived last. */
+  private activeThenArchived(projectId: string): Observable<Study[]> {
+    return forkJoin([this.api.list(projectId, { archived: false }), this.api.list(projectId, { archived: true })]).pipe(
+      map(([active, archived]) => [...active, ...archived]),
+    );
+  }
 
   protected reload(): void {
     this.studiesLoad.reload();

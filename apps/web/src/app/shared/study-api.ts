@@ -10,7 +10,7 @@ export class StudyApi {
   private readonly http = inject(HttpClient);
   private readonly base = inject(API_BASE);
 
-  /** A project's studies; `archived: true` asks for the archived ones as well. */
+  /** A project's active studies, or with `archived: true` its archived ones. */
   list(projectId: string, options: { archived: boolean }): Observable<Study[]> {
     return this.http.get<Study[]>(`${this.base}/projects/${encodeURIComponent(projectId)}/studies`, {
       params: { archived: String(options.archived) },
