@@ -40,7 +40,8 @@ export function entrainmentRate(entrainment: number): number {
 
 /** Ludwieg–Tillmann skin friction τw / (½ ρ Ue²). */
 export function ludwiegTillmannCf(shapeFactor: number, reTheta: number): number {
-  return 0.246 * Math.pow(10, -0.678 * shapeFactor) * Math.pow(reTheta, -0.268);
+  // 10^(−0.678 H) Re_θ^−0.268 as one exponential: this runs in every derivative evaluation.
+  return 0.246 * Math.exp(-0.678 * Math.LN10 * shapeFactor - 0.268 * Math.log(reTheta));
 }
 
 export interface TurbulentMarchInput {
