@@ -14,6 +14,7 @@ import { sessionMiddleware } from './auth/session';
 import { errorHandler, notFoundHandler } from './http/problem';
 import { projectsRouter } from './projects/routes';
 import { studiesRouter } from './studies/routes';
+import { versionsRouter } from './versions/routes';
 
 export interface AppDeps {
   config: Config;
@@ -88,6 +89,7 @@ export function createApp(deps: AppDeps): Express {
   const api = Router();
   api.use(projectsRouter({ db }));
   api.use(studiesRouter({ db }));
+  api.use(versionsRouter({ db }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -2,3 +2,4 @@ export * from './roles';
 export * from './api';
 export * from './engine';
 export * from './notebook';
+export * from './versions';

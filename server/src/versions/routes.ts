@@ -1,0 +1,115 @@
+import { Router } from 'express';
+import { eq } from 'drizzle-orm';
+import {
+  compareQuerySchema,
+  createBranchSchema,
+  markBaselineSchema,
+  restoreDraftSchema,
+  saveVersionSchema,
+  updateBranchSchema,
+} from '@laminote/contracts';
+import type { Db } from '../db/client';
+import { branches, versions } from '../db/schema';
+import type { SessionUser } from '../auth/types';
+import { requireAction, studyAccess } from '../access/access';
+import { badRequest, notFound, parse } from '../http/problem';
+import { compareVersions, studiesOf } from './compare';
+import * as service from './service';
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** The branch and the caller's access to its study; a branch the caller cannot see answers 404. */
+async function branchAccess(db: Db, user: SessionUser, branchId: string) {
+  if (!UUID.test(branchId)) throw notFound('branch');
+  const [branch] = await db.select().from(branches).where(eq(branches.id, branchId));
+  if (!branch) throw notFound('branch');
+  const context = await studyAccess(db, user, branch.studyId).catch(() => {
+    throw notFound('branch');
+  });
+  return { branch, ...context, place: { studyId: context.study.id, projectId: context.projectId } };
+}
+
+async function versionAccess(db: Db, user: SessionUser, versionId: string) {
+  if (!UUID.test(versionId)) throw notFound('version');
+  const [version] = await db.select({ id: versions.id, studyId: versions.studyId }).from(versions).where(eq(versions.id, versionId));
+  if (!version) throw notFound('version');
+  const context = await studyAccess(db, user, version.studyId).catch(() => {
+    throw notFound('version');
+  });
+  return { version, ...context, place: { studyId: context.study.id, projectId: context.projectId } };
+}
+
+/** Versions, history, branches, the baseline and comparison (issue 5). */
+export function versionsRouter({ db }: { db: Db }): Router {
+  const router = Router();
+
+  router.post('/branches/:branchId/versions', async (req, res) => {
+    const { branch, access, place } = await branchAccess(db, req.user!, req.params.branchId);
+    requireAction(access, 'saveVersion');
+    const input = parse(saveVersionSchema, req.body);
+    const versionId = await db.transaction((tx) => service.saveVersion(tx, req.user!, place, branch.id, input));
+    res.status(201).json(await service.versionSummary(db, versionId));
+  });
+
+  router.get('/branches/:branchId/versions', async (req, res) => {
+    const { branch } = await branchAccess(db, req.user!, req.params.branchId);
+    res.json(await service.branchVersions(db, branch.id));
+  });
+
+  router.post('/branches/:branchId/draft/restore', async (req, res) => {
+    const { branch, access, place } = await branchAccess(db, req.user!, req.params.branchId);
+    requireAction(access, 'editStudy');
+    const input = parse(restoreDraftSchema, req.body);
+    res.json(await db.transaction((tx) => service.restoreIntoDraft(tx, req.user!, place, branch.id, input.versionId, input.baseRevision)));
+  });
+
+  router.patch('/branches/:branchId', async (req, res) => {
+    const { branch, access, place } = await branchAccess(db, req.user!, req.params.branchId);
+    requireAction(access, 'branch');
+    const input = parse(updateBranchSchema, req.body);
+    await db.transaction((tx) => service.updateBranch(tx, req.user!, place, branch.id, input));
+    res.json((await service.branchOverviews(db, place.studyId)).find((b) => b.id === branch.id));
+  });
+
+  router.get('/versions/:versionId', async (req, res) => {
+    const { version } = await versionAccess(db, req.user!, req.params.versionId);
+    res.json(await service.versionDetail(db, version.id));
+  });
+
+  router.post('/versions/:versionId/branches', async (req, res) => {
+    const { version, access, place } = await versionAccess(db, req.user!, req.params.versionId);
+    requireAction(access, 'branch');
+    const input = parse(createBranchSchema, req.body);
+    const branchId = await db.transaction((tx) => service.createBranch(tx, req.user!, place, version.id, input));
+    res.status(201).json((await service.branchOverviews(db, place.studyId)).find((b) => b.id === branchId));
+  });
+
+  router.get('/studies/:studyId/versions', async (req, res) => {
+    const { study } = await studyAccess(db, req.user!, req.params.studyId);
+    res.json(await service.studyHistory(db, study.id));
+  });
+
+  router.post('/studies/:studyId/baseline', async (req, res) => {
+    const { study, access, projectId } = await studyAccess(db, req.user!, req.params.studyId);
+    requireAction(access, 'markBaseline');
+    const { versionId } = parse(markBaselineSchema, req.body);
+    await db.transaction((tx) => service.markBaseline(tx, req.user!, { studyId: study.id, projectId }, versionId));
+    res.json(await service.studyHistory(db, study.id));
+  });
+
+  router.get('/compare', async (req, res) => {
+    const { a, b } = parse(compareQuerySchema, req.query);
+    const studyOf = await studiesOf(db, [a, b]);
+    for (const [field, id] of [['a', a], ['b', b]] as const) {
+      const studyId = studyOf.get(id);
+      if (!studyId) throw notFound('version');
+      await studyAccess(db, req.user!, studyId).catch(() => {
+        throw notFound(`version (${field})`);
+      });
+    }
+    if (studyOf.get(a) !== studyOf.get(b)) throw badRequest('a and b must be versions of the same study', 'b');
+    res.json(await compareVersions(db, a, b));
+  });
+
+  return router;
+}
