@@ -14,6 +14,8 @@ import { sessionMiddleware } from './auth/session';
 import { errorHandler, notFoundHandler } from './http/problem';
 import { projectsRouter } from './projects/routes';
 import { studiesRouter } from './studies/routes';
+import { reviewRouter } from './review/routes';
+import { devMailRouter } from './mail/dev-routes';
 import { versionsRouter } from './versions/routes';
 
 export interface AppDeps {
@@ -89,6 +91,8 @@ export function createApp(deps: AppDeps): Express {
   const api = Router();
   api.use(projectsRouter({ db }));
   api.use(studiesRouter({ db }));
+  api.use(reviewRouter({ db, config }));
+  api.use(devMailRouter({ config }));
   api.use(versionsRouter({ db }));
   api.use(notFoundHandler);
   app.use('/api', api);

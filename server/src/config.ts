@@ -22,6 +22,8 @@ const configSchema = z
     SMTP_HOST: z.string().default('127.0.0.1'),
     SMTP_PORT: port(2525),
     MAIL_FROM: z.string().default('Laminote <laminote@tamsk.example>'),
+    /** The development mail sink's HTTP API (what it received), read by the site admins' mail page outside production. */
+    SMTP_SINK_HTTP_PORT: port(2526),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
     /** Engine worker threads; 0 picks from the number of cores. */
     ENGINE_THREADS: z.coerce.number().int().min(0).max(64).default(0),

@@ -5,6 +5,7 @@ import { connect } from './db/client';
 import { applyMigrations } from './db/migrate';
 import { createLogger } from './logger';
 import { createOidcClient } from './auth/oidc';
+import { startMailOutbox } from './mail/start';
 
 /** Starts the server: configuration, migrations, listen, and a clean shutdown on SIGINT/SIGTERM. */
 async function main(): Promise<void> {
@@ -22,6 +23,7 @@ async function main(): Promise<void> {
   const database = connect(config.DATABASE_URL);
   await applyMigrations(database.db);
   const app = createApp({ config, database, logger, oidc: createOidcClient(config) });
+  const outbox = startMailOutbox(database.db, config, logger);
   const server: Server = app.listen(config.PORT, config.HOST, () => {
     logger.info({ url: config.PUBLIC_URL, host: config.HOST, port: config.PORT }, 'Laminote is listening');
   });
@@ -31,7 +33,10 @@ async function main(): Promise<void> {
     stopping = true;
     logger.info({ signal }, 'shutting down');
     server.close(() => {
-      void database.close().finally(() => process.exit(0));
+      void outbox
+        .stop()
+        .then(() => database.close())
+        .finally(() => process.exit(0));
     });
     server.closeAllConnections?.();
     setTimeout(() => process.exit(1), 10_000).unref();

@@ -3,3 +3,4 @@ export * from './api';
 export * from './engine';
 export * from './notebook';
 export * from './versions';
+export * from './review';
