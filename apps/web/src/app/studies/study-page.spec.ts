@@ -2,7 +2,7 @@ import { TestBed } from '@angular/core/testing';
 import { HttpTestingController } from '@angular/common/http/testing';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { STUDY_ID, me, problem, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
+import { PROJECT_ID, STUDY_ID, me, problem, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
 
 describe('StudyPage', () => {
   let http: HttpTestingController;
@@ -30,6 +30,8 @@ describe('StudyPage', () => {
     expect(page.querySelector('h1')?.textContent).toBe('Cruise upper surface, M 0.78');
     expect(page.textContent).toContain('Invented Cp distribution at cruise.');
     expect(page.textContent).toContain('no cells yet');
+    const breadcrumb = page.querySelector('nav[aria-label="Breadcrumb"]');
+    expect(breadcrumb?.querySelector(`a[href="/projects/${PROJECT_ID}"]`)?.textContent).toBe('Larkspur T-62 wing');
     expect(document.title).toBe('Cruise upper surface, M 0.78 · Laminote');
   });
 

@@ -4,6 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
+import { Auth } from '../core/auth';
 import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { ProblemBanner } from '../shared/problem-banner';
@@ -23,6 +24,7 @@ import { StudyApi } from '../shared/study-api';
 export class StudyPage {
   private readonly api = inject(StudyApi);
   private readonly title = inject(Title);
+  private readonly auth = inject(Auth);
 
   /** From the route. */
   readonly studyId = input.required<string>();
@@ -30,6 +32,11 @@ export class StudyPage {
   private readonly studyLoad = loader(this.studyId, (id) => this.api.get(id));
   protected readonly state = this.studyLoad.state;
   protected readonly notFound = computed(() => this.state().problem?.status === 404);
+  /** The project's name from the person's memberships; a site admin outside the project sees "Project". */
+  protected readonly projectName = computed(() => {
+    const projectId = this.state().value?.projectId;
+    return this.auth.me()?.memberships.find((m) => m.projectId === projectId)?.projectName ?? 'Project';
+  });
 
   constructor() {
     effect(() => {
