@@ -1,0 +1,87 @@
+import { describe, expect, it } from 'vitest';
+import { analyzeCase, CaseError } from './analyze';
+import { parsePressureTable, type PressureTableParse } from './pressure-table';
+
+function rows(result: PressureTableParse) {
+  if (!result.ok) throw new Error(`unexpected problems: ${JSON.stringify(result.problems)}`);
+  return result.rows;
+}
+
+function problems(result: PressureTableParse) {
+  if (result.ok) throw new Error('expected problems');
+  return result.problems;
+}
+
+describe('pressure table reader', () => {
+  it('reads space, tab, comma and semicolon separated rows with comments and blank lines', () => {
+    const text = ['# Larkspur wing, station 3', '', '1.0 0.001 0.12', '0.5\t0.06\t-0.40  # mid-chord', '0.0, 0.0, 1.0', '0.5;-0.05;-0.2', '1.0 , -0.001 , 0.1,'].join('\n');
+    const read = rows(parsePressureTable(text));
+    expect(read.map((r) => r.line)).toEqual([3, 4, 5, 6, 7]);
+    expect(read[1]).toEqual({ line: 4, x: 0.5, y: 0.06, cp: -0.4 });
+    expect(read[4].cp).toBe(0.1);
+  });
+
+  it('reads two-column x cp tables and a header in any order, with a −Cp column', () => {
+    expect(rows(parsePressureTable('1 0.1\n0 1\n1 0.1'))[1]).toEqual({ line: 2, x: 0, y: null, cp: 1 });
+    const swapped = rows(parsePressureTable('Cp  x/c  z/c\n0.2 1.0 0.0\n1.0 0.0 0.0'));
+    expect(swapped[0]).toEqual({ line: 2, x: 1, y: 0, cp: 0.2 });
+    expect(rows(parsePressureTable('x -Cp\n0.3 0.45'))[0].cp).toBe(-0.45);
+    // Extra columns are ignored when the header names x and cp.
+    expect(rows(parsePressureTable('tap x y cp\n17 0.25 0.04 -0.6'))[0]).toEqual({ line: 2, x: 0.25, y: 0.04, cp: -0.6 });
+  });
+
+  it('accepts a byte-order mark, Windows line ends and Fortran-style exponents', () => {
+    expect(rows(parsePressureTable('\uFEFFx y cp\r\n1.0D+00 0 -2.5E-01\r\n'))[0]).toEqual({ line: 2, x: 1, y: 0, cp: -0.25 });
+  });
+
+  it('names the line of a value that is not a number', () => {
+    const text = 'x y cp\n1 0 0.1\n0.5 0.1 -0.3\n0 0 1\n0.5 -0.1 -0.1\n1 0 abc';
+    expect(problems(parsePressureTable(text))).toEqual([{ line: 6, message: '"abc" is not a number (cp)' }]);
+  });
+
+  it('names lines with the wrong number of values, and reports several problems', () => {
+    const found = problems(parsePressureTable('1 0 0.1\n0.5 0.1\n0 0 1\n0.5 0.1 0.2 0.3'));
+    expect(found.map((p) => p.line)).toEqual([2, 4]);
+    expect(found[0].message).toContain('expected 3');
+  });
+
+  it('explains decimal commas, empty tables and headers without data', () => {
+    expect(problems(parsePressureTable('0,5;0,1;-0,3'))[0].message).toContain('decimal point');
+    expect(problems(parsePressureTable('# nothing here\n\n'))).toEqual([{ line: 0, message: 'the table has no data rows' }]);
+    expect(problems(parsePressureTable('x y cp\n'))[0]).toEqual({ line: 1, message: 'the table has a header but no data rows' });
+    expect(problems(parsePressureTable('alpha beta gamma delta\n1 1 0 0.1'))[0]).toMatchObject({ line: 1 });
+  });
+
+  it('refuses more rows than the limit, naming the first line beyond it', () => {
+    const text = Array.from({ length: 12 }, (_, i) => `${i} 0.1`).join('\n');
+    expect(problems(parsePressureTable(text, { maxRows: 10 }))).toEqual([{ line: 11, message: 'more than 10 data rows (limit)' }]);
+  });
+});
+
+describe('pressure table errors through the engine', () => {
+  const field = (pressureTable: string, mach = 0) => {
+    try {
+      analyzeCase({ flow: { reynolds: 1e6, mach }, pressureTable });
+    } catch (error) {
+      if (error instanceof CaseError) return error;
+    }
+    throw new Error('expected a CaseError');
+  };
+
+  it('reports the table line in the field', () => {
+    const error = field('x y cp\n1 0 0.1\n0.5 0.1 -0.3\n0 0 1\n0.5 -0.1 x\n1 0 0.1');
+    expect(error.field).toBe('pressureTable line 5');
+    expect(error.message).toBe('pressureTable line 5: "x" is not a number (cp)');
+  });
+
+  it('refuses Cp above the stagnation value, naming its line', () => {
+    const error = field('x y cp\n1 0 0.1\n0.5 0.05 -0.3\n0.1 0.03 0.2\n0 0 1.2\n0.1 -0.03 0.3\n0.5 -0.05 -0.1\n1 0 0.1');
+    expect(error.field).toBe('pressureTable line 5');
+    expect(error.detail).toContain('above the stagnation value');
+  });
+
+  it('refuses a repeated point and a loop without its leading edge inside', () => {
+    expect(field('x y cp\n1 0 0.1\n0.5 0.05 -0.3\n0.5 0.05 -0.3\n0 0 1\n0.5 -0.05 -0.1\n0.8 -0.03 0\n1 0 0.1').field).toBe('pressureTable line 4');
+    expect(field('x y cp\n0 0 1\n0.2 0.04 -0.3\n0.4 0.05 -0.3\n0.6 0.04 -0.2\n0.8 0.02 0\n0.9 0.01 0.05\n1 0 0.1').detail).toContain('end of the loop');
+  });
+});

@@ -1,0 +1,55 @@
+import { describe, expect, it } from 'vitest';
+import { analyzeCase } from './analyze';
+import { splitAtStagnation } from './stagnation';
+import { joukowskiLoop } from '../test/joukowski';
+
+describe('stagnation point of an analytic closed loop (Joukowski aerofoil, exact potential flow)', () => {
+  const loop = joukowskiLoop({ re: -0.08, im: 0.05 }, 4, 161);
+  const split = splitAtStagnation(loop.x, loop.y, loop.speed);
+  const chord = Math.max(...loop.x) - Math.min(...loop.x);
+
+  it('finds the exact stagnation point between stations', () => {
+    const spacing = Math.hypot(loop.x[80] - loop.x[81], loop.y[80] - loop.y[81]);
+    const miss = Math.hypot(split.stagnation.x - loop.stagnation.x, split.stagnation.y! - loop.stagnation.y);
+    expect(miss).toBeLessThan(0.1 * spacing);
+    expect(miss / chord).toBeLessThan(1e-4);
+  });
+
+  it('gives the leading-edge velocity gradient within 2 %', () => {
+    expect(Math.abs(split.stagnation.velocityGradient / loop.stagnation.velocityGradient - 1)).toBeLessThan(0.02);
+  });
+
+  it('names the sides by height and measures arc length from the stagnation point', () => {
+    expect(split.upperFirst).toBe(true);
+    for (const side of [split.upper, split.lower]) {
+      expect(side.s[0]).toBe(0);
+      expect(side.ue[0]).toBe(0);
+      for (let i = 1; i < side.s.length; i++) expect(side.s[i]).toBeGreaterThan(side.s[i - 1]);
+    }
+    // At incidence the stagnation point lies on the lower side: the upper surface is the longer one.
+    expect(split.upper.s.at(-1)!).toBeGreaterThan(split.lower.s.at(-1)!);
+    // Arc lengths of both sides add up to the loop's perimeter.
+    let perimeter = 0;
+    for (let i = 1; i < loop.x.length; i++) perimeter += Math.hypot(loop.x[i] - loop.x[i - 1], loop.y[i] - loop.y[i - 1]);
+    expect(split.upper.s.at(-1)! + split.lower.s.at(-1)!).toBeCloseTo(perimeter, 10);
+  });
+
+  it('works on the reversed loop, naming the sides the same way', () => {
+    const reversed = splitAtStagnation([...loop.x].reverse(), [...loop.y].reverse(), [...loop.speed].reverse());
+    expect(reversed.upperFirst).toBe(false);
+    expect(reversed.stagnation.x).toBeCloseTo(split.stagnation.x, 8);
+    expect(reversed.upper.s.length).toBe(split.upper.s.length);
+  });
+
+  it('runs through the engine from a pasted table', () => {
+    const text = ['# Joukowski section, exact potential flow', 'x y cp', ...loop.x.map((x, i) => `${x}\t${loop.y[i]}\t${loop.cp[i]}`)].join('\n');
+    const result = analyzeCase({ flow: { reynolds: 3e6 }, pressureTable: text });
+    expect(result.surfaces.map((s) => s.name)).toEqual(['upper', 'lower']);
+    const upper = result.surfaces[0];
+    expect(upper.stations.x![0]).toBeCloseTo(split.stagnation.x, 12);
+    expect(upper.stations.ue[0]).toBe(0);
+    expect(upper.transition.s).not.toBeNull();
+    expect(result.cd!).toBeGreaterThan(0.002);
+    expect(result.cd!).toBeLessThan(0.02);
+  });
+});
