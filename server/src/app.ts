@@ -12,17 +12,21 @@ import type { OidcClient } from './auth/oidc';
 import { authRouter, loadUser, requireUser } from './auth/routes';
 import { sessionMiddleware } from './auth/session';
 import { errorHandler, notFoundHandler } from './http/problem';
+import type { EnginePool } from './engine/pool';
+import { draftBodyParser, notebookRouter } from './notebook/routes';
 import { projectsRouter } from './projects/routes';
 import { studiesRouter } from './studies/routes';
+import { versionsRouter } from './versions/routes';
 import { reviewRouter } from './review/routes';
 import { devMailRouter } from './mail/dev-routes';
-import { versionsRouter } from './versions/routes';
 
 export interface AppDeps {
   config: Config;
   database: Database;
   logger: Logger;
   oidc: OidcClient;
+  /** The engine's worker-thread pool; its owner (main.ts, the test app) closes it. */
+  engine: EnginePool;
 }
 
 /**
@@ -80,6 +84,7 @@ export function createApp(deps: AppDeps): Express {
     res.json({ status: 'ok' });
   });
 
+  app.use('/api/branches', draftBodyParser);
   app.use(express.json({ limit: '2mb' }));
   app.use(sessionMiddleware(config, database.pool));
   app.use(loadUser(db));
@@ -91,9 +96,10 @@ export function createApp(deps: AppDeps): Express {
   const api = Router();
   api.use(projectsRouter({ db }));
   api.use(studiesRouter({ db }));
+  api.use(notebookRouter({ db, engine: deps.engine, logger }));
+  api.use(versionsRouter({ db }));
   api.use(reviewRouter({ db, config }));
   api.use(devMailRouter({ config }));
-  api.use(versionsRouter({ db }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -5,6 +5,7 @@ import { connect } from './db/client';
 import { applyMigrations } from './db/migrate';
 import { createLogger } from './logger';
 import { createOidcClient } from './auth/oidc';
+import { createEnginePool } from './engine/pool';
 import { startMailOutbox } from './mail/start';
 
 /** Starts the server: configuration, migrations, listen, and a clean shutdown on SIGINT/SIGTERM. */
@@ -22,7 +23,8 @@ async function main(): Promise<void> {
   const logger = createLogger(config.LOG_LEVEL);
   const database = connect(config.DATABASE_URL);
   await applyMigrations(database.db);
-  const app = createApp({ config, database, logger, oidc: createOidcClient(config) });
+  const engine = createEnginePool({ threads: config.ENGINE_THREADS });
+  const app = createApp({ config, database, logger, oidc: createOidcClient(config), engine });
   const outbox = startMailOutbox(database.db, config, logger);
   const server: Server = app.listen(config.PORT, config.HOST, () => {
     logger.info({ url: config.PUBLIC_URL, host: config.HOST, port: config.PORT }, 'Laminote is listening');
@@ -33,8 +35,7 @@ async function main(): Promise<void> {
     stopping = true;
     logger.info({ signal }, 'shutting down');
     server.close(() => {
-      void outbox
-        .stop()
+      void Promise.allSettled([outbox.stop(), engine.close()])
         .then(() => database.close())
         .finally(() => process.exit(0));
     });

@@ -1,5 +1,6 @@
 import type { Express } from 'express';
 import { createApp } from '../../server/src/app';
+import { createEnginePool, type EnginePool } from '../../server/src/engine/pool';
 import { createOidcClient } from '../../server/src/auth/oidc';
 import { loadConfig, type Config } from '../../server/src/config';
 import { createLogger } from '../../server/src/logger';
@@ -13,6 +14,7 @@ export interface TestApp {
   config: Config;
   database: TestDatabase;
   demo: Awaited<ReturnType<typeof seedDemo>>;
+  engine: EnginePool;
   close(): Promise<void>;
 }
 
@@ -30,6 +32,17 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
     ...overrides,
   });
   const demo = await seedDemo(database.db, demoStudyFillers);
-  const app = createApp({ config, database, logger: createLogger(config.LOG_LEVEL), oidc: createOidcClient(config) });
-  return { app, config, database, demo, close: () => database.drop() };
+  const engine = createEnginePool({ threads: 2 });
+  const app = createApp({ config, database, logger: createLogger(config.LOG_LEVEL), oidc: createOidcClient(config), engine });
+  return {
+    app,
+    config,
+    database,
+    demo,
+    engine,
+    close: async () => {
+      await engine.close();
+      await database.drop();
+    },
+  };
 }

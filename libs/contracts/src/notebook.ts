@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { EngineResult } from './engine';
 
 /**
  * The study notebook: cell kinds with their input schemas, the branch draft, runs and outputs.
@@ -40,13 +41,28 @@ export const flowInputsSchema = z.object({
   turbulenceIntensity: finite('turbulenceIntensity').positive().max(0.05, 'turbulenceIntensity is a fraction, at most 0.05').optional(),
   nCrit: finite('nCrit').min(1).max(20).default(9),
   sweepDeg: finite('sweepDeg').min(0).max(70, 'sweepDeg must be at most 70°').default(0),
+}).superRefine((flow, ctx) => {
+  if (flow.mode === 'reynolds' && flow.reynolds === undefined) ctx.addIssue({ code: 'custom', path: ['reynolds'], message: 'reynolds is needed when the condition is given by Reynolds number' });
+  if (flow.mode === 'altitude' && !(flow.mach > 0)) ctx.addIssue({ code: 'custom', path: ['mach'], message: 'mach must be greater than zero to give a Reynolds number from the altitude' });
+  if (flow.turbulenceMode === 'intensity' && flow.turbulenceIntensity === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['turbulenceIntensity'], message: 'turbulenceIntensity is needed when N_crit comes from the turbulence level' });
+  }
 });
 export type FlowInputs = z.infer<typeof flowInputsSchema>;
 
-/** Pressure distribution: a pasted or uploaded table, one closed loop or one surface. */
+/** Largest pasted or uploaded table a pressure cell holds (characters), and largest uploaded file (bytes). */
+export const PRESSURE_TEXT_LIMIT = 5_000_000;
+export const UPLOAD_LIMIT_BYTES = 5 * 1024 * 1024;
+
+/**
+ * Pressure distribution: a pasted or uploaded table, one closed loop or one surface. A closed loop runs
+ * `x [y] cp` from the trailing edge over one side to the other (the stagnation point is found); a
+ * single surface starts at the attachment line. With `hasRadius` the table needs a header row naming
+ * a radius column (`r`), e.g. `x r cp` (axisymmetric bodies, single surface only).
+ */
 export const pressureInputsSchema = z.object({
   /** The table exactly as pasted or as read from the uploaded file. */
-  text: z.string().max(2_000_000, 'the pasted table is larger than 2 MB'),
+  text: z.string().max(PRESSURE_TEXT_LIMIT, `the table is longer than ${PRESSURE_TEXT_LIMIT / 1_000_000} million characters`),
   uploadId: z.string().uuid().nullable().default(null),
   filename: z.string().nullable().default(null),
   layout: z.enum(['closedLoop', 'surface']).default('closedLoop'),
@@ -54,6 +70,8 @@ export const pressureInputsSchema = z.object({
   surfaceName: z.string().max(60).default('upper'),
   /** Whether the last column is a body radius (axisymmetric bodies such as nacelles). */
   hasRadius: z.boolean().default(false),
+}).superRefine((p, ctx) => {
+  if (p.hasRadius && p.layout !== 'surface') ctx.addIssue({ code: 'custom', path: ['hasRadius'], message: 'a body radius is read only for a single surface (layout surface)' });
 });
 export type PressureInputs = z.infer<typeof pressureInputsSchema>;
 
@@ -62,8 +80,11 @@ export const analysisInputsSchema = z.object({
   flowCellId: cellRef('flowCellId'),
   pressureCellId: cellRef('pressureCellId'),
   criteria: z.array(z.enum(TRANSITION_CRITERIA_IDS)).min(1, 'criteria: pick at least one transition criterion').default(['eN', 'michel', 'hRx', 'granville']),
-  /** Forced transition per surface name, as s or x/c; absent means free transition. */
-  trips: z.record(z.string(), finite('trip').min(0)).default({}),
+  /**
+   * Forced transition per surface name (`upper`, `lower`, or a single surface's name) at this x/c of
+   * the table; absent means free transition.
+   */
+  trips: z.record(z.string(), finite('trip').min(0, 'a trip location must not be negative')).default({}),
   turbulent: z.boolean().default(true),
 });
 export type AnalysisInputs = z.infer<typeof analysisInputsSchema>;
@@ -75,7 +96,22 @@ export const sweepInputsSchema = z.object({
   from: finite('from'),
   to: finite('to'),
   steps: z.number().int('steps must be a whole number').min(2, 'steps must be at least 2').max(60, 'steps must be at most 60'),
+}).superRefine((sweep, ctx) => {
+  const range = SWEEP_RANGES[sweep.parameter];
+  for (const end of ['from', 'to'] as const) {
+    const v = sweep[end];
+    if (!(v >= range.min && v <= range.max)) ctx.addIssue({ code: 'custom', path: [end], message: `${sweep.parameter} must lie between ${range.min} and ${range.max}${range.note}` });
+  }
+  if (sweep.from === sweep.to) ctx.addIssue({ code: 'custom', path: ['to'], message: 'to must differ from from' });
 });
+
+/** What a sweep may vary over (the engine's own limits). */
+export const SWEEP_RANGES: Record<SweepInputs['parameter'], { min: number; max: number; note: string }> = {
+  reynolds: { min: 1e4, max: 1e10, note: '' },
+  mach: { min: 0, max: 0.95, note: ' (subsonic free stream)' },
+  nCrit: { min: 1, max: 20, note: '' },
+  sweepDeg: { min: 0, max: 70, note: '°' },
+};
 export type SweepInputs = z.infer<typeof sweepInputsSchema>;
 
 /** Flat-plate estimate: quick skin-friction sizing for nacelles and fairings. */
@@ -101,7 +137,11 @@ export const leadingEdgeInputsSchema = z.object({
   leadingEdgeRadius: positive('leadingEdgeRadius').default(0.01),
   /** dUe/ds at the attachment line, non-dimensional (V∞/L). */
   velocityGradient: positive('velocityGradient').optional(),
+  /** Used when no flow cell is named. */
   reynolds: positive('reynolds').optional(),
+}).superRefine((le, ctx) => {
+  if (le.mode === 'gradient' && le.velocityGradient === undefined) ctx.addIssue({ code: 'custom', path: ['velocityGradient'], message: 'velocityGradient is needed in gradient mode' });
+  if (le.flowCellId === null && le.reynolds === undefined) ctx.addIssue({ code: 'custom', path: ['reynolds'], message: 'give reynolds, or name a flow cell (flowCellId)' });
 });
 export type LeadingEdgeInputs = z.infer<typeof leadingEdgeInputsSchema>;
 
@@ -152,11 +192,33 @@ export type SaveDraft = z.input<typeof saveDraftSchema>;
 export const RUN_STATES = ['idle', 'current', 'outdated', 'failed'] as const;
 export type RunState = (typeof RUN_STATES)[number];
 
+/** One problem with a cell: the input field at fault (`reynolds`, `trips.upper`, `text`) and, for a table, its line. */
+export const cellProblemSchema = z.object({ field: z.string(), message: z.string(), line: z.number().int().optional() });
+export type CellProblem = z.infer<typeof cellProblemSchema>;
+
+/**
+ * Why a run failed: the engine's one-line message and the field at fault (`flow.mach`,
+ * `pressureTable line 7`, `flowCellId` when something upstream failed); a table's parse problems each
+ * with their line.
+ */
+export const cellErrorSchema = z.object({
+  message: z.string(),
+  field: z.string().optional(),
+  line: z.number().int().optional(),
+  problems: z.array(z.object({ line: z.number().int(), message: z.string() })).optional(),
+});
+export type CellError = z.infer<typeof cellErrorSchema>;
+
+/**
+ * A computed output, content-addressed: `key` is the SHA-256 of the kind, the canonical inputs, the
+ * keys of the outputs it depends on and the engine version. `result` has the kind's result shape
+ * (`CellResults` below) when `status` is ok.
+ */
 export const cellOutputSchema = z.object({
   key: z.string(),
   status: z.enum(['ok', 'error']),
   result: z.unknown().nullable(),
-  error: z.object({ message: z.string(), field: z.string().optional() }).nullable(),
+  error: cellErrorSchema.nullable(),
   engineVersion: z.string(),
   durationMs: z.number(),
   computedAt: z.string(),
@@ -166,7 +228,7 @@ export type CellOutput = z.infer<typeof cellOutputSchema>;
 export const draftCellSchema = draftCellInputSchema.extend({
   runState: z.enum(RUN_STATES),
   /** Validation problems of the inputs as they stand (shown inline; the cell can still be saved). */
-  problems: z.array(z.object({ field: z.string(), message: z.string() })),
+  problems: z.array(cellProblemSchema),
   /** The last output, even when outdated or after a failed run (the last good one stays visible). */
   output: cellOutputSchema.nullable(),
   /** The last good output when the newest run failed. */
@@ -179,7 +241,8 @@ export const draftSchema = z.object({
   studyId: z.string().uuid(),
   revision: z.number().int(),
   cells: z.array(draftCellSchema),
-  trash: z.array(draftCellInputSchema.extend({ deletedAt: z.string(), deletedBy: z.string().nullable() })),
+  /** Recently deleted cells, newest first (the last 30); saving one back into `cells` restores it with its outputs. */
+  trash: z.array(draftCellInputSchema.extend({ deletedAt: z.string(), deletedBy: z.string().nullable(), deletedByName: z.string().nullable().optional() })),
   basedOnVersionId: z.string().uuid().nullable(),
   updatedAt: z.string(),
   updatedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
@@ -187,5 +250,168 @@ export const draftSchema = z.object({
 export type Draft = z.infer<typeof draftSchema>;
 
 /** POST /api/branches/:branchId/run { cellIds?: string[] } — omitted means the whole study, in dependency order. */
-export const runRequestSchema = z.object({ cellIds: z.array(z.string().uuid()).optional() });
+export const runRequestSchema = z.object({ cellIds: z.array(z.string().uuid('cellIds must hold cell ids')).max(200, 'at most 200 cells per run').optional() });
 export type RunRequest = z.infer<typeof runRequestSchema>;
+
+/** What happened to one cell in a run. */
+export const cellRunReportSchema = z.object({
+  cellId: z.string().uuid(),
+  kind: cellKindSchema,
+  /** ok / error: an output was stored (or found); invalid: its inputs have problems, nothing ran; internal: the server failed, nothing stored. */
+  status: z.enum(['ok', 'error', 'invalid', 'internal']),
+  /** True when an output with this key already existed, so nothing was computed. */
+  reused: z.boolean(),
+  key: z.string().nullable(),
+  durationMs: z.number(),
+  error: cellErrorSchema.nullable(),
+});
+export type CellRunReport = z.infer<typeof cellRunReportSchema>;
+
+/** The answer to a run: the draft as it stands after the run (same revision: runs do not change it), and what ran. */
+export const runResponseSchema = draftSchema.extend({ ran: z.array(cellRunReportSchema) });
+export type RunResponse = z.infer<typeof runResponseSchema>;
+
+/** POST /api/studies/:studyId/uploads (multipart, field `file`) → the file as stored. */
+export const uploadResponseSchema = z.object({
+  uploadId: z.string().uuid(),
+  filename: z.string(),
+  size: z.number().int(),
+  /** SHA-256 of the bytes as received, hex. */
+  sha256: z.string(),
+  contentType: z.string(),
+  /** How the bytes were read into `text`: UTF-8 when they are valid UTF-8, else Latin-1. */
+  encoding: z.enum(['utf-8', 'latin1']),
+  text: z.string(),
+});
+export type UploadResponse = z.infer<typeof uploadResponseSchema>;
+
+// ---------------------------------------------------------------------------------------------------
+// Results per kind (CellOutput.result when status is ok)
+
+/** Flow condition: the derived free stream. Dimensional values are null when Re is given directly. */
+export const flowResultSchema = z.object({
+  reynolds: z.number(),
+  mach: z.number(),
+  /** Reynolds number per metre, V∞/ν∞. */
+  reynoldsPerMetre: z.number().nullable(),
+  speed_mps: z.number().nullable(),
+  kinematicViscosity_m2s: z.number().nullable(),
+  dynamicPressure_Pa: z.number().nullable(),
+  temperature_K: z.number().nullable(),
+  pressure_Pa: z.number().nullable(),
+  density_kgm3: z.number().nullable(),
+  speedOfSound_mps: z.number().nullable(),
+  nCrit: z.number(),
+  nCritFrom: z.enum(['given', 'turbulenceIntensity']),
+  sweepDeg: z.number(),
+  warnings: z.array(z.string()),
+});
+export type FlowResult = z.infer<typeof flowResultSchema>;
+
+/** Pressure distribution: the table as read, split at the stagnation point for a closed loop. */
+export const pressureResultSchema = z.object({
+  layout: z.enum(['closedLoop', 'surface']),
+  rowCount: z.number().int(),
+  hasY: z.boolean(),
+  headerLine: z.number().int().nullable(),
+  /** Upper and lower for a closed loop (from the stagnation point to the trailing edge), or the one surface. */
+  surfaces: z.array(
+    z.object({
+      name: z.string(),
+      x: z.array(z.number()),
+      y: z.array(z.number()).nullable(),
+      cp: z.array(z.number()),
+      /** Arc length from the stagnation point (attachment line), divided by the reference length. */
+      s: z.array(z.number()),
+      r: z.array(z.number()).nullable(),
+      /** 1-based line of the table each point came from. */
+      line: z.array(z.number().int()),
+    }),
+  ),
+  /**
+   * The stagnation point found between two rows of a closed loop (null for a single surface);
+   * `velocityGradient` is d(Ue/V∞)/d(s/L) there, from the incompressible speed √(1 − Cp). The analysis
+   * finds it again with the flow cell's Mach number.
+   */
+  stagnation: z.object({ x: z.number(), y: z.number().nullable(), velocityGradient: z.number() }).nullable(),
+  cpMin: z.object({ x: z.number(), cp: z.number(), surface: z.string() }),
+  warnings: z.array(z.string()),
+});
+export type PressureResult = z.infer<typeof pressureResultSchema>;
+
+/** Transition analysis: the engine's result (see engine.ts), as it answered. */
+export { engineResultSchema as analysisResultSchema } from './engine';
+
+/** Parameter sweep: one row per step, the governing transition per surface and the drag. */
+export const sweepResultSchema = z.object({
+  parameter: z.enum(['reynolds', 'mach', 'nCrit', 'sweepDeg']),
+  values: z.array(z.number()),
+  steps: z.array(
+    z.object({
+      value: z.number(),
+      status: z.enum(['ok', 'error']),
+      error: cellErrorSchema.nullable(),
+      reynolds: z.number().nullable(),
+      cd: z.number().nullable(),
+      surfaces: z.array(
+        z.object({
+          name: z.string(),
+          transitionS: z.number().nullable(),
+          /** x/c of the transition where the table gives x. */
+          transitionX: z.number().nullable(),
+          by: z.string().nullable(),
+          laminarSeparationS: z.number().nullable(),
+          cd: z.number().nullable(),
+        }),
+      ),
+      attachmentLine: z.object({ reBar: z.number(), verdict: z.string() }).nullable(),
+    }),
+  ),
+  warnings: z.array(z.string()),
+});
+export type SweepResult = z.infer<typeof sweepResultSchema>;
+
+/** Flat-plate estimate: mean skin-friction coefficients per side on the free-stream dynamic pressure. */
+export const flatPlateResultSchema = z.object({
+  reynolds: z.number(),
+  transitionReynolds: z.number(),
+  /** Transition position as a fraction of the length. */
+  transitionLocation: z.number(),
+  cfLaminar: z.number(),
+  cfTurbulent: z.number(),
+  cfTurbulentPrandtl: z.number(),
+  cfMixed: z.number(),
+  /** Boundary-layer thickness at the end, divided by the length. */
+  deltaLaminar: z.number(),
+  deltaTurbulent: z.number(),
+  /** Boundary-layer thickness at the end in metres, when the length is known. */
+  deltaLaminar_m: z.number().nullable(),
+  deltaTurbulent_m: z.number().nullable(),
+  /** Friction drag saved by the laminar run, as a fraction of the all-turbulent value. */
+  laminarSaving: z.number(),
+  warnings: z.array(z.string()),
+});
+export type FlatPlateResult = z.infer<typeof flatPlateResultSchema>;
+
+/** Leading-edge check: Poll's attachment-line Reynolds number and its verdict. */
+export const leadingEdgeResultSchema = z.object({
+  reynolds: z.number(),
+  sweepDeg: z.number(),
+  reBar: z.number(),
+  verdict: z.enum(['laminar', 'contaminationRisk', 'unstable']),
+  from: z.enum(['velocityGradient', 'leadingEdgeRadius']),
+  /** Poll's thresholds used for the verdict. */
+  thresholds: z.object({ contamination: z.number(), instability: z.number() }),
+  warnings: z.array(z.string()),
+});
+export type LeadingEdgeResult = z.infer<typeof leadingEdgeResultSchema>;
+
+/** The result shape of each kind that computes something (a note computes nothing). */
+export interface CellResults {
+  flow: FlowResult;
+  pressure: PressureResult;
+  analysis: EngineResult;
+  sweep: SweepResult;
+  flatPlate: FlatPlateResult;
+  leadingEdge: LeadingEdgeResult;
+}

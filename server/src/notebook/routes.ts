@@ -1,0 +1,86 @@
+import express, { Router, type RequestHandler } from 'express';
+import { z } from 'zod';
+import { runRequestSchema, saveDraftSchema } from '@laminote/contracts';
+import type { Db } from '../db/client';
+import type { EnginePool } from '../engine/pool';
+import { projectAccess, requireAction, studyAccess } from '../access/access';
+import { parse, ProblemError } from '../http/problem';
+import type { Logger } from '../logger';
+import { branchAccess, requireWritable } from './branch';
+import { exportCell } from './export';
+import { getDraft, NotebookRunner, saveDraft } from './service';
+import { findUpload, receiveFile, storeUpload } from './uploads';
+
+/** A draft carries its pasted tables whole, so its save may be larger than the API's usual 2 MB. */
+export const DRAFT_BODY_LIMIT_MB = 16;
+
+const jsonForDrafts = express.json({ limit: `${DRAFT_BODY_LIMIT_MB}mb` });
+
+/**
+ * Parses draft saves with the larger limit; mounted ahead of the app's JSON parser, which then leaves
+ * the parsed body alone.
+ */
+export const draftBodyParser: RequestHandler = (req, res, next) => {
+  if (req.method !== 'PUT' || !/^\/[^/]+\/draft\/?$/.test(req.path)) return next();
+  jsonForDrafts(req, res, (err?: unknown) => {
+    const e = err as { type?: string } | undefined;
+    if (e?.type === 'entity.too.large') {
+      return next(new ProblemError(413, 'too-large', 'The draft is too large', { detail: `A draft save is limited to ${DRAFT_BODY_LIMIT_MB} MB; move large tables into uploads or split the study.` }));
+    }
+    next(err);
+  });
+};
+
+const exportQuerySchema = z.object({ format: z.enum(['csv', 'json'], { error: 'format must be csv or json' }).default('json') });
+
+export function notebookRouter({ db, engine, logger }: { db: Db; engine: EnginePool; logger: Logger }): Router {
+  const router = Router();
+  const runner = new NotebookRunner(db, engine, logger);
+
+  router.get('/branches/:branchId/draft', async (req, res) => {
+    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    res.json(await getDraft(db, ctx));
+  });
+
+  router.put('/branches/:branchId/draft', async (req, res) => {
+    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    requireAction(ctx.access, 'editStudy');
+    requireWritable(ctx);
+    const body = parse(saveDraftSchema, req.body);
+    res.json(await saveDraft(db, ctx, req.user!, body));
+  });
+
+  router.post('/branches/:branchId/run', async (req, res) => {
+    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    requireAction(ctx.access, 'runCells');
+    requireWritable(ctx);
+    const body = parse(runRequestSchema, req.body ?? {});
+    res.json(await runner.run(ctx, req.user!, body.cellIds));
+  });
+
+  router.get('/branches/:branchId/cells/:cellId/export', async (req, res) => {
+    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    const { format } = parse(exportQuerySchema, req.query);
+    const file = exportCell(await getDraft(db, ctx), ctx.study.title, req.params.cellId, format);
+    res.attachment(file.filename).type(file.contentType).send(file.body);
+  });
+
+  router.post('/studies/:studyId/uploads', async (req, res) => {
+    const { study, projectId, access } = await studyAccess(db, req.user!, req.params.studyId);
+    requireAction(access, 'editStudy');
+    const file = await receiveFile(req, res);
+    res.status(201).json(await storeUpload(db, req.user!, { projectId, studyId: study.id }, file));
+  });
+
+  router.get('/uploads/:uploadId/content', async (req, res) => {
+    const upload = await findUpload(db, req.params.uploadId);
+    await projectAccess(db, req.user!, upload.projectId).catch(() => {
+      throw new ProblemError(404, 'not-found', 'Not found', { detail: 'No upload here, or it is not shared with you.' });
+    });
+    res.setHeader('x-content-sha256', upload.sha256);
+    // Always a download, never rendered on this origin.
+    res.attachment(upload.filename).type(upload.contentType).send(upload.content);
+  });
+
+  return router;
+}

@@ -1,0 +1,380 @@
+import { eq, inArray, sql } from 'drizzle-orm';
+import { ENGINE_VERSION } from '@laminote/aero';
+import {
+  CELL_KIND_LABELS,
+  type CellError,
+  type CellKind,
+  type CellOutput,
+  type CellRunReport,
+  type Draft,
+  type DraftCell,
+  type RunResponse,
+  type RunState,
+  type saveDraftSchema,
+} from '@laminote/contracts';
+import type { z } from 'zod';
+import type { SessionUser } from '../auth/types';
+import { audit } from '../audit/audit';
+import type { Db, Tx } from '../db/client';
+import { cells as cellsTable, drafts, outputs, studies, users } from '../db/schema';
+import { EngineBusyError, type EngineOutcome, type EnginePool } from '../engine/pool';
+import { badRequest, conflict, ProblemError } from '../http/problem';
+import type { Logger } from '../logger';
+import type { BranchContext } from './branch';
+import { canonicalJson, KIND_RANK, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
+
+/** Deleted cells kept in a draft's trash, newest first. */
+export const TRASH_LIMIT = 30;
+
+type DraftRow = typeof drafts.$inferSelect;
+type TrashEntry = DraftRow['trash'][number] & { lastGoodOutputKey?: string | null };
+type OutputRow = typeof outputs.$inferSelect;
+type SaveDraftBody = z.infer<typeof saveDraftSchema>;
+
+function toOutput(row: OutputRow): CellOutput {
+  return {
+    key: row.key,
+    status: row.status,
+    result: row.status === 'ok' ? (row.result ?? null) : null,
+    error: row.status === 'error' ? ((row.error as CellError | null) ?? { message: 'the run failed' }) : null,
+    engineVersion: row.engineVersion,
+    durationMs: row.durationMs,
+    computedAt: row.computedAt.toISOString(),
+  };
+}
+
+/** The branch's draft row, created empty if the branch has none yet (a branch made before drafts existed). */
+async function draftRow(tx: Tx, branchId: string, lock: boolean): Promise<DraftRow> {
+  await tx.insert(drafts).values({ branchId }).onConflictDoNothing();
+  const query = tx.select().from(drafts).where(eq(drafts.branchId, branchId));
+  const [row] = lock ? await query.for('update') : await query;
+  return row!;
+}
+
+async function loadOutputs(tx: Tx, keys: Iterable<string | null | undefined>): Promise<Map<string, OutputRow>> {
+  const wanted = [...new Set([...keys].filter((k): k is string => typeof k === 'string'))];
+  if (wanted.length === 0) return new Map();
+  const rows = await tx.select().from(outputs).where(inArray(outputs.key, wanted));
+  return new Map(rows.map((r) => [r.key, r]));
+}
+
+function runStateOf(plan: CellPlan, last: OutputRow | undefined): RunState {
+  if (!last) return 'idle';
+  if (plan.key !== null && last.key === plan.key) return last.status === 'ok' ? 'current' : 'failed';
+  return 'outdated';
+}
+
+/** The draft as the client sees it: cells with run state, problems, last output and last good output. */
+export async function draftView(tx: Tx, ctx: BranchContext, row: DraftRow): Promise<Draft> {
+  const stored = row.cells as StoredCell[];
+  const plans = planCells(stored);
+  const found = await loadOutputs(tx, stored.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]));
+  const names = await loadNames(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
+  const cells: DraftCell[] = stored.map((cell) => {
+    const plan = plans.get(cell.cellId)!;
+    const last = cell.lastOutputKey ? found.get(cell.lastOutputKey) : undefined;
+    const good = last?.status === 'error' && cell.lastGoodOutputKey ? found.get(cell.lastGoodOutputKey) : undefined;
+    return {
+      cellId: cell.cellId,
+      kind: cell.kind as CellKind,
+      title: cell.title,
+      collapsed: cell.collapsed,
+      inputs: cell.inputs,
+      runState: runStateOf(plan, last),
+      problems: plan.problems,
+      output: last ? toOutput(last) : null,
+      lastGoodOutput: good ? toOutput(good) : null,
+    };
+  });
+  return {
+    branchId: ctx.branch.id,
+    studyId: ctx.study.id,
+    revision: row.revision,
+    cells,
+    trash: row.trash.map((t) => ({
+      cellId: t.cellId,
+      kind: t.kind as CellKind,
+      title: t.title,
+      collapsed: t.collapsed,
+      inputs: t.inputs,
+      deletedAt: t.deletedAt,
+      deletedBy: t.deletedBy,
+      deletedByName: t.deletedBy ? (names.get(t.deletedBy) ?? null) : null,
+    })),
+    basedOnVersionId: row.basedOnVersionId,
+    updatedAt: row.updatedAt.toISOString(),
+    updatedBy: row.updatedBy ? { id: row.updatedBy, name: names.get(row.updatedBy) ?? '' } : null,
+  };
+}
+
+async function loadNames(tx: Tx, ids: (string | null)[]): Promise<Map<string, string>> {
+  const wanted = [...new Set(ids.filter((id): id is string => id !== null))];
+  if (wanted.length === 0) return new Map();
+  const rows = await tx.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
+  return new Map(rows.map((r) => [r.id, r.name]));
+}
+
+export async function getDraft(db: Db, ctx: BranchContext): Promise<Draft> {
+  return draftView(db, ctx, await draftRow(db, ctx.branch.id, false));
+}
+
+const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: unknown }) => canonicalJson([c.kind, c.title, c.collapsed, c.inputs]);
+
+/**
+ * Autosave with optimistic concurrency: the draft row is locked, and a save based on another revision
+ * than the current one is refused with 409 carrying the current draft, so nothing is overwritten
+ * silently. Cells a save leaves out go to the trash; output keys are the server's and are carried over
+ * from the stored cells (or from the trash when a cell is brought back), never taken from the client.
+ */
+export async function saveDraft(db: Db, ctx: BranchContext, actor: SessionUser, body: SaveDraftBody): Promise<Draft> {
+  const seen = new Map<string, number>();
+  body.cells.forEach((cell, i) => {
+    if (seen.has(cell.cellId)) throw badRequest(`cells[${i}].cellId: the cell ${cell.cellId} is in the draft twice (also at cells[${seen.get(cell.cellId)}])`, `cells[${i}].cellId`);
+    seen.set(cell.cellId, i);
+  });
+  return db.transaction(async (tx) => {
+    const row = await draftRow(tx, ctx.branch.id, true);
+    if (row.revision !== body.baseRevision) {
+      throw conflict(
+        `The draft is at revision ${row.revision}; this save was based on revision ${body.baseRevision}. Nothing was saved: merge your edits into the current draft and save again.`,
+        { baseRevision: body.baseRevision, currentRevision: row.revision, current: await draftView(tx, ctx, row) },
+      );
+    }
+    const old = row.cells as StoredCell[];
+    const oldById = new Map(old.map((c) => [c.cellId, c]));
+    const trashById = new Map((row.trash as TrashEntry[]).map((t) => [t.cellId, t]));
+
+    // Cell ids are the study's own: a new id is registered, a known id keeps its kind.
+    const ids = body.cells.map((c) => c.cellId);
+    const known = ids.length ? await tx.select().from(cellsTable).where(inArray(cellsTable.id, ids)) : [];
+    const knownById = new Map(known.map((c) => [c.id, c]));
+    body.cells.forEach((cell, i) => {
+      const k = knownById.get(cell.cellId);
+      if (k && k.studyId !== ctx.study.id) throw badRequest(`cells[${i}].cellId: this id belongs to another study; give the new cell an id of its own`, `cells[${i}].cellId`);
+      if (k && k.kind !== cell.kind) throw badRequest(`cells[${i}].kind: the cell is a ${CELL_KIND_LABELS[k.kind as CellKind] ?? k.kind} and keeps its kind; add a new cell instead`, `cells[${i}].kind`);
+    });
+
+    const next: StoredCell[] = body.cells.map((cell) => {
+      const before = oldById.get(cell.cellId) ?? trashById.get(cell.cellId);
+      return {
+        cellId: cell.cellId,
+        kind: cell.kind,
+        title: cell.title,
+        collapsed: cell.collapsed,
+        inputs: cell.inputs,
+        lastOutputKey: before?.lastOutputKey ?? null,
+        lastGoodOutputKey: before?.lastGoodOutputKey ?? null,
+      };
+    });
+    const nextIds = new Set(ids);
+    const unchanged = next.length === old.length && next.every((c, i) => c.cellId === old[i]!.cellId && editable(c) === editable(old[i]!));
+    if (unchanged) return draftView(tx, ctx, row);
+
+    const now = new Date().toISOString();
+    const removed = old.filter((c) => !nextIds.has(c.cellId));
+    const trash: TrashEntry[] = [
+      ...removed.map((c) => ({ ...c, deletedAt: now, deletedBy: actor.id })),
+      ...(row.trash as TrashEntry[]).filter((t) => !nextIds.has(t.cellId) && !removed.some((r) => r.cellId === t.cellId)),
+    ].slice(0, TRASH_LIMIT);
+
+    const fresh = body.cells.filter((c) => !knownById.has(c.cellId));
+    if (fresh.length) {
+      await tx
+        .insert(cellsTable)
+        .values(fresh.map((c) => ({ id: c.cellId, studyId: ctx.study.id, kind: c.kind, createdBy: actor.id })))
+        .onConflictDoNothing();
+    }
+    const [updated] = await tx
+      .update(drafts)
+      .set({ revision: row.revision + 1, cells: next, trash, updatedBy: actor.id, updatedAt: sql`now()` })
+      .where(eq(drafts.branchId, ctx.branch.id))
+      .returning();
+    await tx.update(studies).set({ updatedAt: sql`now()` }).where(eq(studies.id, ctx.study.id));
+
+    const added = next.filter((c) => !oldById.has(c.cellId)).map((c) => c.cellId);
+    const edited = next.filter((c) => oldById.has(c.cellId) && editable(c) !== editable(oldById.get(c.cellId)!)).map((c) => c.cellId);
+    const oldOrder = old.filter((c) => nextIds.has(c.cellId)).map((c) => c.cellId);
+    const newOrder = next.filter((c) => oldById.has(c.cellId)).map((c) => c.cellId);
+    // One event per save: the client debounces its autosave, and the event names cells, not their inputs.
+    await audit(tx, {
+      actorId: actor.id,
+      projectId: ctx.projectId,
+      action: 'draft.save',
+      targetType: 'branch',
+      targetId: ctx.branch.id,
+      detail: {
+        studyId: ctx.study.id,
+        revision: updated!.revision,
+        added,
+        removed: removed.map((c) => c.cellId),
+        edited,
+        moved: oldOrder.join() !== newOrder.join(),
+      },
+    });
+    return draftView(tx, ctx, updated!);
+  });
+}
+
+/** Runs the engine for a branch's cells and records their outputs. One per app. */
+export class NotebookRunner {
+  /** Outputs being computed right now, so two runs of the same key compute once. */
+  private readonly inFlight = new Map<string, Promise<OutputRow | null>>();
+
+  constructor(
+    private readonly db: Db,
+    private readonly engine: EnginePool,
+    private readonly logger: Logger,
+  ) {}
+
+  /**
+   * Runs the named cells with whatever upstream they need (or every cell), in dependency order: flow
+   * and pressure before the analyses that name them, analyses before their sweeps. A cell whose output
+   * key is already stored is not computed again. The draft's cells get their new output keys without
+   * a new revision, so a run never makes the author's next autosave stale.
+   */
+  async run(ctx: BranchContext, actor: SessionUser, cellIds: string[] | undefined): Promise<RunResponse> {
+    const row = await draftRow(this.db, ctx.branch.id, false);
+    const stored = row.cells as StoredCell[];
+    const plans = planCells(stored);
+    const targets = this.targets(plans, stored, cellIds);
+
+    const reports = new Map<string, CellRunReport>();
+    const outputsByCell = new Map<string, OutputRow>();
+    const levels = [0, 1, 2].map((rank) => stored.filter((c) => targets.has(c.cellId) && KIND_RANK[c.kind as CellKind] === rank));
+    for (const level of levels) {
+      await Promise.all(
+        level.map(async (cell) => {
+          const plan = plans.get(cell.cellId)!;
+          const report = await this.runOne(plan, plans, reports, outputsByCell);
+          reports.set(cell.cellId, report);
+        }),
+      );
+    }
+
+    const updated = await this.db.transaction(async (tx) => {
+      const locked = await draftRow(tx, ctx.branch.id, true);
+      const cells = (locked.cells as StoredCell[]).map((cell) => {
+        const out = outputsByCell.get(cell.cellId);
+        if (!out) return cell;
+        return { ...cell, lastOutputKey: out.key, lastGoodOutputKey: out.status === 'ok' ? out.key : (cell.lastGoodOutputKey ?? null) };
+      });
+      const [after] = await tx.update(drafts).set({ cells }).where(eq(drafts.branchId, ctx.branch.id)).returning();
+      const ran = [...reports.values()];
+      await audit(tx, {
+        actorId: actor.id,
+        projectId: ctx.projectId,
+        action: 'cells.run',
+        targetType: 'branch',
+        targetId: ctx.branch.id,
+        detail: {
+          studyId: ctx.study.id,
+          revision: after!.revision,
+          cellIds: ran.map((r) => r.cellId),
+          computed: ran.filter((r) => !r.reused && (r.status === 'ok' || r.status === 'error')).length,
+          reused: ran.filter((r) => r.reused).length,
+          failed: ran.filter((r) => r.status !== 'ok').length,
+        },
+      });
+      return after!;
+    });
+    const draft = await draftView(this.db, ctx, updated);
+    return { ...draft, ran: stored.filter((c) => reports.has(c.cellId)).map((c) => reports.get(c.cellId)!) };
+  }
+
+  /** The cells to run: the named ones and everything upstream of them, or every cell that computes. */
+  private targets(plans: Map<string, CellPlan>, stored: StoredCell[], cellIds: string[] | undefined): Set<string> {
+    const out = new Set<string>();
+    const add = (id: string) => {
+      if (out.has(id)) return;
+      const plan = plans.get(id)!;
+      if (plan.kind === 'note') return;
+      out.add(id);
+      for (const ref of plan.refs) add(ref.cellId);
+    };
+    if (cellIds === undefined) {
+      for (const cell of stored) add(cell.cellId);
+      return out;
+    }
+    cellIds.forEach((id, i) => {
+      if (!plans.has(id)) throw badRequest(`cellIds[${i}]: names no cell of this draft (save the draft first)`, `cellIds[${i}]`);
+      add(id);
+    });
+    return out;
+  }
+
+  private async runOne(plan: CellPlan, plans: Map<string, CellPlan>, reports: Map<string, CellRunReport>, stored: Map<string, OutputRow>): Promise<CellRunReport> {
+    const base = { cellId: plan.cell.cellId, kind: plan.kind };
+    if (plan.key === null) {
+      const first = plan.problems[0];
+      return { ...base, status: 'invalid', reused: false, key: null, durationMs: 0, error: first ? { message: `${first.field}: ${first.message}`, field: first.field } : null };
+    }
+    const key = plan.key;
+    const started = performance.now();
+    const [existing] = await this.db.select().from(outputs).where(eq(outputs.key, key));
+    if (existing) {
+      stored.set(plan.cell.cellId, existing);
+      return { ...base, status: existing.status, reused: true, key, durationMs: performance.now() - started, error: existing.status === 'error' ? (existing.error as CellError) : null };
+    }
+
+    // Something upstream that failed makes this cell fail too, by the input that names it.
+    for (const ref of plan.refs) {
+      const up = reports.get(ref.cellId);
+      if (up && up.status === 'internal') {
+        return { ...base, status: 'internal', reused: false, key: null, durationMs: 0, error: { message: `not run: the cell it uses (${ref.field}) could not be computed`, field: ref.field } };
+      }
+    }
+    const failedRef = plan.refs.find((ref) => reports.get(ref.cellId)?.status === 'error');
+    let outcome: EngineOutcome;
+    if (failedRef) {
+      const up = reports.get(failedRef.cellId)!;
+      const label = CELL_KIND_LABELS[plans.get(failedRef.cellId)!.kind].toLowerCase();
+      outcome = { status: 'error', durationMs: 0, error: { message: `the ${label} it uses (${failedRef.field}) failed: ${up.error?.message ?? 'see that cell'}`, field: failedRef.field } };
+    } else {
+      try {
+        const row = await this.compute(key, plan, plans);
+        if (row) {
+          stored.set(plan.cell.cellId, row);
+          return { ...base, status: row.status, reused: false, key, durationMs: performance.now() - started, error: row.status === 'error' ? (row.error as CellError) : null };
+        }
+        return { ...base, status: 'internal', reused: false, key: null, durationMs: performance.now() - started, error: { message: 'nothing to compute' } };
+      } catch (error) {
+        if (error instanceof EngineBusyError) throw new ProblemError(503, 'engine-busy', 'The engine is busy', { detail: 'Too many computations are waiting; try the run again in a moment.' });
+        this.logger.error({ err: error, cellId: plan.cell.cellId }, 'engine task failed');
+        const message = error instanceof Error ? error.message : String(error);
+        return { ...base, status: 'internal', reused: false, key: null, durationMs: performance.now() - started, error: { message: `the server could not compute this cell: ${message}` } };
+      }
+    }
+    const row = await this.store(key, plan.kind, outcome);
+    stored.set(plan.cell.cellId, row);
+    return { ...base, status: row.status, reused: false, key, durationMs: performance.now() - started, error: row.status === 'error' ? (row.error as CellError) : null };
+  }
+
+  private compute(key: string, plan: CellPlan, plans: Map<string, CellPlan>): Promise<OutputRow | null> {
+    const running = this.inFlight.get(key);
+    if (running) return running;
+    const task = taskOf(plan, plans);
+    if (!task) return Promise.resolve(null);
+    const promise = this.engine
+      .run(task)
+      .then((outcome) => this.store(key, plan.kind, outcome))
+      .finally(() => this.inFlight.delete(key));
+    this.inFlight.set(key, promise);
+    return promise;
+  }
+
+  private async store(key: string, kind: CellKind, outcome: EngineOutcome): Promise<OutputRow> {
+    const values = {
+      key,
+      kind,
+      status: outcome.status,
+      result: outcome.status === 'ok' ? outcome.result : null,
+      error: outcome.status === 'error' ? outcome.error : null,
+      engineVersion: ENGINE_VERSION,
+      durationMs: Math.round(outcome.durationMs),
+    };
+    const [inserted] = await this.db.insert(outputs).values(values).onConflictDoNothing().returning();
+    if (inserted) return inserted;
+    const [existing] = await this.db.select().from(outputs).where(eq(outputs.key, key));
+    return existing!;
+  }
+}
