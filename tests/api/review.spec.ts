@@ -1,17 +1,16 @@
 import { randomUUID } from 'node:crypto';
 import express from 'express';
-import { and, eq, isNull } from 'drizzle-orm';
+import { eq, isNull } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Inbox, StudyReview, Thread, VersionReviewDetail } from '@laminote/contracts';
+import type { Inbox, StudyHistory, StudyReview, Thread, VersionReviewDetail } from '@laminote/contracts';
 import { freePort } from '../../scripts/lib/proc';
-import { branches, cellRevisions, cells, drafts, mailOutbox, versionCells, versions, type DraftCell } from '../../server/src/db/schema';
+import { branches, cells, drafts, mailOutbox, type DraftCell } from '../../server/src/db/schema';
 import { createLogger } from '../../server/src/logger';
 import { devMailRouter } from '../../server/src/mail/dev-routes';
 import { smtpMailer } from '../../server/src/mail/mailer';
 import { OutboxSender, retryDelayMs } from '../../server/src/mail/outbox';
 import { startSink, type Sink } from '../../server/src/mail/sink';
-import { cellContentHash } from '../../server/src/review/views';
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
 import { demoUser, signIn, type SignedIn } from '../support/sign-in';
@@ -50,25 +49,18 @@ function draftCells(reynolds: number): DraftCell[] {
   ];
 }
 
-/** A version as the versions service stores one: revisions reused by content hash, the branch head moved. */
-async function saveVersion(cellList: DraftCell[], number: number, parent: string | null): Promise<string> {
-  const db = t.database.db;
-  return db.transaction(async (tx) => {
+/**
+ * Puts the cells in the main branch's draft (as the notebook's draft save leaves them: the draft row and
+ * each cell's identity) and saves the draft as the next version through the versions API.
+ */
+async function saveVersion(cellList: DraftCell[], parent: string | null): Promise<string> {
+  await t.database.db.transaction(async (tx) => {
     await tx.insert(cells).values(cellList.map((c) => ({ id: c.cellId, studyId: t.demo.studyId, kind: c.kind }))).onConflictDoNothing();
-    const [version] = await tx
-      .insert(versions)
-      .values({ studyId: t.demo.studyId, branchId, number, parentVersionId: parent, message: `version ${number}`, authorId: await userId('engineer') })
-      .returning();
-    for (const [position, c] of cellList.entries()) {
-      const contentHash = cellContentHash(c);
-      await tx.insert(cellRevisions).values({ cellId: c.cellId, kind: c.kind, title: c.title, inputs: c.inputs, contentHash }).onConflictDoNothing();
-      const [revision] = await tx.select().from(cellRevisions).where(and(eq(cellRevisions.cellId, c.cellId), eq(cellRevisions.contentHash, contentHash)));
-      await tx.insert(versionCells).values({ versionId: version!.id, position, cellId: c.cellId, cellRevisionId: revision!.id });
-    }
-    await tx.update(branches).set({ headVersionId: version!.id }).where(eq(branches.id, branchId));
-    await tx.update(drafts).set({ cells: cellList, basedOnVersionId: version!.id }).where(eq(drafts.branchId, branchId));
-    return version!.id;
+    await tx.update(drafts).set({ cells: cellList }).where(eq(drafts.branchId, branchId));
   });
+  const res = await as['engineer']!.post(`/api/branches/${branchId}/versions`, { message: 'Cruise case, invented data', expectedHeadVersionId: parent });
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  return res.body.id as string;
 }
 
 const ids = new Map<string, string>();
@@ -98,8 +90,8 @@ beforeAll(async () => {
   for (const role of ROLES) as[role] = await signIn(t.app, role, testEnv.publicUrl);
   const [main] = await t.database.db.select().from(branches).where(eq(branches.studyId, t.demo.studyId));
   branchId = main!.id;
-  v1 = await saveVersion(draftCells(6e6), 1, null);
-  v2 = await saveVersion(draftCells(3e7), 2, v1);
+  v1 = await saveVersion(draftCells(6e6), null);
+  v2 = await saveVersion(draftCells(3e7), v1);
 });
 afterAll(async () => t?.close());
 
@@ -364,7 +356,7 @@ describe('review requests and verdicts', () => {
     expect((approved.body as VersionReviewDetail).summary).toMatchObject({ state: 'approved', approvals: 1, pendingReviewers: [] });
     expect((approved.body as VersionReviewDetail).requests.every((r) => r.answered)).toBe(true);
 
-    const v3 = await saveVersion(draftCells(3.1e7), 3, v2);
+    const v3 = await saveVersion(draftCells(3.1e7), v2);
     const review = (await as['viewer']!.get(study).expect(200)).body as StudyReview;
     const byNumber = new Map(review.versions.map((v) => [v.versionNumber, v]));
     expect(byNumber.get(1)).toMatchObject({ state: 'approved', earlierVerdict: null });
@@ -385,6 +377,12 @@ describe('review requests and verdicts', () => {
     expect(detail.canRequest).toBe(true);
     const after = (await as['viewer']!.get(study).expect(200)).body as StudyReview;
     expect(after.versions.find((v) => v.versionNumber === 3)!.earlierVerdict).toMatchObject({ versionNumber: 2, state: 'approved' });
+
+    // The versions history carries each version's review state.
+    const history = (await as['viewer']!.get(`/api/studies/${t.demo.studyId}/versions`).expect(200)).body as StudyHistory;
+    const states = new Map(history.versions.map((v) => [v.number, v.review?.state ?? null]));
+    expect([states.get(1), states.get(2), states.get(3)]).toEqual(['approved', 'approved', null]);
+    expect(Date.parse(history.versions.find((v) => v.number === 2)!.review!.updatedAt)).toBeGreaterThan(Date.parse(history.versions.find((v) => v.number === 1)!.review!.updatedAt));
     await expect(t.database.pool.query('delete from verdicts')).rejects.toThrow(/immutable/);
   });
 

@@ -193,28 +193,6 @@ export async function studyReview(tx: Tx, studyId: string): Promise<StudyReview>
   };
 }
 
-/**
- * The `review` field of the versions timeline (libs/contracts versions.ts): the state of each version
- * of a study with the time it last changed; null for a version nobody asked to review or reviewed.
- */
-export async function timelineReviews(tx: Tx, studyId: string): Promise<Map<string, { state: 'requested' | 'approved' | 'changesRequested'; updatedAt: string } | null>> {
-  const versionRows = await loadVersions(tx, { studyId });
-  const ids = versionRows.map((v) => v.id);
-  const requests = await loadRequests(tx, ids);
-  const verdictRows = await loadVerdicts(tx, ids);
-  const summaries = summarise(versionRows, requests, verdictRows);
-  const out = new Map<string, { state: 'requested' | 'approved' | 'changesRequested'; updatedAt: string } | null>();
-  for (const v of versionRows) {
-    const s = summaries.get(v.id)!;
-    const times = [...requests, ...verdictRows].filter((r) => r.versionId === v.id).map((r) => r.createdAt.getTime());
-    out.set(
-      v.id,
-      s.state === 'none' ? null : { state: s.state === 'changes_requested' ? 'changesRequested' : s.state, updatedAt: new Date(Math.max(...times)).toISOString() },
-    );
-  }
-  return out;
-}
-
 export async function versionReview(tx: Tx, access: ProjectAccess, studyId: string, versionId: string): Promise<VersionReviewDetail> {
   // Parents are needed for "an earlier version's verdict", so the whole study is summarised.
   const versionRows = await loadVersions(tx, { studyId });

@@ -1,8 +1,8 @@
-import { createHash } from 'node:crypto';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Tx } from '../db/client';
 import { branches, cellRevisions, drafts, versionCells, versions } from '../db/schema';
 import { badRequest, notFound } from '../http/problem';
+import { cellContentHash } from '../versions/content-hash';
 
 /**
  * What a person is looking at when they read or start a thread: a saved version, or a branch's
@@ -10,25 +10,12 @@ import { badRequest, notFound } from '../http/problem';
  */
 export type View = { kind: 'version'; versionId: string; branchId: string; number: number } | { kind: 'draft'; branchId: string };
 
-/** Canonical JSON: object keys sorted, so equal content hashes equally whatever the key order. */
-function canonical(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map(canonical).join(',')}]`;
-  if (value && typeof value === 'object') {
-    const entries = Object.entries(value as Record<string, unknown>)
-      .filter(([, v]) => v !== undefined)
-      .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
-    return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonical(v)}`).join(',')}}`;
-  }
-  return JSON.stringify(value) ?? 'null';
-}
-
 /**
- * Content hash of a cell (kind, title and inputs, canonical JSON, SHA-256) as review compares it: the
- * same function for draft cells and for the revisions in versions, so a thread started on a draft
- * compares cleanly with later versions and the other way round.
+ * A draft cell's content hash, as the versions part computes it for the revision it would become: so
+ * a thread started on a draft compares cleanly with later versions and the other way round.
  */
-export function cellContentHash(cell: { kind: string; title: string; inputs: Record<string, unknown> }): string {
-  return createHash('sha256').update(canonical({ kind: cell.kind, title: cell.title, inputs: cell.inputs })).digest('hex');
+export function draftCellHash(cell: { kind: string; title?: string | null; inputs?: Record<string, unknown> | null }): string {
+  return cellContentHash({ kind: cell.kind, title: cell.title ?? '', inputs: cell.inputs ?? {} });
 }
 
 export async function resolveView(tx: Tx, studyId: string, q: { versionId?: string | null | undefined; branchId?: string | undefined }): Promise<View | null> {
@@ -53,15 +40,15 @@ export async function cellHashes(tx: Tx, view: View, cellIds: readonly string[])
   if (cellIds.length === 0) return new Map();
   if (view.kind === 'version') {
     const rows = await tx
-      .select({ cellId: versionCells.cellId, kind: cellRevisions.kind, title: cellRevisions.title, inputs: cellRevisions.inputs })
+      .select({ cellId: versionCells.cellId, hash: cellRevisions.contentHash })
       .from(versionCells)
       .innerJoin(cellRevisions, eq(cellRevisions.id, versionCells.cellRevisionId))
       .where(and(eq(versionCells.versionId, view.versionId), inArray(versionCells.cellId, [...cellIds])));
-    return new Map(rows.map((r) => [r.cellId, cellContentHash(r)]));
+    return new Map(rows.map((r) => [r.cellId, r.hash]));
   }
   const [draft] = await tx.select({ cells: drafts.cells }).from(drafts).where(eq(drafts.branchId, view.branchId));
   const wanted = new Set(cellIds);
-  return new Map((draft?.cells ?? []).filter((c) => wanted.has(c.cellId)).map((c) => [c.cellId, cellContentHash(c)]));
+  return new Map((draft?.cells ?? []).filter((c) => wanted.has(c.cellId)).map((c) => [c.cellId, draftCellHash(c)]));
 }
 
 /** The hash of one cell in the view, or 400 naming `cellId` when the view does not hold that cell. */

@@ -21,6 +21,7 @@ import { badRequest, conflict, notFound, ProblemError } from '../http/problem';
 import { listBranches, MAIN_BRANCH } from '../studies/service';
 import { diffCells, type SnapshotCell } from './cell-diff';
 import { cellContentHash } from './content-hash';
+import { versionReviewColumn } from '../review/timeline';
 
 /**
  * Versions and branches: saving a draft as an immutable version, history, restoring a version into
@@ -49,6 +50,7 @@ const summaryColumns = {
   parentVersionId: versions.parentVersionId,
   baselineVersionId: studies.baselineVersionId,
   cellCount: sql<number>`(select count(*)::int from ${versionCells} where ${versionCells.versionId} = ${versions.id})`,
+  review: versionReviewColumn(versions.id),
 };
 
 type SummaryRow = { [K in keyof typeof summaryColumns]: unknown } & {
@@ -64,6 +66,7 @@ type SummaryRow = { [K in keyof typeof summaryColumns]: unknown } & {
   parentVersionId: string | null;
   baselineVersionId: string | null;
   cellCount: number;
+  review: VersionSummary['review'];
 };
 
 function toSummary(r: SummaryRow): VersionSummary {
@@ -79,8 +82,7 @@ function toSummary(r: SummaryRow): VersionSummary {
     parentVersionId: r.parentVersionId,
     cellCount: Number(r.cellCount),
     isBaseline: r.baselineVersionId === r.id,
-    // Filled in by the review part of the product once a review is requested.
-    review: null,
+    review: r.review ?? null,
   };
 }
 
