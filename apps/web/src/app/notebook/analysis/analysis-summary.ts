@@ -1,0 +1,142 @@
+import { michelTransitionReTheta } from '@laminote/aero';
+import type { EngineResult, EngineSurfaceResult, TransitionCause, TransitionCriterion } from '@laminote/contracts';
+import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from '../../shared/plot';
+
+export const CRITERION_LABELS: Record<TransitionCriterion, string> = {
+  eN: 'Envelope eᴺ',
+  michel: 'Michel',
+  hRx: 'H–Re_x',
+  granville: 'Granville',
+};
+
+export const CAUSE_LABELS: Record<TransitionCause, string> = {
+  ...CRITERION_LABELS,
+  trip: 'Trip',
+  laminarSeparation: 'Laminar separation',
+};
+
+/** A location along a surface, as x/c where the stations carry x, else as s/c from the attachment line. */
+export interface Location {
+  readonly value: number;
+  readonly along: 'x/c' | 's/c';
+}
+
+/** One surface's line in the summary table. */
+export interface SurfaceSummary {
+  readonly name: string;
+  readonly criteria: Partial<Record<TransitionCriterion, Location | null>>;
+  readonly governing: Location | null;
+  readonly governingBy: string;
+  readonly laminarSeparation: Location | null;
+  readonly turbulentSeparation: Location | null;
+  /** How far the flow stays laminar: to the governing transition, or the whole surface. */
+  readonly laminarExtent: Location | null;
+  readonly laminarToEnd: boolean;
+  readonly cd: number | null;
+  readonly cdFriction: number | null;
+}
+
+function interpolate(xs: readonly number[], ys: readonly number[], at: number): number {
+  const n = xs.length;
+  if (n === 0) return Number.NaN;
+  if (at <= xs[0]) return ys[0];
+  if (at >= xs[n - 1]) return ys[n - 1];
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid] <= at) lo = mid;
+    else hi = mid;
+  }
+  const t = (at - xs[lo]) / (xs[hi] - xs[lo]);
+  return ys[lo] + t * (ys[hi] - ys[lo]);
+}
+
+/** The chordwise axis of a surface: x/c where the engine reports x, else the arc length. */
+export function alongAxis(surface: EngineSurfaceResult): { values: number[]; along: 'x/c' | 's/c' } {
+  const x = surface.stations.x;
+  return x && x.length === surface.stations.s.length ? { values: x, along: 'x/c' } : { values: surface.stations.s, along: 's/c' };
+}
+
+export function locate(surface: EngineSurfaceResult, s: number | null | undefined): Location | null {
+  if (s === null || s === undefined || !Number.isFinite(s)) return null;
+  const axis = alongAxis(surface);
+  return { value: axis.along === 'x/c' ? interpolate(surface.stations.s, axis.values, s) : s, along: axis.along };
+}
+
+export function summarise(result: EngineResult, criteria: readonly TransitionCriterion[]): SurfaceSummary[] {
+  return result.surfaces.map((surface) => {
+    const byCriterion: Partial<Record<TransitionCriterion, Location | null>> = {};
+    for (const id of criteria) byCriterion[id] = locate(surface, surface.transition.criteria[id]?.s);
+    const governing = locate(surface, surface.transition.s);
+    const end = surface.stations.s[surface.stations.s.length - 1];
+    return {
+      name: surface.name,
+      criteria: byCriterion,
+      governing,
+      governingBy: surface.transition.by ? CAUSE_LABELS[surface.transition.by] : 'none: laminar to the end',
+      laminarSeparation: locate(surface, surface.laminarSeparation?.s),
+      turbulentSeparation: locate(surface, surface.turbulentSeparation?.s),
+      laminarExtent: governing ?? locate(surface, end),
+      laminarToEnd: governing === null,
+      cd: surface.cd,
+      cdFriction: surface.cdFriction,
+    };
+  });
+}
+
+const SURFACE_COLOURS = [PLOT_COLOURS[0], PLOT_COLOURS[1], PLOT_COLOURS[2], PLOT_COLOURS[3]];
+
+function transitionMarkers(result: EngineResult): PlotMarker[] {
+  return result.surfaces.flatMap((surface, i): PlotMarker[] => {
+    const at = locate(surface, surface.transition.s);
+    return at ? [{ at: at.value, axis: 'x', label: `${surface.name} transition`, color: SURFACE_COLOURS[i % 4], dash: 'dash' }] : [];
+  });
+}
+
+function axisTitle(result: EngineResult): string {
+  return result.surfaces.every((s) => alongAxis(s).along === 'x/c') ? 'x/c' : 's/c (arc length from the attachment line)';
+}
+
+function stationTraces(result: EngineResult, pick: (surface: EngineSurfaceResult, i: number) => (number | null)[]): PlotTrace[] {
+  return result.surfaces.map((surface, i) => ({
+    x: alongAxis(surface).values,
+    y: pick(surface, i),
+    name: surface.name,
+    color: SURFACE_COLOURS[i % 4],
+  }));
+}
+
+/** The four plots of an analysis: N-factor envelope, shape factor, Re_θ with Michel's line, skin friction. */
+export function analysisFigures(result: EngineResult): { id: string; label: string; figure: PlotFigure }[] {
+  const x = { title: axisTitle(result) };
+  const markers = transitionMarkers(result);
+  const reynolds = result.flow.reynolds;
+  const nFigure: PlotFigure = {
+    x,
+    y: { title: 'N (envelope amplification exponent)' },
+    traces: stationTraces(result, (s) => s.stations.n),
+    markers: [...markers, { at: result.flow.nCrit, axis: 'y', label: `N_crit = ${result.flow.nCrit.toFixed(2)}`, color: '#ba1a1a', dash: 'dot' }],
+  };
+  const hFigure: PlotFigure = { x, y: { title: 'H = δ*/θ' }, traces: stationTraces(result, (s) => s.stations.H), markers };
+  const reThetaTraces: PlotTrace[] = stationTraces(result, (s) => s.stations.theta.map((theta, k) => (theta === null ? null : reynolds * s.stations.ue[k] * theta)));
+  const michelTraces: PlotTrace[] = result.surfaces.map((surface, i) => ({
+    x: alongAxis(surface).values,
+    y: surface.stations.s.map((s, k) => {
+      const reX = reynolds * surface.stations.ue[k] * s;
+      return reX >= 1e4 ? michelTransitionReTheta(reX) : null;
+    }),
+    name: `Michel line, ${surface.name}`,
+    color: SURFACE_COLOURS[i % 4],
+    dash: 'dot',
+    width: 1.25,
+  }));
+  const reThetaFigure: PlotFigure = { x, y: { title: 'Re_θ = Ue θ / ν', log: true }, traces: [...reThetaTraces, ...michelTraces], markers };
+  const cfFigure: PlotFigure = { x, y: { title: 'c_f (on local Ue)' }, traces: stationTraces(result, (s) => s.stations.cf), markers };
+  return [
+    { id: 'n', label: 'N-factor envelope along the chord against N_crit', figure: nFigure },
+    { id: 'h', label: 'Shape factor H along the chord', figure: hFigure },
+    { id: 'retheta', label: 'Momentum-thickness Reynolds number along the chord with Michel’s transition line', figure: reThetaFigure },
+    { id: 'cf', label: 'Skin-friction coefficient along the chord', figure: cfFigure },
+  ];
+}

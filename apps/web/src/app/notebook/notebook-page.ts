@@ -1,0 +1,340 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
+import { CdkDrag, type CdkDragDrop, CdkDropList } from '@angular/cdk/drag-drop';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  Injector,
+  afterNextRender,
+  computed,
+  effect,
+  inject,
+  input,
+  viewChildren,
+} from '@angular/core';
+import { MatBottomSheet } from '@angular/material/bottom-sheet';
+import { MatButtonModule } from '@angular/material/button';
+import { ErrorStateMatcher, ShowOnDirtyErrorStateMatcher } from '@angular/material/core';
+import { MatDialog, type MatDialogRef } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { Title } from '@angular/platform-browser';
+import { RouterLink } from '@angular/router';
+import { type Branch, type CellKind, type Draft, type ProjectAccess, type Study, can } from '@laminote/contracts';
+import { forkJoin, map, switchMap, throwError } from 'rxjs';
+import { Auth } from '../core/auth';
+import { loader } from '../shared/load-state';
+import { NotFound } from '../shared/not-found';
+import { ProblemBanner } from '../shared/problem-banner';
+import { roleLabel } from '../shared/role-label';
+import { StudyApi } from '../shared/study-api';
+import { AddCell } from './add-cell';
+import { AnalysisCell } from './analysis/analysis-cell';
+import { CellFrame } from './cell-frame';
+import { cellKindInfo } from './cell-kinds';
+import { type ConflictChoice, ConflictDialog } from './conflict-dialog';
+import { DraftSession } from './draft-session';
+import { FlatPlateCell } from './flat-plate/flat-plate-cell';
+import { FlowCell } from './flow/flow-cell';
+import { LeadingEdgeCell } from './leading-edge/leading-edge-cell';
+import { NotebookApi } from './notebook-api';
+import { NoteCell } from './note/note-cell';
+import { PressureCell } from './pressure/pressure-cell';
+import { RemovedCells } from './removed-cells';
+import { SaveIndicator } from './save-indicator';
+import { Shortcuts } from './shortcuts';
+import { SweepCell } from './sweep/sweep-cell';
+
+interface OpenedStudy {
+  readonly study: Study;
+  readonly branches: Branch[];
+  readonly branch: Branch;
+  readonly draft: Draft;
+}
+
+/** `?branch=` names a branch by id or by name; without it the study opens on `main`. */
+function pickBranch(branches: Branch[], wanted: string | undefined): Branch | undefined {
+  if (wanted) return branches.find((b) => b.id === wanted || b.name === wanted);
+  return branches.find((b) => b.name === 'main') ?? branches.find((b) => !b.archived) ?? branches[0];
+}
+
+function isTextEntry(target: EventTarget | null): boolean {
+  if (!(target instanceof HTMLElement)) return false;
+  return target.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(target.tagName) || target.getAttribute('role') === 'combobox';
+}
+
+/**
+ * A study's notebook: its cells stacked top to bottom, each with inputs and result, saved as the
+ * person types. The page owns the draft session; the cells and the header bars share it.
+ */
+@Component({
+  selector: 'lam-notebook-page',
+  imports: [
+    AddCell,
+    AnalysisCell,
+    CdkDrag,
+    CdkDropList,
+    CellFrame,
+    FlatPlateCell,
+    FlowCell,
+    LeadingEdgeCell,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatTooltipModule,
+    NoteCell,
+    NotFound,
+    PressureCell,
+    ProblemBanner,
+    RemovedCells,
+    RouterLink,
+    SaveIndicator,
+    SweepCell,
+  ],
+  providers: [DraftSession, { provide: ErrorStateMatcher, useClass: ShowOnDirtyErrorStateMatcher }],
+  templateUrl: './notebook-page.html',
+  styleUrl: './notebook-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  host: {
+    '(document:keydown)': 'onKeydown($event)',
+    '(window:beforeunload)': 'onBeforeUnload($event)',
+  },
+})
+export class NotebookPage {
+  private readonly studies = inject(StudyApi);
+  private readonly api = inject(NotebookApi);
+  private readonly auth = inject(Auth);
+  private readonly title = inject(Title);
+  private readonly dialog = inject(MatDialog);
+  private readonly bottomSheet = inject(MatBottomSheet);
+  private readonly announcer = inject(LiveAnnouncer);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+  private readonly injector = inject(Injector);
+  protected readonly session = inject(DraftSession);
+
+  /** From the route. */
+  readonly studyId = input.required<string>();
+  /** From the `?branch=` query parameter. */
+  readonly branch = input<string | undefined>(undefined);
+
+  private readonly opening = loader(
+    () => ({ studyId: this.studyId(), branch: this.branch() }),
+    ({ studyId, branch }) =>
+      forkJoin({ study: this.studies.get(studyId), branches: this.api.branches(studyId) }).pipe(
+        switchMap(({ study, branches }) => {
+          const chosen = pickBranch(branches, branch);
+          if (!chosen) {
+            return throwError(() => ({
+              type: 'about:blank',
+              title: branch ? `This study has no branch “${branch}”` : 'This study has no branch to open',
+              status: 404,
+            }));
+          }
+          return this.api.draft(chosen.id).pipe(map((draft): OpenedStudy => ({ study, branches, branch: chosen, draft })));
+        }),
+      ),
+  );
+  protected readonly state = this.opening.state;
+  protected readonly notFound = computed(() => this.state().problem?.status === 404 && !this.state().value);
+  protected readonly opened = computed(() => this.state().value ?? null);
+
+  protected readonly access = computed((): ProjectAccess | null => {
+    const opened = this.opened();
+    const me = this.auth.me();
+    if (!opened || !me) return null;
+    const membership = me.memberships.find((m) => m.projectId === opened.study.projectId);
+    return { role: membership?.role ?? null, siteAdmin: me.user.siteAdmin };
+  });
+  protected readonly projectName = computed(() => {
+    const opened = this.opened();
+    return this.auth.me()?.memberships.find((m) => m.projectId === opened?.study.projectId)?.projectName ?? 'Project';
+  });
+  protected readonly editable = computed(() => {
+    const access = this.access();
+    const opened = this.opened();
+    return access !== null && can(access, 'editStudy') && !opened?.study.archived && !opened?.branch.archived;
+  });
+  protected readonly mayRun = computed(() => {
+    const access = this.access();
+    return access !== null && can(access, 'runCells') && this.editable();
+  });
+  protected readonly readOnlyReason = computed(() => {
+    const access = this.access();
+    const opened = this.opened();
+    if (!access || !opened) return null;
+    if (opened.study.archived) return 'This study is archived: it can be read, not changed.';
+    if (opened.branch.archived) return 'This branch is archived: it can be read, not changed.';
+    if (!can(access, 'editStudy')) {
+      return `You read this study as ${roleLabel(access.role, access.siteAdmin).toLowerCase()}: editing and running cells are for the project’s engineers and leads.`;
+    }
+    return null;
+  });
+
+  protected readonly cells = this.session.cells;
+  protected readonly runnableCount = computed(() => this.cells().filter((cell) => cellKindInfo(cell.kind).runs).length);
+
+  private readonly addControls = viewChildren(AddCell);
+  private conflictRef: MatDialogRef<ConflictDialog, ConflictChoice> | null = null;
+
+  constructor() {
+    effect(() => {
+      const opened = this.opened();
+      if (opened) this.session.open(opened.branch.id, opened.draft);
+    });
+    effect(() => {
+      this.session.editable.set(this.editable());
+      this.session.mayRun.set(this.mayRun());
+    });
+    effect(() => {
+      const opened = this.opened();
+      if (opened) this.title.setTitle(`${opened.study.title} · Laminote`);
+    });
+    effect(() => {
+      if (this.session.conflict() && !this.conflictRef) this.showConflict();
+    });
+  }
+
+  protected retry(): void {
+    this.opening.reload();
+  }
+
+  // ── Cell actions ─────────────────────────────────────────────────────────────────────────────
+
+  protected add(kind: CellKind, index: number): void {
+    const cellId = this.session.add(kind, index);
+    this.announcer.announce(`${cellKindInfo(kind).label} cell added at position ${index + 1}`);
+    this.focusCell(cellId, 'input, textarea, select, [tabindex="0"]');
+  }
+
+  protected duplicate(cellId: string): void {
+    const copy = this.session.duplicate(cellId);
+    if (copy) this.focusCell(copy);
+  }
+
+  protected move(cellId: string, delta: -1 | 1): void {
+    if (!this.session.move(cellId, delta)) return;
+    const index = this.cells().findIndex((cell) => cell.cellId === cellId);
+    this.announcer.announce(`Moved to position ${index + 1} of ${this.cells().length}`);
+    this.focusCell(cellId);
+  }
+
+  protected remove(cellId: string): void {
+    const index = this.cells().findIndex((cell) => cell.cellId === cellId);
+    const title = this.session.cell(cellId)?.title ?? 'Cell';
+    this.session.remove(cellId);
+    this.announcer.announce(`${title} removed; it can be brought back from Recently removed`);
+    const next = this.cells()[Math.min(index, this.cells().length - 1)];
+    if (next) this.focusCell(next.cellId);
+  }
+
+  protected restore(cellId: string): void {
+    this.session.restore(cellId);
+    this.focusCell(cellId);
+  }
+
+  protected dropped(event: CdkDragDrop<unknown>): void {
+    this.session.moveTo(event.previousIndex, event.currentIndex);
+  }
+
+  protected run(cellId: string): void {
+    void this.session.run([cellId]);
+  }
+
+  protected runStudy(): void {
+    void this.session.run();
+  }
+
+  protected showShortcuts(): void {
+    this.bottomSheet.open(Shortcuts, { ariaLabel: 'Keyboard shortcuts' });
+  }
+
+  protected showConflict(): void {
+    const conflict = this.session.conflict();
+    if (!conflict || this.conflictRef) return;
+    this.conflictRef = this.dialog.open<ConflictDialog, typeof conflict, ConflictChoice>(ConflictDialog, {
+      data: conflict,
+      disableClose: true,
+      width: '44rem',
+      maxWidth: '95vw',
+    });
+    this.conflictRef.afterClosed().subscribe((choice) => {
+      this.conflictRef = null;
+      if (choice === 'mine') this.session.keepMine();
+      else if (choice === 'theirs') this.session.takeTheirs();
+    });
+  }
+
+  // ── Keyboard ─────────────────────────────────────────────────────────────────────────────────
+
+  /** The cell the focus is in, if any. */
+  private activeCellId(target: EventTarget | null): string | null {
+    const element = target instanceof Element ? target : null;
+    const frame = element?.closest<HTMLElement>('lam-cell-frame[data-cell-id]');
+    return frame && this.host.nativeElement.contains(frame) ? frame.dataset['cellId'] ?? null : null;
+  }
+
+  protected onKeydown(event: KeyboardEvent): void {
+    if (!this.opened() || this.conflictRef) return;
+    const mod = event.ctrlKey || event.metaKey;
+    const cellId = this.activeCellId(event.target);
+
+    if (event.key === '?' && !mod && !event.altKey && !isTextEntry(event.target)) {
+      event.preventDefault();
+      this.showShortcuts();
+      return;
+    }
+    if (mod && !event.altKey && (event.key === 's' || event.key === 'S') && !event.shiftKey) {
+      event.preventDefault();
+      void this.session.flush();
+      return;
+    }
+    if (mod && event.key === 'Enter' && !event.altKey) {
+      if (!this.mayRun()) return;
+      event.preventDefault();
+      if (event.shiftKey) this.runStudy();
+      else if (cellId && cellKindInfo(this.session.cell(cellId)!.kind).runs) this.run(cellId);
+      return;
+    }
+    if (!event.altKey || mod || !cellId) return;
+    if (event.key === 'Enter' && !event.shiftKey && this.editable()) {
+      event.preventDefault();
+      this.openAddBelow(cellId);
+    } else if ((event.key === 'ArrowUp' || event.key === 'ArrowDown') && event.shiftKey && this.editable()) {
+      event.preventDefault();
+      this.move(cellId, event.key === 'ArrowUp' ? -1 : 1);
+    } else if ((event.key === 'ArrowUp' || event.key === 'ArrowDown') && !event.shiftKey) {
+      event.preventDefault();
+      const index = this.cells().findIndex((cell) => cell.cellId === cellId);
+      const next = this.cells()[index + (event.key === 'ArrowUp' ? -1 : 1)];
+      if (next) this.focusCell(next.cellId);
+    }
+  }
+
+  protected onBeforeUnload(event: BeforeUnloadEvent): void {
+    if (this.session.dirty()) {
+      void this.session.flush();
+      event.preventDefault();
+    }
+  }
+
+  /** Opens the add-cell list just below a cell (the insertion line after it, or the end button). */
+  private openAddBelow(cellId: string): void {
+    const index = this.cells().findIndex((cell) => cell.cellId === cellId);
+    const control = this.addControls().find((c) => c.index() === index + 1);
+    control?.open();
+  }
+
+  /** Puts the focus in a cell once it is on screen: on its first field, or on the frame itself. */
+  private focusCell(cellId: string, inside?: string): void {
+    afterNextRender(
+      () => {
+        const frame = this.host.nativeElement.querySelector<HTMLElement>(`lam-cell-frame[data-cell-id="${cellId}"]`);
+        const target = (inside ? frame?.querySelector<HTMLElement>(`.body ${inside.split(', ').join(', .body ')}`) : null) ?? frame?.querySelector<HTMLElement>('.frame');
+        target?.focus();
+        frame?.scrollIntoView({ block: 'nearest' });
+      },
+      { injector: this.injector },
+    );
+  }
+}

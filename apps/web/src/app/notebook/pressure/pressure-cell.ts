@@ -1,0 +1,195 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input, signal, viewChild } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { type DraftCell, type PressureResult, UPLOAD_LIMIT_BYTES } from '@laminote/contracts';
+import { problemMessage, toProblem } from '../../core/problem';
+import { Plot } from '../../shared/plot';
+import { bindCellForm } from '../cell-form';
+import { CellResult, shownResult } from '../cell-result';
+import { DraftSession } from '../draft-session';
+import { NotebookApi } from '../notebook-api';
+import { previewCpTable, resultFigure, resultStagnation } from './cp-preview';
+
+type Layout = 'closedLoop' | 'surface';
+
+interface PressureFormValue {
+  text: string;
+  layout: Layout;
+  surfaceName: string;
+  hasRadius: boolean;
+}
+
+/** A problem as the cell lists it: the line it is on (0 for the table as a whole) and what is wrong. */
+interface LineProblem {
+  readonly line: number;
+  readonly message: string;
+}
+
+/**
+ * Pressure distribution: a Cp table pasted or uploaded, kept exactly as given. It is read as it is
+ * typed with the engine's reader, its problems listed by line, and plotted with negative Cp up.
+ */
+@Component({
+  selector: 'lam-pressure-cell',
+  imports: [
+    CellResult,
+    DecimalPipe,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatSlideToggleModule,
+    Plot,
+    ReactiveFormsModule,
+  ],
+  templateUrl: './pressure-cell.html',
+  styleUrl: './pressure-cell.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class PressureCell {
+  private readonly api = inject(NotebookApi);
+  protected readonly session = inject(DraftSession);
+
+  readonly cell = input.required<DraftCell>();
+  readonly studyId = input.required<string>();
+
+  protected readonly form = new FormGroup({
+    text: new FormControl('', { nonNullable: true }),
+    layout: new FormControl<Layout>('closedLoop', { nonNullable: true }),
+    surfaceName: new FormControl('upper', { nonNullable: true }),
+    hasRadius: new FormControl(false, { nonNullable: true }),
+  });
+
+  private readonly binding = bindCellForm<PressureFormValue>({
+    form: this.form,
+    cell: this.cell,
+    toForm: (inputs) => ({
+      text: typeof inputs['text'] === 'string' ? inputs['text'] : '',
+      layout: inputs['layout'] === 'surface' ? 'surface' : 'closedLoop',
+      surfaceName: typeof inputs['surfaceName'] === 'string' ? inputs['surfaceName'] : 'upper',
+      hasRadius: inputs['hasRadius'] === true,
+    }),
+    fromForm: (value, previous) => {
+      const edited = value.text !== previous['text'];
+      return {
+        ...previous,
+        text: value.text,
+        layout: value.layout,
+        surfaceName: value.surfaceName,
+        hasRadius: value.hasRadius,
+        // A table edited after upload is no longer the stored file; the name stays to say where it came from.
+        uploadId: edited ? null : (previous['uploadId'] ?? null),
+        filename: previous['filename'] ?? null,
+      };
+    },
+  });
+
+  private readonly textArea = viewChild<ElementRef<HTMLTextAreaElement>>('table');
+  protected readonly uploading = signal(false);
+  protected readonly uploadProblem = signal<string | null>(null);
+  protected readonly uploadLimitMb = UPLOAD_LIMIT_BYTES / (1024 * 1024);
+
+  protected readonly inputs = computed(() => this.cell().inputs);
+  protected readonly layout = computed<Layout>(() => (this.inputs()['layout'] === 'surface' ? 'surface' : 'closedLoop'));
+  protected readonly filename = computed(() => (typeof this.inputs()['filename'] === 'string' ? (this.inputs()['filename'] as string) : null));
+  protected readonly fromStoredFile = computed(() => typeof this.inputs()['uploadId'] === 'string');
+
+  protected readonly preview = computed(() => {
+    const inputs = this.inputs();
+    const text = typeof inputs['text'] === 'string' ? inputs['text'] : '';
+    return previewCpTable(text, this.layout(), String(inputs['surfaceName'] ?? 'upper'), inputs['hasRadius'] === true);
+  });
+
+  /** Every problem with a line: the reader's as typed, then the server's from the last save or run. */
+  protected readonly lineProblems = computed((): LineProblem[] => {
+    const seen = new Set<string>();
+    const list: LineProblem[] = [];
+    const add = (line: number, message: string) => {
+      const key = `${line}:${message}`;
+      if (!seen.has(key)) {
+        seen.add(key);
+        list.push({ line, message });
+      }
+    };
+    for (const p of this.preview().problems) add(p.line, p.message);
+    const preview = this.preview();
+    if (preview.problems.length === 0) {
+      for (const p of this.cell().problems) if (p.field === 'text' || p.line !== undefined) add(p.line ?? 0, p.message);
+      const error = this.cell().output?.status === 'error' ? this.cell().output?.error : null;
+      for (const p of error?.problems ?? []) add(p.line, p.message);
+    }
+    return list.sort((a, b) => a.line - b.line);
+  });
+
+  protected readonly result = computed(() => {
+    const shown = shownResult(this.cell());
+    return shown ? (shown.output.result as PressureResult) : null;
+  });
+
+  /** The computed result's plot while it is current; otherwise the table as read here. */
+  protected readonly figure = computed(() => {
+    const result = this.result();
+    if (result && this.cell().runState === 'current') return resultFigure(result);
+    return this.preview().figure;
+  });
+
+  protected readonly stagnation = computed(() => {
+    const result = this.result();
+    const found = result && this.cell().runState === 'current' ? resultStagnation(result) : null;
+    if (found) return { ...found, computed: true };
+    const local = this.preview().stagnation;
+    return local ? { ...local, computed: false } : null;
+  });
+
+  protected problem(control: string): string {
+    return this.binding.problems().get(control) ?? '';
+  }
+
+  /** Puts the caret on a problem's line, so the person can fix it where it is. */
+  protected goToLine(line: number): void {
+    const area = this.textArea()?.nativeElement;
+    if (!area || line < 1) return;
+    const lines = area.value.split(/\r\n|\r|\n/);
+    let start = 0;
+    for (let i = 0; i < line - 1 && i < lines.length; i++) start += lines[i].length + 1;
+    const end = start + (lines[line - 1]?.length ?? 0);
+    area.focus();
+    area.setSelectionRange(start, end);
+    const lineHeight = parseFloat(getComputedStyle(area).lineHeight) || 18;
+    area.scrollTop = Math.max(0, (line - 3) * lineHeight);
+  }
+
+  protected pickFile(input: HTMLInputElement): void {
+    input.value = '';
+    input.click();
+  }
+
+  protected upload(event: Event): void {
+    const file = (event.target as HTMLInputElement).files?.[0];
+    if (!file) return;
+    if (file.size > UPLOAD_LIMIT_BYTES) {
+      this.uploadProblem.set(`${file.name} is ${(file.size / (1024 * 1024)).toFixed(1)} MB; the limit is ${this.uploadLimitMb} MB.`);
+      return;
+    }
+    this.uploading.set(true);
+    this.uploadProblem.set(null);
+    this.api.upload(this.studyId(), file).subscribe({
+      next: (upload) => {
+        this.uploading.set(false);
+        const current = this.cell();
+        this.session.setInputs(current.cellId, { ...current.inputs, text: upload.text, uploadId: upload.uploadId, filename: upload.filename });
+      },
+      error: (error: unknown) => {
+        this.uploading.set(false);
+        this.uploadProblem.set(problemMessage(toProblem(error)));
+      },
+    });
+  }
+}
