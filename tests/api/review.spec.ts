@@ -181,8 +181,9 @@ describe('threads on cells', () => {
 });
 
 describe('resolve and reopen', () => {
-  it('lets the thread author and leads resolve or reopen, and nobody else', async () => {
-    const thread = await startThread(as['reviewer']!, 'The H–Re_x result sits far from the e^N one.');
+  it('lets leads and the thread author resolve or reopen a thread on the draft, and nobody else', async () => {
+    // A draft thread on a cell nobody is recorded as creating: its only author is the reviewer.
+    const thread = await startThread(as['reviewer']!, 'The H–Re_x result sits far from the e^N one.', analysisCell, null);
     const path = `/api/threads/${thread.id}`;
     await as['engineer']!.post(`${path}/resolve`).expect(403);
     await as['viewer']!.post(`${path}/resolve`).expect(403);
@@ -198,8 +199,19 @@ describe('resolve and reopen', () => {
     expect(seen.body).toMatchObject({ resolved: true, canResolve: false, resolvedBy: { name: demoUser('lead').name } });
   });
 
+  it('lets the author of the version a thread is on resolve it: the engineer answers the reviewer and closes the point', async () => {
+    const thread = await startThread(as['reviewer']!, `@${demoUser('engineer').name} is the trip at 5 % intended?`, analysisCell, v1);
+    const seen = await as['engineer']!.get(`/api/threads/${thread.id}?versionId=${v1}`).expect(200);
+    expect(seen.body.canResolve).toBe(true);
+    await as['engineer']!.post(`/api/threads/${thread.id}/comments`, { body: 'Yes: it stands for the bug-debris strip.' }).expect(201);
+    const resolved = await as['engineer']!.post(`/api/threads/${thread.id}/resolve`).expect(200);
+    expect(resolved.body).toMatchObject({ resolved: true, resolvedBy: { name: demoUser('engineer').name } });
+    // A viewer is never allowed, whatever they authored.
+    expect((await as['viewer']!.get(`/api/threads/${thread.id}`).expect(200)).body.canResolve).toBe(false);
+  });
+
   it('lets an engineer resolve a thread they started', async () => {
-    const thread = await startThread(as['engineer']!, 'Note to self: rerun after the table update.', pressureCell);
+    const thread = await startThread(as['engineer']!, 'Note to self: rerun after the table update.', pressureCell, null);
     expect(thread.canResolve).toBe(true);
     await as['engineer']!.post(`/api/threads/${thread.id}/resolve`).expect(200);
   });

@@ -100,7 +100,10 @@ export const threadSchema = z.object({
    */
   onThisView: z.boolean(),
   cellChanged: z.boolean().nullable(),
-  /** Whether the caller may resolve or reopen it (leads and the thread's author). */
+  /**
+   * Whether the caller may resolve or reopen it: leads, the thread's author, and the author of the work
+   * it is about (who saved the version it was started on, or created the cell); never a viewer.
+   */
   canResolve: z.boolean(),
 });
 export type Thread = z.infer<typeof threadSchema>;

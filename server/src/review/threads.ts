@@ -28,9 +28,21 @@ export interface StudyRef {
 const creator = alias(users, 'creator');
 const resolver = alias(users, 'resolver');
 
-/** Leads and the thread's author may resolve and reopen (and only if they may comment at all). */
-function mayResolve(caller: Caller, createdBy: string | null): boolean {
-  return can(caller.access, 'comment') && (caller.access.role === 'lead' || createdBy === caller.user.id);
+/**
+ * Who may resolve and reopen a thread (if they may comment at all): leads, the person who started it,
+ * and the author of the work it is about: whoever saved the version it was made on, or created the
+ * cell. So the engineer a reviewer writes to can close the point once it is answered.
+ */
+interface ThreadAuthors {
+  createdBy: string | null;
+  cellAuthor: string | null;
+  versionAuthor: string | null;
+}
+
+function mayResolve(caller: Caller, authors: ThreadAuthors): boolean {
+  if (!can(caller.access, 'comment')) return false;
+  if (caller.access.role === 'lead') return true;
+  return [authors.createdBy, authors.cellAuthor, authors.versionAuthor].includes(caller.user.id);
 }
 
 export function cellLink(studyId: string, cellId: string, threadId?: string): string {
@@ -87,9 +99,12 @@ export async function listThreads(tx: Tx, caller: Caller, studyId: string, view:
       creatorName: creator.name,
       resolverName: resolver.name,
       versionNumber: versions.number,
+      versionAuthor: versions.authorId,
+      cellAuthor: cells.createdBy,
       branchName: branches.name,
     })
     .from(commentThreads)
+    .leftJoin(cells, eq(cells.id, commentThreads.cellId))
     .leftJoin(creator, eq(creator.id, commentThreads.createdBy))
     .leftJoin(resolver, eq(resolver.id, commentThreads.resolvedBy))
     .leftJoin(versions, eq(versions.id, commentThreads.versionId))
@@ -108,7 +123,7 @@ export async function listThreads(tx: Tx, caller: Caller, studyId: string, view:
     rows.map((r) => r.t.id),
   );
   const hashes = view ? await cellHashes(tx, view, [...new Set(rows.map((r) => r.t.cellId))]) : new Map<string, string>();
-  return rows.map(({ t, creatorName, resolverName, versionNumber, branchName }) => {
+  return rows.map(({ t, creatorName, resolverName, versionNumber, versionAuthor, cellAuthor, branchName }) => {
     const now = hashes.get(t.cellId);
     const onThisView = view !== null && (view.kind === 'version' ? t.versionId === view.versionId : t.versionId === null && t.branchId === view.branchId);
     return {
@@ -125,7 +140,7 @@ export async function listThreads(tx: Tx, caller: Caller, studyId: string, view:
       comments: commentsByThread.get(t.id) ?? [],
       onThisView,
       cellChanged: now === undefined || !t.cellContentHash ? null : now !== t.cellContentHash,
-      canResolve: mayResolve(caller, t.createdBy),
+      canResolve: mayResolve(caller, { createdBy: t.createdBy, cellAuthor, versionAuthor }),
     };
   });
 }
@@ -308,10 +323,17 @@ export async function editComment(tx: Tx, deps: Notifier, caller: Caller, study:
 }
 
 export async function setResolved(tx: Tx, caller: Caller, study: StudyRef, threadId: string, resolved: boolean): Promise<void> {
-  const [thread] = await tx.select().from(commentThreads).where(eq(commentThreads.id, threadId)).for('update');
-  if (!thread) throw notFound('thread');
-  if (!mayResolve(caller, thread.createdBy)) {
-    throw forbidden(`Only a lead or the thread's author can ${resolved ? 'resolve' : 'reopen'} it.`);
+  const [row] = await tx
+    .select({ thread: commentThreads, cellAuthor: cells.createdBy, versionAuthor: versions.authorId })
+    .from(commentThreads)
+    .leftJoin(cells, eq(cells.id, commentThreads.cellId))
+    .leftJoin(versions, eq(versions.id, commentThreads.versionId))
+    .where(eq(commentThreads.id, threadId))
+    .for('update', { of: commentThreads });
+  if (!row) throw notFound('thread');
+  const { thread } = row;
+  if (!mayResolve(caller, { createdBy: thread.createdBy, cellAuthor: row.cellAuthor, versionAuthor: row.versionAuthor })) {
+    throw forbidden(`Only a lead, the thread's author or the author of the version or cell can ${resolved ? 'resolve' : 'reopen'} it.`);
   }
   if ((thread.resolvedAt !== null) === resolved) return;
   await tx
