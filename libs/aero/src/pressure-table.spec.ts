@@ -30,6 +30,10 @@ describe('pressure table reader', () => {
     expect(rows(parsePressureTable('tap x y cp\n17 0.25 0.04 -0.6'))[0]).toEqual({ line: 2, x: 0.25, y: 0.04, cp: -0.6 });
   });
 
+  it('reads quoted spreadsheet fields', () => {
+    expect(rows(parsePressureTable('"x","y","Cp"\n"0.5","0.06","-0.4"'))[0]).toEqual({ line: 2, x: 0.5, y: 0.06, cp: -0.4 });
+  });
+
   it('accepts a byte-order mark, Windows line ends and Fortran-style exponents', () => {
     expect(rows(parsePressureTable('\uFEFFx y cp\r\n1.0D+00 0 -2.5E-01\r\n'))[0]).toEqual({ line: 2, x: 1, y: 0, cp: -0.25 });
   });

@@ -56,7 +56,8 @@ function splitFields(content: string): string[] {
   let trimmed = content.trim();
   // A separator at the end of a row (spreadsheet exports) does not open a field.
   if (/[,;]$/.test(trimmed)) trimmed = trimmed.slice(0, -1).trimEnd();
-  return trimmed.split(FIELD_SEPARATOR);
+  // Spreadsheet exports may quote every field.
+  return trimmed.split(FIELD_SEPARATOR).map((field) => (field.length >= 2 && field.startsWith('"') && field.endsWith('"') ? field.slice(1, -1).trim() : field));
 }
 
 /** Parse a pressure table; see the module comment for the accepted layout. */

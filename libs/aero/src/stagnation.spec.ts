@@ -15,8 +15,8 @@ describe('stagnation point of an analytic closed loop (Joukowski aerofoil, exact
     expect(miss / chord).toBeLessThan(1e-4);
   });
 
-  it('gives the leading-edge velocity gradient within 2 %', () => {
-    expect(Math.abs(split.stagnation.velocityGradient / loop.stagnation.velocityGradient - 1)).toBeLessThan(0.02);
+  it('gives the leading-edge velocity gradient within 0.5 %', () => {
+    expect(Math.abs(split.stagnation.velocityGradient / loop.stagnation.velocityGradient - 1)).toBeLessThan(0.005);
   });
 
   it('names the sides by height and measures arc length from the stagnation point', () => {
@@ -51,5 +51,30 @@ describe('stagnation point of an analytic closed loop (Joukowski aerofoil, exact
     expect(upper.transition.s).not.toBeNull();
     expect(result.cd!).toBeGreaterThan(0.002);
     expect(result.cd!).toBeLessThan(0.02);
+  });
+});
+
+describe('stagnation point on a station: ellipse at zero incidence (exact potential flow)', () => {
+  // Ellipse x = a cos η, y = b sin η in a stream along x: q/V = (1 + b/a)|sin η| / √(sin²η + (b/a)² cos²η)
+  // (Milne-Thomson, "Theoretical Hydrodynamics"), leading-edge gradient dq/ds = (a + b)/b² (closed form).
+  const a = 0.5;
+  const b = 0.06;
+  const count = 241;
+  const eta = Array.from({ length: count }, (_, i) => (2 * Math.PI * i) / (count - 1));
+  const x = eta.map((e) => a * Math.cos(e) + a);
+  const y = eta.map((e) => b * Math.sin(e));
+  const speed = eta.map((e) => ((1 + b / a) * Math.abs(Math.sin(e))) / Math.sqrt(Math.sin(e) ** 2 + (b / a) ** 2 * Math.cos(e) ** 2));
+  const split = splitAtStagnation(x, y, speed);
+
+  it('puts the stagnation point on the leading-edge station and splits symmetrically', () => {
+    expect(split.stagnation.x).toBeCloseTo(0, 12);
+    expect(split.stagnation.y).toBeCloseTo(0, 12);
+    expect(split.upper.s.length).toBe(split.lower.s.length);
+    for (let i = 0; i < split.upper.s.length; i++) expect(split.upper.s[i]).toBeCloseTo(split.lower.s[i], 12);
+    expect(split.upper.y![5]).toBeGreaterThan(0);
+  });
+
+  it('gives the leading-edge gradient (a + b)/b² within 1 %', () => {
+    expect(Math.abs(split.stagnation.velocityGradient / ((a + b) / (b * b)) - 1)).toBeLessThan(0.01);
   });
 });

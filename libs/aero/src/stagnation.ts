@@ -6,8 +6,9 @@ import { fitPolynomial } from './smoothing';
  * The loop runs from the trailing edge over one side, round the leading edge and back along the other
  * side. Arc length is the polygon length Σ √(Δx² + Δy²) (Σ |Δx| when no y is given). The stagnation
  * point is where the tangential velocity changes sign: the speed |Ue| is given a sign (negative
- * before the lowest speed near the leading edge, positive after), a cubic is fitted by least squares to
- * the signed velocity over the points round the minimum, and its root is the stagnation point. This
+ * before the lowest speed near the leading edge, positive after), a cubic is fitted (ml-matrix least
+ * squares, here through the four points round the sign change) to the signed velocity, and its root is
+ * the stagnation point. This
  * resolves the point between stations and gives the leading-edge velocity gradient dUe/ds there,
  * used by the stagnation-point start of the laminar march and by the attachment-line check
  * (common practice; e.g. Cebeci & Cousteix, "Modeling and Computation of Boundary-Layer Flows", 2005).
@@ -88,9 +89,9 @@ export function splitAtStagnation(x: ArrayLike<number>, y: ArrayLike<number> | n
 
   const signed = new Float64Array(n);
   for (let i = 0; i < n; i++) signed[i] = i <= a ? -speed[i] : speed[i];
-  const from = Math.max(0, a - 2);
-  const to = Math.min(n - 1, b + 2);
-  const c = fitPolynomial(arc, signed, 3, from, to, arc[a]);
+  // The cubic through the four points round the sign change: a compact, centred stencil is the most
+  // accurate for the gradient where the speed rises steeply round a small nose radius.
+  const c = fitPolynomial(arc, signed, 3, a - 1, b + 1, arc[a]);
   const value = (t: number) => c[0] + t * (c[1] + t * (c[2] + t * c[3]));
   const slope = (t: number) => c[1] + t * (2 * c[2] + t * 3 * c[3]);
   const span = arc[b] - arc[a];

@@ -120,6 +120,36 @@ describe('Howarth’s linearly retarded flow', () => {
   });
 });
 
+describe('circular cylinder (Hiemenz flow with the potential-flow Ue = 2 V sin φ)', () => {
+  // Thwaites' method in closed form: λ = 0.45 I cos φ / sin⁶ φ, I = ∫₀^φ sin⁵ = 8/15 − cos φ +
+  // (2/3) cos³ φ − (1/5) cos⁵ φ; laminar separation where λ = −0.09. The exact solution for this Ue
+  // separates at φ ≈ 104.5° (R. M. Terrill, Phil. Trans. R. Soc. A 253, 1960; value from memory).
+  const lambda = (phi: number) => {
+    const c = Math.cos(phi);
+    return (0.45 * (8 / 15 - c + (2 / 3) * c ** 3 - c ** 5 / 5) * c) / Math.sin(phi) ** 6;
+  };
+  let lo = Math.PI / 2;
+  let hi = Math.PI * 0.75;
+  for (let it = 0; it < 100; it++) {
+    const mid = 0.5 * (lo + hi);
+    if (lambda(mid) > -0.09) lo = mid;
+    else hi = mid;
+  }
+  const count = 721;
+  const s = Array.from({ length: count }, (_, i) => (0.8 * Math.PI * i) / (count - 1));
+  const { surface } = laminar(s, s.map((x) => 2 * Math.sin(x)));
+
+  it('separates where the closed form says, within 2 % of the exact angle', () => {
+    const degrees = (surface.laminarSeparation!.s * 180) / Math.PI;
+    expect(Math.abs(relative(surface.laminarSeparation!.s, lo))).toBeLessThan(0.002);
+    expect(Math.abs(relative(degrees, 104.5))).toBeLessThan(0.02);
+  });
+
+  it('starts from the plane stagnation point: θ² = 0.075 ν / (dUe/dx)', () => {
+    expect(surface.stations.theta[0]! ** 2 * RE * 2).toBeCloseTo(0.075, 4);
+  });
+});
+
 describe('axisymmetric flow (Mangler transformation)', () => {
   const s = stations(301, 0, 1, 1.5);
   const plate = laminar(s, s.map(() => 1)).surface.stations;
