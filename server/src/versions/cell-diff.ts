@@ -1,5 +1,4 @@
-import { CELL_INPUT_SCHEMAS, type CellDiff, type CellKind, type FieldChange, type TextDiff } from '@laminote/contracts';
-import { CELL_REFERENCE_FIELDS, fieldLabel } from './labels';
+import { CELL_INPUT_SCHEMAS, CELL_REFERENCE_FIELDS, fieldLabel, type CellDiff, type CellKind, type FieldChange, type TextDiff } from '@laminote/contracts';
 import { diffPressureTables, tableRowCount, type TableInputs } from './table-diff';
 
 /** A cell as a version (or a draft) holds it, enough to compare. */

@@ -1,5 +1,6 @@
 import { Router } from 'express';
 import { eq } from 'drizzle-orm';
+import { z } from 'zod';
 import {
   compareQuerySchema,
   createBranchSchema,
@@ -9,28 +10,22 @@ import {
   updateBranchSchema,
 } from '@laminote/contracts';
 import type { Db } from '../db/client';
-import { branches, versions } from '../db/schema';
+import { versions } from '../db/schema';
 import type { SessionUser } from '../auth/types';
 import { requireAction, studyAccess } from '../access/access';
+import { branchAccess, requireWritable } from '../notebook/branch';
 import { badRequest, notFound, parse } from '../http/problem';
 import { compareVersions, studiesOf } from './compare';
 import * as service from './service';
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
-/** The branch and the caller's access to its study; a branch the caller cannot see answers 404. */
-async function branchAccess(db: Db, user: SessionUser, branchId: string) {
-  if (!UUID.test(branchId)) throw notFound('branch');
-  const [branch] = await db.select().from(branches).where(eq(branches.id, branchId));
-  if (!branch) throw notFound('branch');
-  const context = await studyAccess(db, user, branch.studyId).catch(() => {
-    throw notFound('branch');
-  });
-  return { branch, ...context, place: { studyId: context.study.id, projectId: context.projectId } };
+/** A branch's place for the services: its study and project. */
+async function branchPlace(db: Db, user: SessionUser, branchId: string) {
+  const ctx = await branchAccess(db, user, branchId);
+  return { ...ctx, place: { studyId: ctx.study.id, projectId: ctx.projectId } };
 }
 
 async function versionAccess(db: Db, user: SessionUser, versionId: string) {
-  if (!UUID.test(versionId)) throw notFound('version');
+  if (!z.uuid().safeParse(versionId).success) throw notFound('version');
   const [version] = await db.select({ id: versions.id, studyId: versions.studyId }).from(versions).where(eq(versions.id, versionId));
   if (!version) throw notFound('version');
   const context = await studyAccess(db, user, version.studyId).catch(() => {
@@ -44,27 +39,31 @@ export function versionsRouter({ db }: { db: Db }): Router {
   const router = Router();
 
   router.post('/branches/:branchId/versions', async (req, res) => {
-    const { branch, access, place } = await branchAccess(db, req.user!, req.params.branchId);
+    const ctx = await branchPlace(db, req.user!, req.params.branchId);
+    const { branch, access, place } = ctx;
     requireAction(access, 'saveVersion');
+    requireWritable(ctx);
     const input = parse(saveVersionSchema, req.body);
     const versionId = await db.transaction((tx) => service.saveVersion(tx, req.user!, place, branch.id, input));
     res.status(201).json(await service.versionSummary(db, versionId));
   });
 
   router.get('/branches/:branchId/versions', async (req, res) => {
-    const { branch } = await branchAccess(db, req.user!, req.params.branchId);
+    const { branch } = await branchPlace(db, req.user!, req.params.branchId);
     res.json(await service.branchVersions(db, branch.id));
   });
 
   router.post('/branches/:branchId/draft/restore', async (req, res) => {
-    const { branch, access, place } = await branchAccess(db, req.user!, req.params.branchId);
+    const ctx = await branchPlace(db, req.user!, req.params.branchId);
+    const { branch, access, place } = ctx;
     requireAction(access, 'editStudy');
+    requireWritable(ctx);
     const input = parse(restoreDraftSchema, req.body);
     res.json(await db.transaction((tx) => service.restoreIntoDraft(tx, req.user!, place, branch.id, input.versionId, input.baseRevision)));
   });
 
   router.patch('/branches/:branchId', async (req, res) => {
-    const { branch, access, place } = await branchAccess(db, req.user!, req.params.branchId);
+    const { branch, access, place } = await branchPlace(db, req.user!, req.params.branchId);
     requireAction(access, 'branch');
     const input = parse(updateBranchSchema, req.body);
     await db.transaction((tx) => service.updateBranch(tx, req.user!, place, branch.id, input));

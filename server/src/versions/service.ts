@@ -21,6 +21,7 @@ import { badRequest, conflict, notFound, ProblemError } from '../http/problem';
 import { listBranches, MAIN_BRANCH } from '../studies/service';
 import { diffCells, type SnapshotCell } from './cell-diff';
 import { cellContentHash } from './content-hash';
+import { planCells, type StoredCell } from '../notebook/plan';
 import { versionReviewColumn } from '../review/timeline';
 
 /**
@@ -279,7 +280,13 @@ export async function saveVersion(tx: Tx, actor: SessionUser, place: Place, bran
     });
   }
 
-  const draftCells = draft.cells.map(draftCellToSnapshot);
+  // A cell keeps its output only while that output matches its inputs and upstream (the notebook's
+  // output key); a result of older inputs would misstate what the version computes.
+  const plans = planCells(draft.cells as StoredCell[]);
+  const draftCells = draft.cells.map((c) => {
+    const snapshot = draftCellToSnapshot(c);
+    return plans.get(c.cellId)?.key === snapshot.outputKey ? snapshot : { ...snapshot, outputKey: null };
+  });
   draftCells.forEach((c, i) => {
     if (!cellKindSchema.safeParse(c.kind).success) throw badRequest(`cell ${i + 1} of the draft has an unknown kind "${c.kind}"`, `cells[${i}].kind`);
   });
