@@ -1,4 +1,5 @@
 import {
+  ENGINE_LIMITS,
   engineCaseSchema,
   type EngineCase,
   type EngineResult,
@@ -199,7 +200,7 @@ function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number],
 }
 
 function surfacesFromTable(text: string, mach: number, warnings: string[]): PreparedSurface[] {
-  const table = parsePressureTable(text);
+  const table = parsePressureTable(text, { maxRows: ENGINE_LIMITS.maxTableRows });
   if (!table.ok) {
     const problem = table.problems[0];
     throw new CaseError(problem.line > 0 ? `pressureTable line ${problem.line}` : 'pressureTable', problem.message);

@@ -62,16 +62,37 @@ const flowSchema = z
     }
   });
 
-const stationArray = () =>
+/**
+ * An array of finite numbers. Checked in one plain loop rather than element by element through zod,
+ * because a case may carry 10^5 stations per surface and validation is part of every analysis; the
+ * first bad element is reported with its index, e.g. `surfaces[0].s[12]`.
+ */
+const stationArray = (minimum = 0) =>
   z
-    .array(z.number({ error: 'must be a number' }))
-    .max(ENGINE_LIMITS.maxStationsPerSurface, { error: `more than ${ENGINE_LIMITS.maxStationsPerSurface} stations (limit)` });
+    .custom<number[]>((value) => Array.isArray(value), { error: 'must be an array of numbers' })
+    .superRefine((values, ctx) => {
+      if (values.length > ENGINE_LIMITS.maxStationsPerSurface) {
+        ctx.addIssue({ code: 'custom', message: `more than ${ENGINE_LIMITS.maxStationsPerSurface} stations (limit)` });
+        return;
+      }
+      if (values.length < minimum) {
+        ctx.addIssue({ code: 'custom', message: `needs at least ${minimum} stations` });
+        return;
+      }
+      for (let i = 0; i < values.length; i++) {
+        const value: unknown = values[i];
+        if (typeof value !== 'number' || !Number.isFinite(value)) {
+          ctx.addIssue({ code: 'custom', path: [i], message: 'must be a number' });
+          return;
+        }
+      }
+    });
 
 const surfaceSchema = z
   .strictObject({
     name: z.string().trim().min(1, { error: 'name must not be empty' }).max(64),
     /** Arc length from the attachment line, strictly increasing. */
-    s: stationArray().min(3, { error: 'needs at least 3 stations' }),
+    s: stationArray(3),
     /** Ue / V∞ (one of ue or cp). */
     ue: stationArray().optional(),
     /** Pressure coefficient, converted to Ue / V∞ with the free-stream Mach number (one of ue or cp). */
