@@ -352,7 +352,7 @@ describe('review requests and verdicts', () => {
     expect(review.requests[0]).toMatchObject({ message: 'Cruise case ready.', answered: false, requestedBy: { name: demoUser('engineer').name } });
     expect(await outboxFor(reviewer.email)).toHaveLength(before + 1);
     const inbox = (await as['reviewer']!.get('/api/inbox').expect(200)).body as Inbox;
-    expect(inbox.items[0]).toMatchObject({ kind: 'reviewRequest', link: `/studies/${t.demo.studyId}?version=${v1}` });
+    expect(inbox.items[0]).toMatchObject({ kind: 'reviewRequest', link: `/studies/${t.demo.studyId}/versions/${v1}` });
 
     const wrong = await as['engineer']!.post(`/api/versions/${v1}/review-requests`, { reviewerIds: [await userId('reviewer'), await userId('viewer')] }).expect(400);
     expect(wrong.body.field).toBe('reviewerIds[1]');

@@ -236,7 +236,7 @@ export async function versionReview(tx: Tx, access: ProjectAccess, studyId: stri
 }
 
 function versionLink(studyId: string, versionId: string): string {
-  return `/studies/${studyId}?version=${versionId}`;
+  return `/studies/${studyId}/versions/${versionId}`;
 }
 
 export async function requestReview(

@@ -19,5 +19,17 @@ export const routes: Routes = [
     loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
     title: 'Study · Laminote',
   },
+  {
+    path: 'inbox',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./inbox/inbox-page').then((m) => m.InboxPage),
+    title: 'Inbox · Laminote',
+  },
+  {
+    path: 'dev/mail',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./inbox/dev-mail-page').then((m) => m.DevMailPage),
+    title: 'Development mail · Laminote',
+  },
   { path: '**', component: NotFound, data: { subject: 'page' }, title: 'Not found · Laminote' },
 ];

@@ -7,11 +7,12 @@ import { MatToolbarModule } from '@angular/material/toolbar';
 import { RouterLink, RouterOutlet } from '@angular/router';
 import { Auth } from './core/auth';
 import { Notifier } from './core/notifier';
+import { InboxLink } from './inbox/inbox-link';
 
 /** The shell: a compact top bar with the product and the signed-in person, and the page below it. */
 @Component({
   selector: 'lam-root',
-  imports: [MatButtonModule, MatDividerModule, MatIconModule, MatMenuModule, MatToolbarModule, RouterLink, RouterOutlet],
+  imports: [InboxLink, MatButtonModule, MatDividerModule, MatIconModule, MatMenuModule, MatToolbarModule, RouterLink, RouterOutlet],
   templateUrl: './app.html',
   styleUrl: './app.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -8,6 +8,8 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import type { DraftCell, Problem } from '@laminote/contracts';
 import { problemMessage } from '../core/problem';
+import { CellThreads } from '../review/cell-threads';
+import { CellThreadsButton } from '../review/cell-threads-button';
 import { RUN_STATE_INFO, cellKindInfo } from './cell-kinds';
 
 /**
@@ -16,7 +18,7 @@ import { RUN_STATE_INFO, cellKindInfo } from './cell-kinds';
  */
 @Component({
   selector: 'lam-cell-frame',
-  imports: [CdkDragHandle, MatButtonModule, MatDividerModule, MatIconModule, MatMenuModule, MatProgressSpinnerModule, MatTooltipModule],
+  imports: [CdkDragHandle, CellThreads, CellThreadsButton, MatButtonModule, MatDividerModule, MatIconModule, MatMenuModule, MatProgressSpinnerModule, MatTooltipModule],
   templateUrl: './cell-frame.html',
   styleUrl: './cell-frame.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
