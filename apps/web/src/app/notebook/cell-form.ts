@@ -111,7 +111,7 @@ export function bindCellForm<V>(options: CellFormOptions<V>): { readonly problem
         const message = byControl.get(name);
         if (message) {
           control.setErrors({ problem: message });
-          control.markAsDirty();
+          control.markAsTouched();
         } else if (control.hasError('problem')) {
           control.setErrors(null);
         }

@@ -14,7 +14,6 @@ import {
 } from '@angular/core';
 import { MatBottomSheet } from '@angular/material/bottom-sheet';
 import { MatButtonModule } from '@angular/material/button';
-import { ErrorStateMatcher, ShowOnDirtyErrorStateMatcher } from '@angular/material/core';
 import { MatDialog, type MatDialogRef } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -92,7 +91,7 @@ function isTextEntry(target: EventTarget | null): boolean {
     SaveIndicator,
     SweepCell,
   ],
-  providers: [DraftSession, { provide: ErrorStateMatcher, useClass: ShowOnDirtyErrorStateMatcher }],
+  providers: [DraftSession],
   templateUrl: './notebook-page.html',
   styleUrl: './notebook-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -332,7 +331,7 @@ export class NotebookPage {
         const frame = this.host.nativeElement.querySelector<HTMLElement>(`lam-cell-frame[data-cell-id="${cellId}"]`);
         const target = (inside ? frame?.querySelector<HTMLElement>(`.body ${inside.split(', ').join(', .body ')}`) : null) ?? frame?.querySelector<HTMLElement>('.frame');
         target?.focus();
-        frame?.scrollIntoView({ block: 'nearest' });
+        frame?.scrollIntoView?.({ block: 'nearest' });
       },
       { injector: this.injector },
     );

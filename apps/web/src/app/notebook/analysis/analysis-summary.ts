@@ -107,6 +107,22 @@ function stationTraces(result: EngineResult, pick: (surface: EngineSurfaceResult
   }));
 }
 
+/**
+ * The largest value of a quantity away from the attachment line (beyond the first 3 % of each surface),
+ * where c_f grows without bound as Ue → 0; used to keep the rest of the curve readable.
+ */
+function awayFromAttachment(result: EngineResult, pick: (surface: EngineSurfaceResult) => (number | null)[]): number {
+  let largest = 0;
+  for (const surface of result.surfaces) {
+    const s = surface.stations.s;
+    const end = s[s.length - 1] ?? 0;
+    pick(surface).forEach((value, k) => {
+      if (value !== null && Number.isFinite(value) && s[k] > 0.03 * end) largest = Math.max(largest, value);
+    });
+  }
+  return largest > 0 ? largest : 0.01;
+}
+
 /** The four plots of an analysis: N-factor envelope, shape factor, Re_θ with Michel's line, skin friction. */
 export function analysisFigures(result: EngineResult): { id: string; label: string; figure: PlotFigure }[] {
   const x = { title: axisTitle(result) };
@@ -132,7 +148,12 @@ export function analysisFigures(result: EngineResult): { id: string; label: stri
     width: 1.25,
   }));
   const reThetaFigure: PlotFigure = { x, y: { title: 'Re_θ = Ue θ / ν', log: true }, traces: [...reThetaTraces, ...michelTraces], markers };
-  const cfFigure: PlotFigure = { x, y: { title: 'c_f (on local Ue)' }, traces: stationTraces(result, (s) => s.stations.cf), markers };
+  const cfFigure: PlotFigure = {
+    x,
+    y: { title: 'c_f (on local Ue)', range: [0, awayFromAttachment(result, (s) => s.stations.cf) * 1.15] },
+    traces: stationTraces(result, (s) => s.stations.cf),
+    markers,
+  };
   return [
     { id: 'n', label: 'N-factor envelope along the chord against N_crit', figure: nFigure },
     { id: 'h', label: 'Shape factor H along the chord', figure: hFigure },

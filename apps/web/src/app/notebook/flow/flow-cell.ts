@@ -130,7 +130,7 @@ export class FlowCell {
     const result = this.derivation();
     if (!('condition' in result)) return [];
     const c = result.condition;
-    const rows: Derived[] = [{ symbol: 'Re', name: 'Reynolds number on the reference length', value: sci(c.reynolds), unit: '' }];
+    const rows: Derived[] = [{ symbol: 'Re', name: 'Reynolds number on L', value: sci(c.reynolds), unit: '' }];
     if (c.speed_ms !== undefined) {
       rows.push(
         { symbol: 'ν∞', name: 'kinematic viscosity', value: sci(c.kinematicViscosity_m2s), unit: 'm²/s' },

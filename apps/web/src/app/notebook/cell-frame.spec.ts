@@ -1,0 +1,101 @@
+import { TestBed } from '@angular/core/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import type { DraftCell } from '@laminote/contracts';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { provideTestApp } from '../../testing/test-app';
+import { CellFrame } from './cell-frame';
+import { CellFrameHarness } from './testing/cell-frame-harness';
+import { FLOW_ID, cell, output } from './testing/notebook-fixtures';
+
+describe('CellFrame', () => {
+  beforeEach(() => TestBed.configureTestingModule({ providers: provideTestApp() }));
+
+  async function render(frameCell: DraftCell, options: { index?: number; count?: number; editable?: boolean; mayRun?: boolean } = {}) {
+    const fixture = TestBed.createComponent(CellFrame);
+    fixture.componentRef.setInput('cell', frameCell);
+    fixture.componentRef.setInput('index', options.index ?? 0);
+    fixture.componentRef.setInput('count', options.count ?? 3);
+    fixture.componentRef.setInput('editable', options.editable ?? true);
+    fixture.componentRef.setInput('mayRun', options.mayRun ?? true);
+    const events: string[] = [];
+    const frame = fixture.componentInstance;
+    frame.runRequested.subscribe(() => events.push('run'));
+    frame.duplicateRequested.subscribe(() => events.push('duplicate'));
+    frame.moveRequested.subscribe((delta) => events.push(`move ${delta}`));
+    frame.removeRequested.subscribe(() => events.push('remove'));
+    frame.titleChange.subscribe((title) => events.push(`title ${title}`));
+    frame.collapsedChange.subscribe((collapsed) => events.push(`collapsed ${collapsed}`));
+    fixture.detectChanges();
+    const harness = await TestbedHarnessEnvironment.harnessForFixture(fixture, CellFrameHarness);
+    return { fixture, harness, events };
+  }
+
+  it('shows the kind, the title and the run state in Laminote’s words', async () => {
+    const { harness, fixture } = await render(cell('flow', FLOW_ID, { title: 'Cruise, FL370' }));
+    expect(await harness.getKindLabel()).toBe('Flow condition');
+    expect(await harness.getTitle()).toBe('Cruise, FL370');
+    expect(await harness.getRunState()).toBe('Not run yet');
+
+    fixture.componentRef.setInput('cell', cell('flow', FLOW_ID, { runState: 'outdated', output: output({}) }));
+    expect(await harness.getRunState()).toBe('Needs a rerun');
+    fixture.componentRef.setInput('running', true);
+    expect(await harness.getRunState()).toBe('Computing…');
+    expect(await harness.canRun()).toBe(false);
+  });
+
+  it('reports each action the person picks', async () => {
+    const { harness, events } = await render(cell('pressure', FLOW_ID), { index: 1, count: 3 });
+    await harness.setTitle('Upper surface, tap data');
+    await harness.run();
+    await harness.chooseAction('Duplicate');
+    await harness.chooseAction('Move up');
+    await harness.chooseAction('Move down');
+    await harness.chooseAction('Remove');
+    await harness.toggleCollapsed();
+    // The title goes out as it is typed, keystroke by keystroke; the autosave gathers them.
+    expect(events.filter((e) => e.startsWith('title')).at(-1)).toBe('title Upper surface, tap data');
+    expect(events.filter((e) => !e.startsWith('title'))).toEqual(['run', 'duplicate', 'move -1', 'move 1', 'remove', 'collapsed true']);
+  });
+
+  it('offers no move past the ends of the stack', async () => {
+    const first = await render(cell('flow', FLOW_ID), { index: 0, count: 2 });
+    expect(await first.harness.getActions()).toEqual([
+      { text: 'Duplicate', enabled: true },
+      { text: 'Move up', enabled: false },
+      { text: 'Move down', enabled: true },
+      { text: 'Remove', enabled: true },
+    ]);
+  });
+
+  it('hides the body when collapsed', async () => {
+    const { harness, fixture } = await render(cell('note', FLOW_ID, { collapsed: false }));
+    expect(await harness.isCollapsed()).toBe(false);
+    fixture.componentRef.setInput('cell', cell('note', FLOW_ID, { collapsed: true }));
+    expect(await harness.isCollapsed()).toBe(true);
+    // A note computes nothing: no run state, no Run.
+    expect(await harness.getRunState()).toBeNull();
+    expect(await harness.canRun()).toBe(false);
+  });
+
+  it('shows the engine’s message on a failed run and says the last good result is kept', async () => {
+    const failed = cell('analysis', FLOW_ID, {
+      runState: 'failed',
+      output: output(null, { status: 'error', error: { message: 'laminar separation at the first station', field: 'pressureCellId' } }),
+      lastGoodOutput: output({ surfaces: [] }),
+    });
+    const { harness } = await render(failed);
+    const [message] = await harness.getFailures();
+    expect(message).toContain('laminar separation at the first station');
+    expect(message).toContain('pressureCellId');
+    expect(message).toContain('last good result is kept');
+    expect(await harness.getRunState()).toBe('Run failed');
+  });
+
+  it('gives a reader no way to change or run the cell', async () => {
+    const { harness } = await render(cell('flow', FLOW_ID, { title: 'Cruise' }), { editable: false, mayRun: false });
+    expect(await harness.isTitleEditable()).toBe(false);
+    expect(await harness.getTitle()).toBe('Cruise');
+    expect(await harness.hasActions()).toBe(false);
+    expect(await harness.canRun()).toBe(false);
+  });
+});

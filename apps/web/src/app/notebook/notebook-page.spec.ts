@@ -1,0 +1,201 @@
+import { TestBed } from '@angular/core/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatDialogHarness } from '@angular/material/dialog/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import type { Branch, Draft, Me } from '@laminote/contracts';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { PROJECT_ID, STUDY_ID, me, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
+import { PLOT_RENDERER } from '../shared/plot';
+import { AUTOSAVE_DELAY_MS } from './draft-session';
+import { NotebookPage } from './notebook-page';
+import { CellFrameHarness } from './testing/cell-frame-harness';
+import { ANALYSIS_ID, BRANCH_ID, FLOW_ID, NOTE_ID, PRESSURE_ID, cell, draft } from './testing/notebook-fixtures';
+
+const branch: Branch = {
+  id: BRANCH_ID,
+  studyId: STUDY_ID,
+  name: 'main',
+  purpose: '',
+  forkedFromVersionId: null,
+  headVersionId: null,
+  archived: false,
+  createdBy: null,
+  createdAt: '2026-03-03T10:00:00.000Z',
+};
+
+function stack(): Draft {
+  return draft([
+    cell('flow', FLOW_ID, { title: 'Cruise, M 0.78' }),
+    cell('pressure', PRESSURE_ID, { title: 'Outboard Cp (invented)' }),
+    cell('analysis', ANALYSIS_ID, { title: 'Free transition' }),
+  ]);
+}
+
+function asRole(role: 'engineer' | 'viewer' | 'reviewer'): Me {
+  const person = me();
+  return { ...person, memberships: [{ projectId: PROJECT_ID, projectName: 'Larkspur T-62 wing', role }] };
+}
+
+const settle = (ms = 20) => new Promise((resolve) => setTimeout(resolve, ms));
+
+describe('NotebookPage', () => {
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      providers: [
+        ...provideTestApp(),
+        { provide: AUTOSAVE_DELAY_MS, useValue: 5 },
+        { provide: PLOT_RENDERER, useValue: () => new Promise<never>(() => undefined) },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+  });
+
+  // Only the notebook's own calls are checked here: the review and versions parts plugged into the page
+  // make theirs, which their own tests cover.
+  afterEach(() => {
+    const open = http.match((request) => request.url.startsWith('/api/branches/') || request.url.endsWith('/run'));
+    expect(open.map((r) => `${r.request.method} ${r.request.url}`)).toEqual([]);
+  });
+
+  async function open(person: Me, opened: Draft = stack()) {
+    await signInAs(person);
+    const fixture = TestBed.createComponent(NotebookPage);
+    fixture.componentRef.setInput('studyId', STUDY_ID);
+    fixture.detectChanges();
+    http.expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}` }).flush(study());
+    http.expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}/branches` }).flush([branch]);
+    await fixture.whenStable();
+    http.expectOne(`/api/branches/${BRANCH_ID}/draft`).flush(opened);
+    await fixture.whenStable();
+    return {
+      fixture,
+      loader: TestbedHarnessEnvironment.loader(fixture),
+      root: TestbedHarnessEnvironment.documentRootLoader(fixture),
+    };
+  }
+
+  it('saves an edit on top of the revision it was made on', async () => {
+    const { fixture, loader } = await open(asRole('engineer'));
+    const frame = await loader.getHarness(CellFrameHarness.with({ title: 'Free transition' }));
+    await frame.setTitle('Free transition, cruise');
+    await settle();
+    const save = http.expectOne({ method: 'PUT', url: `/api/branches/${BRANCH_ID}/draft` });
+    expect(save.request.body.baseRevision).toBe(3);
+    expect(save.request.body.cells.map((c: { title: string }) => c.title)).toEqual(['Cruise, M 0.78', 'Outboard Cp (invented)', 'Free transition, cruise']);
+    save.flush({ ...stack(), revision: 4, cells: stack().cells.map((c) => (c.cellId === ANALYSIS_ID ? { ...c, title: 'Free transition, cruise' } : c)) });
+    await fixture.whenStable();
+    expect(await (await loader.getHarness(MatButtonHarness.with({ text: /Run study/ }))).isDisabled()).toBe(false);
+  });
+
+  it('on 409 shows what the other person changed and, on “Keep mine”, saves again on their revision', async () => {
+    const { fixture, loader, root } = await open(asRole('engineer'));
+    await (await loader.getHarness(CellFrameHarness.with({ title: 'Free transition' }))).setTitle('Tripped at 5 %');
+    await settle();
+
+    // Meanwhile Mara renamed the flow cell and added a note (revision 4).
+    const theirs: Draft = {
+      ...stack(),
+      revision: 4,
+      updatedBy: { id: '9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6d', name: 'Mara Okonkwo' },
+      cells: [
+        cell('flow', FLOW_ID, { title: 'Cruise, M 0.80' }),
+        cell('pressure', PRESSURE_ID, { title: 'Outboard Cp (invented)' }),
+        cell('analysis', ANALYSIS_ID, { title: 'Free transition' }),
+        cell('note', NOTE_ID, { title: 'Why M 0.80', inputs: { markdown: 'Tamsk asked for the faster cruise.' } }),
+      ],
+    };
+    http
+      .expectOne({ method: 'PUT', url: `/api/branches/${BRANCH_ID}/draft` })
+      .flush(
+        { type: 'https://laminote.example/problems/conflict', title: 'The draft changed', status: 409, current: theirs },
+        problemResponse(409, 'Conflict'),
+      );
+    await fixture.whenStable();
+
+    const dialog = await root.getHarness(MatDialogHarness);
+    const text = await dialog.getText();
+    expect(text).toContain('Mara Okonkwo saved');
+    expect(text).toMatch(/Their changes.*Cruise, M 0\.80.*Flow condition.*changed \(title\).*Why M 0\.80.*Note.*added/s);
+    expect(text).toMatch(/Your unsaved changes.*Tripped at 5 %.*Transition analysis.*changed \(title\)/s);
+    // Nothing is saved while the person has not chosen.
+    await settle();
+    http.expectNone({ method: 'PUT' });
+
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Keep mine' }))).click();
+    await settle();
+    const again = http.expectOne({ method: 'PUT', url: `/api/branches/${BRANCH_ID}/draft` });
+    expect(again.request.body.baseRevision).toBe(4);
+    expect(again.request.body.cells.map((c: { title: string }) => c.title)).toEqual(['Cruise, M 0.78', 'Outboard Cp (invented)', 'Tripped at 5 %']);
+    again.flush({ ...theirs, revision: 5, cells: stack().cells.map((c) => (c.cellId === ANALYSIS_ID ? { ...c, title: 'Tripped at 5 %' } : c)) });
+    await fixture.whenStable();
+    expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
+  });
+
+  it('on “Take theirs” shows their stack and saves nothing', async () => {
+    const { fixture, loader, root } = await open(asRole('engineer'));
+    await (await loader.getHarness(CellFrameHarness.with({ title: 'Free transition' }))).setTitle('Mine');
+    await settle();
+    const theirs: Draft = { ...stack(), revision: 4, cells: [cell('flow', FLOW_ID, { title: 'Theirs only' })] };
+    http
+      .expectOne({ method: 'PUT' })
+      .flush({ type: 'about:blank', title: 'Conflict', status: 409, current: theirs }, problemResponse(409, 'Conflict'));
+    await fixture.whenStable();
+    const dialog = await root.getHarness(MatDialogHarness);
+    expect(await dialog.getText()).toMatch(/Their changes.*Outboard Cp \(invented\).*removed/s);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Take theirs' }))).click();
+    await settle();
+    http.expectNone({ method: 'PUT' });
+    const frames = await loader.getAllHarnesses(CellFrameHarness);
+    expect(await Promise.all(frames.map((f) => f.getTitle()))).toEqual(['Theirs only']);
+  });
+
+  it('brings a removed cell back from “Recently removed”', async () => {
+    const { fixture, loader } = await open(asRole('engineer'));
+    await (await loader.getHarness(CellFrameHarness.with({ title: 'Outboard Cp (invented)' }))).chooseAction('Remove');
+    expect(await loader.getAllHarnesses(CellFrameHarness)).toHaveLength(2);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Bring back/ }))).click();
+    const frames = await loader.getAllHarnesses(CellFrameHarness);
+    expect(await Promise.all(frames.map((f) => f.getTitle()))).toEqual(['Cruise, M 0.78', 'Free transition', 'Outboard Cp (invented)']);
+    await settle();
+    const save = http.expectOne({ method: 'PUT' });
+    expect(save.request.body.cells).toHaveLength(3);
+    save.flush({ ...stack(), revision: 4 });
+    await fixture.whenStable();
+  });
+
+  it('runs one cell after saving what waits, and shows the new run state', async () => {
+    const { fixture, loader } = await open(asRole('engineer'));
+    const flow = await loader.getHarness(CellFrameHarness.with({ title: 'Cruise, M 0.78' }));
+    await flow.run();
+    await settle();
+    const run = http.expectOne({ method: 'POST', url: `/api/branches/${BRANCH_ID}/run` });
+    expect(run.request.body).toEqual({ cellIds: [FLOW_ID] });
+    expect(await flow.getRunState()).toBe('Computing…');
+    const after = stack();
+    after.cells[0] = { ...after.cells[0], runState: 'current' };
+    run.flush({ ...after, ran: [{ cellId: FLOW_ID, kind: 'flow', status: 'ok', reused: false, key: 'k', durationMs: 3, error: null }] });
+    await fixture.whenStable();
+    expect(await flow.getRunState()).toBe('Up to date');
+  });
+
+  for (const role of ['viewer', 'reviewer'] as const) {
+    it(`gives a ${role} a read-only notebook`, async () => {
+      const { loader } = await open(asRole(role));
+      expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Add cell|Run study/ }))).toHaveLength(0);
+      const frames = await loader.getAllHarnesses(CellFrameHarness);
+      expect(frames).toHaveLength(3);
+      for (const frame of frames) {
+        expect(await frame.isTitleEditable()).toBe(false);
+        expect(await frame.hasActions()).toBe(false);
+        expect(await frame.canRun()).toBe(false);
+      }
+      const mach = await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="mach"]' }));
+      expect(await mach.isDisabled()).toBe(true);
+      expect(await (await loader.getHarness(MatInputHarness.with({ selector: 'textarea' }))).isDisabled()).toBe(true);
+    });
+  }
+});
