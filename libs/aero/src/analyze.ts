@@ -406,33 +406,31 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     warnings.push(`${surface.name}: Michel's criterion is applied at Re_s = ${found.michel.reS.toExponential(2)}, outside the range it was fitted to (1e5 to 4e7)`);
   }
 
-  // Station values: laminar up to transition, turbulent after it.
-  const outTheta = theta;
-  const outShape = shape;
-  const outCf = cf;
-  const outShear = wallShear;
+  // Station values: laminar up to transition, then overwritten by the turbulent march.
   let turbulentSeparation: { s: number } | null = null;
   let cd: number | null;
   let cdFriction: number | null;
-  if (transitionS === null) {
+  const transitionAt = transitionS ?? Infinity;
+  let firstTurbulent = 0;
+  while (firstTurbulent < n && s[firstTurbulent] <= transitionAt) firstTurbulent++;
+  if (firstTurbulent >= n) {
+    // Laminar to the last station (transition, if any, is at the trailing edge itself).
     cd = squireYoungDrag(theta[n - 1], ue[n - 1], shape[n - 1]);
-    cdFriction = integrateShear(s, outShear, n - 1, null);
+    cdFriction = integrateShear(s, wallShear, n - 1, null);
   } else {
-    let firstTurbulent = 0;
-    while (firstTurbulent < n && s[firstTurbulent] <= transitionS) firstTurbulent++;
     markFrom(nFactor, firstTurbulent, n);
     if (!context.turbulent) {
-      for (const a of [outTheta, outShape, outCf]) markFrom(a, firstTurbulent, n);
+      for (const a of [theta, shape, cf]) markFrom(a, firstTurbulent, n);
       cd = null;
       cdFriction = null;
-      warnings.push(`${surface.name}: the turbulent march is switched off, so the drag after transition at s = ${round(transitionS)} is not estimated`);
+      warnings.push(`${surface.name}: the turbulent march is switched off, so the drag after transition at s = ${round(transitionAt)} is not estimated`);
     } else {
       // The laminar state at transition, interpolated in the interval that holds it.
       const k = Math.max(0, firstTurbulent - 1);
       const k1 = Math.min(n - 1, k + 1);
-      const w = k1 > k ? Math.min(1, Math.max(0, (transitionS - s[k]) / (s[k1] - s[k]))) : 0;
+      const w = k1 > k ? Math.min(1, Math.max(0, (transitionAt - s[k]) / (s[k1] - s[k]))) : 0;
       let start = {
-        s: transitionS,
+        s: transitionAt,
         index: k,
         theta: theta[k] + w * (theta[k1] - theta[k]),
         ue: ue[k] + w * (ue[k1] - ue[k]),
@@ -446,25 +444,25 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
       const turbulentShear = ludwiegTillmannCf(TURBULENT_START_SHAPE_FACTOR, reynolds * start.ue * start.theta) * start.ue * start.ue;
       const march = headMarch(
         { s, ue, dUeds, radius, dRds, reynolds, startS: start.s, startTheta: start.theta },
-        { theta: outTheta, shapeFactor: outShape, skinFriction: outCf },
+        { theta: theta, shapeFactor: shape, skinFriction: cf },
       );
-      for (let j = start.index + 1; j < n; j++) outShear[j] = outCf[j] * ue[j] * ue[j];
+      for (let j = start.index + 1; j < n; j++) wallShear[j] = cf[j] * ue[j] * ue[j];
       if (march.separationS !== null) {
         turbulentSeparation = { s: march.separationS };
         warnings.push(`${surface.name}: turbulent separation at s = ${round(march.separationS)}; the march stops there and the drag is only indicative (Squire–Young at separation)`);
       }
       cd = squireYoungDrag(march.endTheta, march.endUe, march.endShapeFactor);
-      cdFriction = integrateShear(s, outShear, march.lastIndex, { s: start.s, index: start.index, laminar: start.laminarShear, turbulent: turbulentShear });
+      cdFriction = integrateShear(s, wallShear, march.lastIndex, { s: start.s, index: start.index, laminar: start.laminarShear, turbulent: turbulentShear });
     }
   }
 
   const stations: EngineSurfaceResult['stations'] = {
     s: Array.from(s),
     ue: Array.from(ue),
-    theta: nullable(outTheta, n),
-    deltaStar: product(outTheta, outShape, n),
-    H: nullable(outShape, n),
-    cf: nullable(outCf, n),
+    theta: nullable(theta, n),
+    deltaStar: product(theta, shape, n),
+    H: nullable(shape, n),
+    cf: nullable(cf, n),
     n: nullable(nFactor, n),
   };
   if (surface.x !== null) stations.x = Array.from(surface.x);

@@ -99,3 +99,15 @@ describe('turbulent march details', () => {
     expect(result.cd).toBeNull();
   });
 });
+
+describe('transition at the last station', () => {
+  it('keeps the laminar trailing-edge state for the drag', () => {
+    const s = stations(101);
+    const ue = s.map(() => 1);
+    const laminar = analyzeOne({ flow: { reynolds: 1e6 }, criteria: [], surfaces: [{ name: 'w', s, ue }] }).surface;
+    const tripped = analyzeOne({ flow: { reynolds: 1e6 }, criteria: [], surfaces: [{ name: 'w', s, ue, trip: 1 }] }).surface;
+    expect(tripped.transition.by).toBe('trip');
+    expect(tripped.cd).toBe(laminar.cd);
+    expect(tripped.stations.H.at(-1)).toBeCloseTo(2.61, 6);
+  });
+});
