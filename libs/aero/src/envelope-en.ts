@@ -3,7 +3,8 @@
  * approximate-envelope form of Drela & Giles, with Mack's relation for the critical N.
  *
  * Source: M. Drela & M. B. Giles, "Viscous–inviscid analysis of transonic and low Reynolds number
- * airfoils", AIAA Journal 25 (1987) 1347–1355, fitted to Falkner–Skan stability results:
+ * airfoils", AIAA Journal 25 (1987) 1347–1355, fitted to Falkner–Skan stability results (coefficients
+ * quoted from memory):
  *   log10 Re_θ0 = (1.415/(H−1) − 0.489) tanh(20/(H−1) − 12.9) + 3.295/(H−1) + 0.44
  *   dN/dRe_θ  = 0.01 √{[2.4 H − 3.7 + 2.5 tanh(1.5 H − 4.65)]² + 0.25}
  *   ℓ(H) = (6.54 H − 14.07)/H²,  m(H) = (0.058 (H − 4)²/(H − 1) − 0.068)/ℓ(H)
