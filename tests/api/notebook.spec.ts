@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Draft, DraftCell, EngineResult, FlowResult, PressureResult, RunResponse } from '@laminote/contracts';
+import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
 import { signIn, type SignedIn } from '../support/sign-in';
@@ -16,32 +17,14 @@ beforeAll(async () => {
 afterAll(async () => t?.close());
 
 /**
- * Exact potential flow past a symmetric Joukowski section at zero incidence, as a closed-loop
- * `x y cp` table from the trailing edge over the upper side and back along the lower side.
- * Circle ζ = μ + a e^{iθ}, μ = −ε, a = 1 + ε, mapped by z = ζ + 1/ζ; surface speed
- * q/V∞ = |dW/dζ| / |dz/dζ| = 2|sin θ| / |1 − 1/ζ²|, Cp = 1 − (q/V∞)² (N. E. Joukowski 1910; e.g.
- * L. M. Milne-Thomson, "Theoretical Aerodynamics", 1958, ch. 6). x is scaled to the chord, 0 to 1.
+ * Exact potential flow past a symmetric Joukowski section at zero incidence (N. E. Joukowski 1910;
+ * L. M. Milne-Thomson, "Theoretical Aerodynamics", ch. 7), the engine's own test fixture, written as a
+ * closed-loop `x y cp` table from the trailing edge over the upper side and back along the lower side.
+ * 601 points give 2 × 300 stations.
  */
-function joukowskiTable(points = 301, epsilon = 0.08): string {
-  const a = 1 + epsilon;
-  const rows: [number, number, number][] = [];
-  for (let k = 1; k < points; k++) {
-    const theta = (2 * Math.PI * k) / points;
-    const zr = -epsilon + a * Math.cos(theta);
-    const zi = a * Math.sin(theta);
-    const m2 = zr * zr + zi * zi;
-    const x = zr + zr / m2;
-    const y = zi - zi / m2;
-    // 1 − 1/ζ² with 1/ζ² = conj(ζ)² / |ζ|⁴
-    const ir = (zr * zr - zi * zi) / (m2 * m2);
-    const ii = (-2 * zr * zi) / (m2 * m2);
-    const q = (2 * Math.abs(Math.sin(theta))) / Math.hypot(1 - ir, -ii);
-    rows.push([x, y, 1 - q * q]);
-  }
-  const xs = rows.map((r) => r[0]);
-  const min = Math.min(...xs);
-  const chord = Math.max(...xs) - min;
-  return ['x y cp', ...rows.map(([x, y, cp]) => `${((x - min) / chord).toFixed(6)} ${(y / chord).toFixed(6)} ${cp.toFixed(6)}`)].join('\n');
+function joukowskiTable(points = 601): string {
+  const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, points);
+  return ['x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
 }
 
 interface CellSpec {
@@ -166,6 +149,32 @@ describe('draft', () => {
     await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200);
     const { rows } = await t.database.pool.query<{ action: string }>('select action from audit_events where target_id = $1', [branchId]);
     expect(rows.map((r) => r.action).sort()).toEqual(['cells.run', 'draft.save']);
+  });
+});
+
+describe('the demo study', () => {
+  it('holds the invented Larkspur T-62 notebook, which runs end to end', async () => {
+    const branches = await as['engineer']!.get(`/api/studies/${t.demo.studyId}/branches`).expect(200);
+    const branchId = branches.body[0].id as string;
+    const draft = (await as['viewer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    expect(draft.cells.map((c) => c.kind)).toEqual(['note', 'flow', 'pressure', 'analysis', 'sweep', 'flatPlate', 'leadingEdge']);
+    expect(draft.cells[0]!.inputs['markdown']).toMatch(/Invented data/);
+    expect(draft.cells[2]!.inputs['text']).toMatch(/INVENTED DATA/);
+    expect(draft.cells.every((c) => c.problems.length === 0 && c.runState === 'idle')).toBe(true);
+    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    expect(ran.ran.map((r) => [r.kind, r.status])).toEqual([
+      ['flow', 'ok'],
+      ['pressure', 'ok'],
+      ['analysis', 'ok'],
+      ['sweep', 'ok'],
+      ['flatPlate', 'ok'],
+      ['leadingEdge', 'ok'],
+    ]);
+    const analysis = cellOf(ran, draft.cells[3]!.cellId).output!.result as EngineResult;
+    expect(analysis.surfaces.map((s) => s.name)).toEqual(['upper', 'lower']);
+    for (const surface of analysis.surfaces) expect(surface.transition.s).not.toBeNull();
+    // The flow cell's sweep reaches the attachment-line check of the analysis.
+    expect(analysis.attachmentLine).not.toBeNull();
   });
 });
 
@@ -339,7 +348,8 @@ describe('runs', () => {
     const l = cellOf(ran, le.cellId).output!.result as { reBar: number; verdict: string };
     // Poll (1979): R̄ = √(Re r sin Λ tan Λ / 2) from a circular leading edge, here Re = 6e6, r/c = 0.01, Λ = 30°.
     const sweepRad = Math.PI / 6;
-    expect(l.reBar).toBeCloseTo(Math.sqrt((6e6 * 0.01 * Math.sin(sweepRad) * Math.tan(sweepRad)) / 2), 6);
+    // Results are kept to 7 significant digits.
+    expect(l.reBar).toBeCloseTo(Math.sqrt((6e6 * 0.01 * Math.sin(sweepRad) * Math.tan(sweepRad)) / 2), 4);
     const s = cellOf(ran, sweep.cellId).output!.result as { values: number[]; steps: { surfaces: { transitionS: number }[] }[] };
     expect(s.values).toEqual([3e6, 7e6, 1.1e7, 1.5e7]);
     const upperTransition = s.steps.map((step) => step.surfaces[0]!.transitionS);

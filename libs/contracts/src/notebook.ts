@@ -212,7 +212,7 @@ export type CellError = z.infer<typeof cellErrorSchema>;
 /**
  * A computed output, content-addressed: `key` is the SHA-256 of the kind, the canonical inputs, the
  * keys of the outputs it depends on and the engine version. `result` has the kind's result shape
- * (`CellResults` below) when `status` is ok.
+ * (`CellResults` below) when `status` is ok, its numbers kept to 7 significant digits.
  */
 export const cellOutputSchema = z.object({
   key: z.string(),

@@ -49,6 +49,15 @@ export type EngineTask =
 
 export type EngineOutcome = { status: 'ok'; result: unknown; durationMs: number } | { status: 'error'; error: CellError; durationMs: number };
 
+/** An outcome as a worker hands it back: the result already serialised, off the event loop. */
+export interface ComputedOutput {
+  status: 'ok' | 'error';
+  /** JSON text of the result when status is ok. */
+  resultJson: string | null;
+  error: CellError | null;
+  durationMs: number;
+}
+
 /** Bad input found here rather than by the engine; carries the field (and table line) at fault. */
 class InputError extends Error {
   constructor(
@@ -71,6 +80,19 @@ export function runTask(task: EngineTask): EngineOutcome {
     if (!cellError) throw error;
     return { status: 'error', error: cellError, durationMs: performance.now() - started };
   }
+}
+
+/** Significant digits results are kept to: beyond single precision, far beyond what the methods resolve. */
+export const RESULT_DIGITS = 7;
+
+const rounded = (_key: string, v: unknown) => (typeof v === 'number' && !Number.isInteger(v) && Number.isFinite(v) ? Number(v.toPrecision(RESULT_DIGITS)) : v);
+
+/** What the worker threads run: the outcome with its result as JSON text, numbers to RESULT_DIGITS. */
+export function computeOutput(task: EngineTask): ComputedOutput {
+  const outcome = runTask(task);
+  return outcome.status === 'ok'
+    ? { status: 'ok', resultJson: JSON.stringify(outcome.result, rounded), error: null, durationMs: outcome.durationMs }
+    : { status: 'error', resultJson: null, error: outcome.error, durationMs: outcome.durationMs };
 }
 
 function compute(task: EngineTask): unknown {

@@ -5,6 +5,6 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { runTask } = await import('./tasks.ts');
+const { computeOutput } = await import('./tasks.ts');
 
-export default runTask;
+export default computeOutput;

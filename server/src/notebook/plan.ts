@@ -108,10 +108,17 @@ export function planCells(cells: readonly StoredCell[]): Map<string, CellPlan> {
  */
 function tableProblems(p: PressureInputs): CellProblem[] {
   if (p.text.trim() === '') return [{ field: 'text', message: 'paste a table of x [y] cp rows, or upload a file', line: 0 }];
+  const cached = problemsByText.get(p.text);
+  if (cached) return cached;
   const table = parsePressureTable(p.text);
-  if (table.ok) return [];
-  return table.problems.map((problem) => ({ field: 'text', message: problem.line > 0 ? `line ${problem.line}: ${problem.message}` : problem.message, line: problem.line }));
+  const problems = table.ok ? [] : table.problems.map((problem) => ({ field: 'text', message: problem.line > 0 ? `line ${problem.line}: ${problem.message}` : problem.message, line: problem.line }));
+  // Every draft answer reads its tables again; the same text gives the same problems.
+  if (problemsByText.size >= 200) problemsByText.delete(problemsByText.keys().next().value!);
+  problemsByText.set(p.text, problems);
+  return problems;
 }
+
+const problemsByText = new Map<string, CellProblem[]>();
 
 /** The worker task of a planned cell, with the inputs of the cells it uses. Null for a note. */
 export function taskOf(plan: CellPlan, plans: Map<string, CellPlan>): EngineTask | null {

@@ -1,4 +1,4 @@
-import express, { Router, type RequestHandler } from 'express';
+import express, { Router, type RequestHandler, type Response } from 'express';
 import { z } from 'zod';
 import { runRequestSchema, saveDraftSchema } from '@laminote/contracts';
 import type { Db } from '../db/client';
@@ -8,7 +8,7 @@ import { parse, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import { branchAccess, requireWritable } from './branch';
 import { exportCell } from './export';
-import { getDraft, NotebookRunner, saveDraft } from './service';
+import { draftJson, draftObject, NotebookService } from './service';
 import { findUpload, receiveFile, storeUpload } from './uploads';
 
 /** A draft carries its pasted tables whole, so its save may be larger than the API's usual 2 MB. */
@@ -35,11 +35,12 @@ const exportQuerySchema = z.object({ format: z.enum(['csv', 'json'], { error: 'f
 
 export function notebookRouter({ db, engine, logger }: { db: Db; engine: EnginePool; logger: Logger }): Router {
   const router = Router();
-  const runner = new NotebookRunner(db, engine, logger);
+  const notebook = new NotebookService(db, engine, logger);
+  const sendJson = (res: Response, json: string) => res.type('application/json').send(json);
 
   router.get('/branches/:branchId/draft', async (req, res) => {
     const ctx = await branchAccess(db, req.user!, req.params.branchId);
-    res.json(await getDraft(db, ctx));
+    sendJson(res, draftJson(await notebook.getDraft(ctx)));
   });
 
   router.put('/branches/:branchId/draft', async (req, res) => {
@@ -47,7 +48,7 @@ export function notebookRouter({ db, engine, logger }: { db: Db; engine: EngineP
     requireAction(ctx.access, 'editStudy');
     requireWritable(ctx);
     const body = parse(saveDraftSchema, req.body);
-    res.json(await saveDraft(db, ctx, req.user!, body));
+    sendJson(res, draftJson(await notebook.saveDraft(ctx, req.user!, body)));
   });
 
   router.post('/branches/:branchId/run', async (req, res) => {
@@ -55,13 +56,14 @@ export function notebookRouter({ db, engine, logger }: { db: Db; engine: EngineP
     requireAction(ctx.access, 'runCells');
     requireWritable(ctx);
     const body = parse(runRequestSchema, req.body ?? {});
-    res.json(await runner.run(ctx, req.user!, body.cellIds));
+    const { doc, ran } = await notebook.run(ctx, req.user!, body.cellIds);
+    sendJson(res, draftJson(doc, { ran }));
   });
 
   router.get('/branches/:branchId/cells/:cellId/export', async (req, res) => {
     const ctx = await branchAccess(db, req.user!, req.params.branchId);
     const { format } = parse(exportQuerySchema, req.query);
-    const file = exportCell(await getDraft(db, ctx), ctx.study.title, req.params.cellId, format);
+    const file = exportCell(draftObject(await notebook.getDraft(ctx), req.params.cellId), ctx.study.title, req.params.cellId, format);
     res.attachment(file.filename).type(file.contentType).send(file.body);
   });
 

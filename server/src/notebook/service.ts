@@ -2,13 +2,11 @@ import { eq, inArray, sql } from 'drizzle-orm';
 import { ENGINE_VERSION } from '@laminote/aero';
 import {
   CELL_KIND_LABELS,
-  type CellError,
   type CellKind,
   type CellOutput,
   type CellRunReport,
   type Draft,
   type DraftCell,
-  type RunResponse,
   type RunState,
   type saveDraftSchema,
 } from '@laminote/contracts';
@@ -16,11 +14,12 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
 import type { Db, Tx } from '../db/client';
-import { cells as cellsTable, drafts, outputs, studies, users } from '../db/schema';
-import { EngineBusyError, type EngineOutcome, type EnginePool } from '../engine/pool';
+import { cells as cellsTable, drafts, studies, users } from '../db/schema';
+import { EngineBusyError, type EnginePool } from '../engine/pool';
 import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import type { BranchContext } from './branch';
+import { OutputStore, type CachedOutput } from './outputs';
 import { canonicalJson, KIND_RANK, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 
 /** Deleted cells kept in a draft's trash, newest first. */
@@ -28,83 +27,40 @@ export const TRASH_LIMIT = 30;
 
 type DraftRow = typeof drafts.$inferSelect;
 type TrashEntry = DraftRow['trash'][number] & { lastGoodOutputKey?: string | null };
-type OutputRow = typeof outputs.$inferSelect;
 type SaveDraftBody = z.infer<typeof saveDraftSchema>;
 
-function toOutput(row: OutputRow): CellOutput {
-  return {
-    key: row.key,
-    status: row.status,
-    result: row.status === 'ok' ? (row.result ?? null) : null,
-    error: row.status === 'error' ? ((row.error as CellError | null) ?? { message: 'the run failed' }) : null,
-    engineVersion: row.engineVersion,
-    durationMs: row.durationMs,
-    computedAt: row.computedAt.toISOString(),
-  };
+/** A draft ready to answer: cells with their outputs as stored JSON text, serialised on the way out. */
+export interface DraftDoc {
+  meta: Omit<Draft, 'cells'>;
+  cells: { cell: Omit<DraftCell, 'output' | 'lastGoodOutput'>; output: CachedOutput | null; lastGoodOutput: CachedOutput | null }[];
+}
+
+/** The draft as JSON text, outputs spliced in without parsing them again. */
+export function draftJson(doc: DraftDoc, extra: Record<string, unknown> = {}): string {
+  const cells = doc.cells.map(({ cell, output, lastGoodOutput }) => `${JSON.stringify(cell).slice(0, -1)},"output":${output?.json ?? 'null'},"lastGoodOutput":${lastGoodOutput?.json ?? 'null'}}`);
+  return `{"cells":[${cells.join(',')}],${JSON.stringify({ ...doc.meta, ...extra }).slice(1)}`;
+}
+
+/** The draft as an object; with `only`, just that cell (the others are left out). */
+export function draftObject(doc: DraftDoc, only?: string): Draft {
+  const parse = (o: CachedOutput | null) => (o ? (JSON.parse(o.json) as CellOutput) : null);
+  const cells = only === undefined ? doc.cells : doc.cells.filter((c) => c.cell.cellId === only);
+  return { ...doc.meta, cells: cells.map(({ cell, output, lastGoodOutput }) => ({ ...cell, output: parse(output), lastGoodOutput: parse(lastGoodOutput) })) };
 }
 
 /** The branch's draft row, created empty if the branch has none yet (a branch made before drafts existed). */
 async function draftRow(tx: Tx, branchId: string, lock: boolean): Promise<DraftRow> {
-  await tx.insert(drafts).values({ branchId }).onConflictDoNothing();
   const query = tx.select().from(drafts).where(eq(drafts.branchId, branchId));
   const [row] = lock ? await query.for('update') : await query;
-  return row!;
+  if (row) return row;
+  await tx.insert(drafts).values({ branchId }).onConflictDoNothing();
+  return draftRow(tx, branchId, lock);
 }
 
-async function loadOutputs(tx: Tx, keys: Iterable<string | null | undefined>): Promise<Map<string, OutputRow>> {
-  const wanted = [...new Set([...keys].filter((k): k is string => typeof k === 'string'))];
-  if (wanted.length === 0) return new Map();
-  const rows = await tx.select().from(outputs).where(inArray(outputs.key, wanted));
-  return new Map(rows.map((r) => [r.key, r]));
-}
-
-function runStateOf(plan: CellPlan, last: OutputRow | undefined): RunState {
+function runStateOf(plan: CellPlan, last: CachedOutput | undefined): RunState {
   if (!last) return 'idle';
   if (plan.key !== null && last.key === plan.key) return last.status === 'ok' ? 'current' : 'failed';
   return 'outdated';
-}
-
-/** The draft as the client sees it: cells with run state, problems, last output and last good output. */
-export async function draftView(tx: Tx, ctx: BranchContext, row: DraftRow): Promise<Draft> {
-  const stored = row.cells as StoredCell[];
-  const plans = planCells(stored);
-  const found = await loadOutputs(tx, stored.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]));
-  const names = await loadNames(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
-  const cells: DraftCell[] = stored.map((cell) => {
-    const plan = plans.get(cell.cellId)!;
-    const last = cell.lastOutputKey ? found.get(cell.lastOutputKey) : undefined;
-    const good = last?.status === 'error' && cell.lastGoodOutputKey ? found.get(cell.lastGoodOutputKey) : undefined;
-    return {
-      cellId: cell.cellId,
-      kind: cell.kind as CellKind,
-      title: cell.title,
-      collapsed: cell.collapsed,
-      inputs: cell.inputs,
-      runState: runStateOf(plan, last),
-      problems: plan.problems,
-      output: last ? toOutput(last) : null,
-      lastGoodOutput: good ? toOutput(good) : null,
-    };
-  });
-  return {
-    branchId: ctx.branch.id,
-    studyId: ctx.study.id,
-    revision: row.revision,
-    cells,
-    trash: row.trash.map((t) => ({
-      cellId: t.cellId,
-      kind: t.kind as CellKind,
-      title: t.title,
-      collapsed: t.collapsed,
-      inputs: t.inputs,
-      deletedAt: t.deletedAt,
-      deletedBy: t.deletedBy,
-      deletedByName: t.deletedBy ? (names.get(t.deletedBy) ?? null) : null,
-    })),
-    basedOnVersionId: row.basedOnVersionId,
-    updatedAt: row.updatedAt.toISOString(),
-    updatedBy: row.updatedBy ? { id: row.updatedBy, name: names.get(row.updatedBy) ?? '' } : null,
-  };
 }
 
 async function loadNames(tx: Tx, ids: (string | null)[]): Promise<Map<string, string>> {
@@ -114,11 +70,72 @@ async function loadNames(tx: Tx, ids: (string | null)[]): Promise<Map<string, st
   return new Map(rows.map((r) => [r.id, r.name]));
 }
 
-export async function getDraft(db: Db, ctx: BranchContext): Promise<Draft> {
-  return draftView(db, ctx, await draftRow(db, ctx.branch.id, false));
-}
-
 const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: unknown }) => canonicalJson([c.kind, c.title, c.collapsed, c.inputs]);
+
+/**
+ * The notebook of a branch: its draft (autosave with optimistic concurrency), and runs of its cells on
+ * the engine's worker pool with outputs stored by key. One per app.
+ */
+export class NotebookService {
+  readonly outputs = new OutputStore();
+  /** Outputs being computed right now, so two runs of the same key compute once. */
+  private readonly inFlight = new Map<string, Promise<CachedOutput>>();
+
+  constructor(
+    private readonly db: Db,
+    private readonly engine: EnginePool,
+    private readonly logger: Logger,
+  ) {}
+
+  /** The draft as the client sees it: cells with run state, problems, last output and last good output. */
+  async view(tx: Tx, ctx: BranchContext, row: DraftRow): Promise<DraftDoc> {
+    const stored = row.cells as StoredCell[];
+    const plans = planCells(stored);
+    const found = await this.outputs.getMany(tx, stored.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]));
+    const names = await loadNames(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
+    return {
+      meta: {
+        branchId: ctx.branch.id,
+        studyId: ctx.study.id,
+        revision: row.revision,
+        trash: row.trash.map((t) => ({
+          cellId: t.cellId,
+          kind: t.kind as CellKind,
+          title: t.title,
+          collapsed: t.collapsed,
+          inputs: t.inputs,
+          deletedAt: t.deletedAt,
+          deletedBy: t.deletedBy,
+          deletedByName: t.deletedBy ? (names.get(t.deletedBy) ?? null) : null,
+        })),
+        basedOnVersionId: row.basedOnVersionId,
+        updatedAt: row.updatedAt.toISOString(),
+        updatedBy: row.updatedBy ? { id: row.updatedBy, name: names.get(row.updatedBy) ?? '' } : null,
+      },
+      cells: stored.map((cell) => {
+        const plan = plans.get(cell.cellId)!;
+        const last = cell.lastOutputKey ? found.get(cell.lastOutputKey) : undefined;
+        const good = last?.status === 'error' && cell.lastGoodOutputKey ? found.get(cell.lastGoodOutputKey) : undefined;
+        return {
+          cell: {
+            cellId: cell.cellId,
+            kind: cell.kind as CellKind,
+            title: cell.title,
+            collapsed: cell.collapsed,
+            inputs: cell.inputs,
+            runState: runStateOf(plan, last),
+            problems: plan.problems,
+          },
+          output: last ?? null,
+          lastGoodOutput: good ?? null,
+        };
+      }),
+    };
+  }
+
+  async getDraft(ctx: BranchContext): Promise<DraftDoc> {
+    return this.view(this.db, ctx, await draftRow(this.db, ctx.branch.id, false));
+  }
 
 /**
  * Autosave with optimistic concurrency: the draft row is locked, and a save based on another revision
@@ -126,18 +143,18 @@ const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: 
  * silently. Cells a save leaves out go to the trash; output keys are the server's and are carried over
  * from the stored cells (or from the trash when a cell is brought back), never taken from the client.
  */
-export async function saveDraft(db: Db, ctx: BranchContext, actor: SessionUser, body: SaveDraftBody): Promise<Draft> {
+  async saveDraft(ctx: BranchContext, actor: SessionUser, body: SaveDraftBody): Promise<DraftDoc> {
   const seen = new Map<string, number>();
   body.cells.forEach((cell, i) => {
     if (seen.has(cell.cellId)) throw badRequest(`cells[${i}].cellId: the cell ${cell.cellId} is in the draft twice (also at cells[${seen.get(cell.cellId)}])`, `cells[${i}].cellId`);
     seen.set(cell.cellId, i);
   });
-  return db.transaction(async (tx) => {
+  return this.db.transaction(async (tx) => {
     const row = await draftRow(tx, ctx.branch.id, true);
     if (row.revision !== body.baseRevision) {
       throw conflict(
         `The draft is at revision ${row.revision}; this save was based on revision ${body.baseRevision}. Nothing was saved: merge your edits into the current draft and save again.`,
-        { baseRevision: body.baseRevision, currentRevision: row.revision, current: await draftView(tx, ctx, row) },
+        { baseRevision: body.baseRevision, currentRevision: row.revision, current: draftObject(await this.view(tx, ctx, row)) },
       );
     }
     const old = row.cells as StoredCell[];
@@ -168,7 +185,7 @@ export async function saveDraft(db: Db, ctx: BranchContext, actor: SessionUser, 
     });
     const nextIds = new Set(ids);
     const unchanged = next.length === old.length && next.every((c, i) => c.cellId === old[i]!.cellId && editable(c) === editable(old[i]!));
-    if (unchanged) return draftView(tx, ctx, row);
+    if (unchanged) return this.view(tx, ctx, row);
 
     const now = new Date().toISOString();
     const removed = old.filter((c) => !nextIds.has(c.cellId));
@@ -211,20 +228,9 @@ export async function saveDraft(db: Db, ctx: BranchContext, actor: SessionUser, 
         moved: oldOrder.join() !== newOrder.join(),
       },
     });
-    return draftView(tx, ctx, updated!);
+    return this.view(tx, ctx, updated!);
   });
-}
-
-/** Runs the engine for a branch's cells and records their outputs. One per app. */
-export class NotebookRunner {
-  /** Outputs being computed right now, so two runs of the same key compute once. */
-  private readonly inFlight = new Map<string, Promise<OutputRow | null>>();
-
-  constructor(
-    private readonly db: Db,
-    private readonly engine: EnginePool,
-    private readonly logger: Logger,
-  ) {}
+  }
 
   /**
    * Runs the named cells with whatever upstream they need (or every cell), in dependency order: flow
@@ -232,34 +238,39 @@ export class NotebookRunner {
    * key is already stored is not computed again. The draft's cells get their new output keys without
    * a new revision, so a run never makes the author's next autosave stale.
    */
-  async run(ctx: BranchContext, actor: SessionUser, cellIds: string[] | undefined): Promise<RunResponse> {
+  async run(ctx: BranchContext, actor: SessionUser, cellIds: string[] | undefined): Promise<{ doc: DraftDoc; ran: CellRunReport[] }> {
     const row = await draftRow(this.db, ctx.branch.id, false);
     const stored = row.cells as StoredCell[];
     const plans = planCells(stored);
     const targets = this.targets(plans, stored, cellIds);
 
     const reports = new Map<string, CellRunReport>();
-    const outputsByCell = new Map<string, OutputRow>();
-    const levels = [0, 1, 2].map((rank) => stored.filter((c) => targets.has(c.cellId) && KIND_RANK[c.kind as CellKind] === rank));
-    for (const level of levels) {
+    const outputsByCell = new Map<string, CachedOutput>();
+    for (const rank of [0, 1, 2]) {
+      const level = stored.filter((c) => targets.has(c.cellId) && KIND_RANK[c.kind as CellKind] === rank);
       await Promise.all(
         level.map(async (cell) => {
-          const plan = plans.get(cell.cellId)!;
-          const report = await this.runOne(plan, plans, reports, outputsByCell);
+          const { report, output } = await this.runOne(plans.get(cell.cellId)!, plans, reports);
           reports.set(cell.cellId, report);
+          if (output) outputsByCell.set(cell.cellId, output);
         }),
       );
     }
+    const ran = stored.filter((c) => reports.has(c.cellId)).map((c) => reports.get(c.cellId)!);
 
     const updated = await this.db.transaction(async (tx) => {
       const locked = await draftRow(tx, ctx.branch.id, true);
+      let changed = false;
       const cells = (locked.cells as StoredCell[]).map((cell) => {
         const out = outputsByCell.get(cell.cellId);
         if (!out) return cell;
-        return { ...cell, lastOutputKey: out.key, lastGoodOutputKey: out.status === 'ok' ? out.key : (cell.lastGoodOutputKey ?? null) };
+        const lastGoodOutputKey = out.status === 'ok' ? out.key : (cell.lastGoodOutputKey ?? null);
+        if (cell.lastOutputKey === out.key && cell.lastGoodOutputKey === lastGoodOutputKey) return cell;
+        changed = true;
+        return { ...cell, lastOutputKey: out.key, lastGoodOutputKey };
       });
-      const [after] = await tx.update(drafts).set({ cells }).where(eq(drafts.branchId, ctx.branch.id)).returning();
-      const ran = [...reports.values()];
+      // The revision stays: it counts the author's edits, and a run is not one.
+      const after = changed ? (await tx.update(drafts).set({ cells }).where(eq(drafts.branchId, ctx.branch.id)).returning())[0]! : locked;
       await audit(tx, {
         actorId: actor.id,
         projectId: ctx.projectId,
@@ -268,17 +279,16 @@ export class NotebookRunner {
         targetId: ctx.branch.id,
         detail: {
           studyId: ctx.study.id,
-          revision: after!.revision,
+          revision: after.revision,
           cellIds: ran.map((r) => r.cellId),
           computed: ran.filter((r) => !r.reused && (r.status === 'ok' || r.status === 'error')).length,
           reused: ran.filter((r) => r.reused).length,
           failed: ran.filter((r) => r.status !== 'ok').length,
         },
       });
-      return after!;
+      return after;
     });
-    const draft = await draftView(this.db, ctx, updated);
-    return { ...draft, ran: stored.filter((c) => reports.has(c.cellId)).map((c) => reports.get(c.cellId)!) };
+    return { doc: await this.view(this.db, ctx, updated), ran };
   }
 
   /** The cells to run: the named ones and everything upstream of them, or every cell that computes. */
@@ -302,79 +312,53 @@ export class NotebookRunner {
     return out;
   }
 
-  private async runOne(plan: CellPlan, plans: Map<string, CellPlan>, reports: Map<string, CellRunReport>, stored: Map<string, OutputRow>): Promise<CellRunReport> {
+  private async runOne(plan: CellPlan, plans: Map<string, CellPlan>, reports: Map<string, CellRunReport>): Promise<{ report: CellRunReport; output: CachedOutput | null }> {
     const base = { cellId: plan.cell.cellId, kind: plan.kind };
+    const started = performance.now();
+    const internal = (message: string, field?: string) => ({
+      report: { ...base, status: 'internal' as const, reused: false, key: null, durationMs: performance.now() - started, error: { message, ...(field ? { field } : {}) } },
+      output: null,
+    });
+    const done = (output: CachedOutput, reused: boolean) => ({
+      report: { ...base, status: output.status, reused, key: output.key, durationMs: performance.now() - started, error: output.error },
+      output,
+    });
     if (plan.key === null) {
       const first = plan.problems[0];
-      return { ...base, status: 'invalid', reused: false, key: null, durationMs: 0, error: first ? { message: `${first.field}: ${first.message}`, field: first.field } : null };
+      return { report: { ...base, status: 'invalid', reused: false, key: null, durationMs: 0, error: first ? { message: `${first.field}: ${first.message}`, field: first.field } : null }, output: null };
     }
     const key = plan.key;
-    const started = performance.now();
-    const [existing] = await this.db.select().from(outputs).where(eq(outputs.key, key));
-    if (existing) {
-      stored.set(plan.cell.cellId, existing);
-      return { ...base, status: existing.status, reused: true, key, durationMs: performance.now() - started, error: existing.status === 'error' ? (existing.error as CellError) : null };
-    }
+    const existing = await this.outputs.get(this.db, key);
+    if (existing) return done(existing, true);
 
-    // Something upstream that failed makes this cell fail too, by the input that names it.
     for (const ref of plan.refs) {
-      const up = reports.get(ref.cellId);
-      if (up && up.status === 'internal') {
-        return { ...base, status: 'internal', reused: false, key: null, durationMs: 0, error: { message: `not run: the cell it uses (${ref.field}) could not be computed`, field: ref.field } };
-      }
+      if (reports.get(ref.cellId)?.status === 'internal') return internal(`not run: the cell it uses (${ref.field}) could not be computed`, ref.field);
     }
+    // Something upstream that failed makes this cell fail too, named by the input that uses it.
     const failedRef = plan.refs.find((ref) => reports.get(ref.cellId)?.status === 'error');
-    let outcome: EngineOutcome;
     if (failedRef) {
       const up = reports.get(failedRef.cellId)!;
       const label = CELL_KIND_LABELS[plans.get(failedRef.cellId)!.kind].toLowerCase();
-      outcome = { status: 'error', durationMs: 0, error: { message: `the ${label} it uses (${failedRef.field}) failed: ${up.error?.message ?? 'see that cell'}`, field: failedRef.field } };
-    } else {
-      try {
-        const row = await this.compute(key, plan, plans);
-        if (row) {
-          stored.set(plan.cell.cellId, row);
-          return { ...base, status: row.status, reused: false, key, durationMs: performance.now() - started, error: row.status === 'error' ? (row.error as CellError) : null };
-        }
-        return { ...base, status: 'internal', reused: false, key: null, durationMs: performance.now() - started, error: { message: 'nothing to compute' } };
-      } catch (error) {
-        if (error instanceof EngineBusyError) throw new ProblemError(503, 'engine-busy', 'The engine is busy', { detail: 'Too many computations are waiting; try the run again in a moment.' });
-        this.logger.error({ err: error, cellId: plan.cell.cellId }, 'engine task failed');
-        const message = error instanceof Error ? error.message : String(error);
-        return { ...base, status: 'internal', reused: false, key: null, durationMs: performance.now() - started, error: { message: `the server could not compute this cell: ${message}` } };
-      }
+      const error = { message: `the ${label} it uses (${failedRef.field}) failed: ${up.error?.message ?? 'see that cell'}`, field: failedRef.field };
+      return done(await this.outputs.put(this.db, key, plan.kind, ENGINE_VERSION, { status: 'error', resultJson: null, error, durationMs: 0 }), false);
     }
-    const row = await this.store(key, plan.kind, outcome);
-    stored.set(plan.cell.cellId, row);
-    return { ...base, status: row.status, reused: false, key, durationMs: performance.now() - started, error: row.status === 'error' ? (row.error as CellError) : null };
+    try {
+      return done(await this.compute(key, plan, plans), false);
+    } catch (error) {
+      if (error instanceof EngineBusyError) throw new ProblemError(503, 'engine-busy', 'The engine is busy', { detail: 'Too many computations are waiting; try the run again in a moment.' });
+      this.logger.error({ err: error, cellId: plan.cell.cellId }, 'engine task failed');
+      return internal(`the server could not compute this cell: ${error instanceof Error ? error.message : String(error)}`);
+    }
   }
 
-  private compute(key: string, plan: CellPlan, plans: Map<string, CellPlan>): Promise<OutputRow | null> {
+  private compute(key: string, plan: CellPlan, plans: Map<string, CellPlan>): Promise<CachedOutput> {
     const running = this.inFlight.get(key);
     if (running) return running;
-    const task = taskOf(plan, plans);
-    if (!task) return Promise.resolve(null);
     const promise = this.engine
-      .run(task)
-      .then((outcome) => this.store(key, plan.kind, outcome))
+      .run(taskOf(plan, plans)!)
+      .then((computed) => this.outputs.put(this.db, key, plan.kind, ENGINE_VERSION, computed))
       .finally(() => this.inFlight.delete(key));
     this.inFlight.set(key, promise);
     return promise;
-  }
-
-  private async store(key: string, kind: CellKind, outcome: EngineOutcome): Promise<OutputRow> {
-    const values = {
-      key,
-      kind,
-      status: outcome.status,
-      result: outcome.status === 'ok' ? outcome.result : null,
-      error: outcome.status === 'error' ? outcome.error : null,
-      engineVersion: ENGINE_VERSION,
-      durationMs: Math.round(outcome.durationMs),
-    };
-    const [inserted] = await this.db.insert(outputs).values(values).onConflictDoNothing().returning();
-    if (inserted) return inserted;
-    const [existing] = await this.db.select().from(outputs).where(eq(outputs.key, key));
-    return existing!;
   }
 }

@@ -1,7 +1,8 @@
+import { fillDemoNotebook } from '../notebook/demo-filler';
 import type { DemoStudyFiller } from './demo';
 
 /**
  * What the later parts of the product add to the demo study when it is first created (cells of the
  * notebook, a first version). Each part appends its filler here.
  */
-export const demoStudyFillers: DemoStudyFiller[] = [];
+export const demoStudyFillers: DemoStudyFiller[] = [fillDemoNotebook];

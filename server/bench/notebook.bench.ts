@@ -1,0 +1,193 @@
+/**
+ * Notebook run round trip through the HTTP API: `npm run bench -- notebook`.
+ *
+ * The real app (createTestApp: its own seeded database, the engine worker pool) listens on an
+ * ephemeral port; each client signs in through the identity provider fake and owns a study with a
+ * flow condition, a 2×300-station pressure distribution and a transition analysis. A round is: save a
+ * new Reynolds number (so the analysis must compute: the output cache cannot answer), then POST /run
+ * for the analysis; the run's round trip is what is timed, at 1 and at 20 concurrent clients.
+ * Target (issue 4): p95 under 50 ms at 20 clients.
+ */
+import { randomUUID } from 'node:crypto';
+import type { AddressInfo } from 'node:net';
+import { performance } from 'node:perf_hooks';
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { joukowskiLoop } from '../../libs/aero/test/joukowski';
+import type { Draft, RunResponse } from '@laminote/contracts';
+import { createTestApp } from '../../tests/support/app';
+import { testEnv } from '../../tests/support/env';
+import { demoUser, providerRoundTrip } from '../../tests/support/sign-in';
+
+const out = (line: string) => process.stdout.write(`${line}\n`);
+
+class Session {
+  private cookies = new Map<string, string>();
+  csrf = '';
+  constructor(private readonly base: string) {}
+
+  private take(res: Response) {
+    for (const line of res.headers.getSetCookie()) {
+      const [pair] = line.split(';');
+      const eq = pair!.indexOf('=');
+      this.cookies.set(pair!.slice(0, eq).trim(), pair!.slice(eq + 1).trim());
+    }
+    this.csrf = this.cookies.get('XSRF-TOKEN') ?? this.csrf;
+  }
+
+  async fetch(path: string, init: RequestInit = {}): Promise<Response> {
+    const headers = new Headers(init.headers);
+    headers.set('cookie', [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; '));
+    if (init.method && init.method !== 'GET') headers.set('x-xsrf-token', this.csrf);
+    if (init.body) headers.set('content-type', 'application/json');
+    const res = await fetch(`${this.base}${path}`, { ...init, headers, redirect: 'manual' });
+    this.take(res);
+    return res;
+  }
+
+  async json<T>(path: string, method = 'GET', body?: unknown): Promise<T> {
+    const res = await this.fetch(path, { method, ...(body === undefined ? {} : { body: JSON.stringify(body) }) });
+    if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${(await res.text()).slice(0, 300)}`);
+    return (await res.json()) as T;
+  }
+
+  /** Signs in as a person does: the app's /auth/login, the provider's page, the app's callback. */
+  static async signIn(base: string, role: 'engineer'): Promise<Session> {
+    const s = new Session(base);
+    const login = await s.fetch('/auth/login');
+    const callback = new URL(await providerRoundTrip(login.headers.get('location')!, demoUser(role).sub, `${testEnv.publicUrl}/auth/callback`));
+    const done = await s.fetch(callback.pathname + callback.search);
+    if (done.status !== 302 || !s.csrf) throw new Error(`sign-in failed: ${done.status}`);
+    return s;
+  }
+}
+
+/**
+ * A closed-loop table of 601 points (2 × 300 stations after the split at the stagnation point): exact
+ * potential flow about a symmetric Joukowski section (the engine's test fixture).
+ */
+function benchSection(): { name: string; rows: number; text: string } {
+  const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 601);
+  const rows = loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`);
+  return { name: 'a symmetric Joukowski section', rows: rows.length, text: ['x y cp', ...rows].join('\n') };
+}
+
+function percentile(sorted: number[], p: number): number {
+  const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1));
+  return sorted[i]!;
+}
+
+function stats(samples: number[]) {
+  const sorted = [...samples].sort((a, b) => a - b);
+  return { n: sorted.length, median: percentile(sorted, 50), p95: percentile(sorted, 95), max: sorted[sorted.length - 1]! };
+}
+
+const fmt = (ms: number) => `${ms.toFixed(1).padStart(6)} ms`;
+
+interface Client {
+  session: Session;
+  branchId: string;
+  revision: number;
+  cells: { flow: Record<string, unknown>; pressure: Record<string, unknown>; analysis: Record<string, unknown> };
+  analysisId: string;
+}
+
+let counter = 0;
+
+async function setUpClient(session: Session, projectId: string, table: string, index: number): Promise<Client> {
+  const study = await session.json<{ id: string }>(`/api/projects/${projectId}/studies`, 'POST', { title: `Bench study ${index}` });
+  const [branch] = await session.json<{ id: string }[]>(`/api/studies/${study.id}/branches`);
+  const ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID() };
+  const cells = {
+    flow: { cellId: ids.flow, kind: 'flow', title: 'Cruise', collapsed: false, inputs: { mode: 'reynolds', reynolds: 8e6, mach: 0.72, nCrit: 9 } },
+    pressure: { cellId: ids.pressure, kind: 'pressure', title: 'Section', collapsed: false, inputs: { text: table } },
+    analysis: { cellId: ids.analysis, kind: 'analysis', title: 'Transition', collapsed: false, inputs: { flowCellId: ids.flow, pressureCellId: ids.pressure } },
+  };
+  const saved = await session.json<Draft>(`/api/branches/${branch!.id}/draft`, 'PUT', { baseRevision: 0, cells: Object.values(cells) });
+  const client = { session, branchId: branch!.id, revision: saved.revision, cells, analysisId: ids.analysis };
+  await session.json<RunResponse>(`/api/branches/${branch!.id}/run`, 'POST', {});
+  return client;
+}
+
+/** One round: a new Reynolds number saved (untimed), then the timed run of the analysis. */
+async function round(client: Client): Promise<{ run: number; save: number; engine: number }> {
+  const reynolds = 6e6 + ++counter * 1000;
+  const flow = { ...client.cells.flow, inputs: { ...(client.cells.flow['inputs'] as object), reynolds } };
+  const t0 = performance.now();
+  const saved = await client.session.json<Draft>(`/api/branches/${client.branchId}/draft`, 'PUT', { baseRevision: client.revision, cells: [flow, client.cells.pressure, client.cells.analysis] });
+  client.revision = saved.revision;
+  const t1 = performance.now();
+  const ran = await client.session.json<RunResponse>(`/api/branches/${client.branchId}/run`, 'POST', { cellIds: [client.analysisId] });
+  const t2 = performance.now();
+  const report = ran.ran.find((r) => r.cellId === client.analysisId)!;
+  if (report.status !== 'ok' || report.reused) throw new Error(`the analysis did not compute afresh: ${JSON.stringify(report)}`);
+  const output = ran.cells.find((c) => c.cellId === client.analysisId)!.output!;
+  return { run: t2 - t1, save: t1 - t0, engine: output.durationMs };
+}
+
+async function measure(clients: Client[], roundsPerClient: number) {
+  const runs: number[] = [];
+  const saves: number[] = [];
+  const engine: number[] = [];
+  const started = performance.now();
+  await Promise.all(
+    clients.map(async (client) => {
+      for (let i = 0; i < roundsPerClient; i++) {
+        const r = await round(client);
+        runs.push(r.run);
+        saves.push(r.save);
+        engine.push(r.engine);
+      }
+    }),
+  );
+  const seconds = (performance.now() - started) / 1000;
+  return { run: stats(runs), save: stats(saves), engine: stats(engine), throughput: runs.length / seconds };
+}
+
+if (isMainThread) {
+  const t = await createTestApp();
+  const server = t.app.listen(0, '127.0.0.1');
+  await new Promise((resolve) => server.once('listening', resolve));
+  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  try {
+    const section = benchSection();
+    out(`notebook run round trip: ${base}, engine pool ${t.engine.threads} threads, ${section.name}: ${section.rows} table rows (2 × 300 stations)`);
+    out('clients run in a worker thread of their own, so their parsing does not hold up the server\'s event loop');
+    // The clients' thread: sign in, set up one study each, then the timed rounds.
+    // A worker thread has no TypeScript loader of its own: it registers tsx, then loads this file.
+    const boot = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}); })`;
+    const clients = new Worker(boot, { eval: true, workerData: { base, projectId: t.demo.projectId, table: section.text } });
+    const elu = { start: performance.eventLoopUtilization() };
+    await new Promise<void>((resolve, reject) => {
+      clients.on('message', (m: { line?: string; phase?: 'start' | 'end' }) => {
+        if (m.line !== undefined) out(m.line);
+        if (m.phase === 'start') elu.start = performance.eventLoopUtilization();
+        if (m.phase === 'end') out(`         server event loop busy ${(performance.eventLoopUtilization(elu.start).utilization * 100).toFixed(0)} % of that phase`);
+      });
+      clients.on('error', reject);
+      clients.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`the clients' thread exited with ${code}`))));
+    });
+  } finally {
+    server.close();
+    await t.close();
+  }
+} else {
+  const { base, projectId, table } = workerData as { base: string; projectId: string; table: string };
+  const say = (line: string) => parentPort!.postMessage({ line });
+  const sessions = await Promise.all(Array.from({ length: 20 }, () => Session.signIn(base, 'engineer')));
+  const clients = await Promise.all(sessions.map((s, i) => setUpClient(s, projectId, table, i)));
+  await measure(clients.slice(0, 4), 5); // warm-up: JIT, worker threads, connection pools
+  say('');
+  say('clients  rounds   run median   run p95    run max   save median  save p95   engine median  runs/s');
+  for (const [count, rounds] of [
+    [1, 60],
+    [20, 15],
+  ] as const) {
+    parentPort!.postMessage({ phase: 'start' });
+    const m = await measure(clients.slice(0, count), rounds);
+    say(
+      `${String(count).padStart(7)}  ${String(m.run.n).padStart(6)}  ${fmt(m.run.median)}  ${fmt(m.run.p95)}  ${fmt(m.run.max)}  ${fmt(m.save.median)}  ${fmt(m.save.p95)}  ${fmt(m.engine.median)}     ${m.throughput.toFixed(0).padStart(4)}`,
+    );
+    parentPort!.postMessage({ phase: 'end' });
+    if (count === 20) say(`\n20 clients: p95 ${m.run.p95.toFixed(1)} ms against the target of 50 ms: ${m.run.p95 < 50 ? 'met' : 'NOT met'}`);
+  }
+}

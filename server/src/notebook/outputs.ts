@@ -1,0 +1,108 @@
+import { eq, inArray, sql } from 'drizzle-orm';
+import type { CellError, CellKind, CellOutput } from '@laminote/contracts';
+import type { Tx } from '../db/client';
+import { outputs } from '../db/schema';
+import type { ComputedOutput } from '../engine/pool';
+
+/**
+ * Stored outputs, with an in-memory cache in front of the table. An output row never changes (its key
+ * is the hash of everything it was computed from), so the cache needs no invalidation: it only keeps
+ * the recently used ones, each with its JSON text ready, so answering a draft does not parse and
+ * re-serialise large results on every request.
+ */
+
+export interface CachedOutput {
+  key: string;
+  status: 'ok' | 'error';
+  error: CellError | null;
+  computedAt: string;
+  durationMs: number;
+  /** The output as the API sends it (CellOutput), serialised. */
+  json: string;
+}
+
+
+type OutputRow = typeof outputs.$inferSelect;
+
+function outputJson(meta: Omit<CellOutput, 'result'>, resultJson: string | null): string {
+  // The result is spliced in as text: it is already JSON.
+  const head = JSON.stringify(meta);
+  return `${head.slice(0, -1)},"result":${resultJson ?? 'null'}}`;
+}
+
+function fromRow(row: OutputRow): CachedOutput {
+  const error = row.status === 'error' ? ((row.error as CellError | null) ?? { message: 'the run failed' }) : null;
+  const meta = { key: row.key, status: row.status, error, engineVersion: row.engineVersion, durationMs: row.durationMs, computedAt: row.computedAt.toISOString() };
+  return { key: row.key, status: row.status, error, computedAt: meta.computedAt, durationMs: row.durationMs, json: outputJson(meta, row.status === 'ok' ? JSON.stringify(row.result ?? null) : null) };
+}
+
+export class OutputStore {
+  private readonly cache = new Map<string, CachedOutput>();
+  private bytes = 0;
+
+  /** @param budgetBytes how much JSON text the cache keeps (characters, roughly bytes). */
+  constructor(private readonly budgetBytes = 64 * 1024 * 1024) {}
+
+  private remember(out: CachedOutput): CachedOutput {
+    if (this.cache.has(out.key)) return out;
+    this.cache.set(out.key, out);
+    this.bytes += out.json.length;
+    for (const [key, old] of this.cache) {
+      if (this.bytes <= this.budgetBytes) break;
+      this.cache.delete(key);
+      this.bytes -= old.json.length;
+    }
+    return out;
+  }
+
+  private touch(key: string): CachedOutput | undefined {
+    const hit = this.cache.get(key);
+    if (hit) {
+      // Most recently used last, so eviction takes the oldest first.
+      this.cache.delete(key);
+      this.cache.set(key, hit);
+    }
+    return hit;
+  }
+
+  async get(tx: Tx, key: string): Promise<CachedOutput | null> {
+    return (await this.getMany(tx, [key])).get(key) ?? null;
+  }
+
+  async getMany(tx: Tx, keys: Iterable<string | null | undefined>): Promise<Map<string, CachedOutput>> {
+    const found = new Map<string, CachedOutput>();
+    const missing: string[] = [];
+    for (const key of new Set(keys)) {
+      if (typeof key !== 'string') continue;
+      const hit = this.touch(key);
+      if (hit) found.set(key, hit);
+      else missing.push(key);
+    }
+    if (missing.length) {
+      const rows = await tx.select().from(outputs).where(missing.length === 1 ? eq(outputs.key, missing[0]!) : inArray(outputs.key, missing));
+      for (const row of rows) found.set(row.key, this.remember(fromRow(row)));
+    }
+    return found;
+  }
+
+  /** Stores a computed output (once: a concurrent store of the same key keeps the first). */
+  async put(tx: Tx, key: string, kind: CellKind, engineVersion: string, computed: ComputedOutput): Promise<CachedOutput> {
+    const durationMs = Math.round(computed.durationMs);
+    const [row] = await tx
+      .insert(outputs)
+      .values({
+        key,
+        kind,
+        status: computed.status,
+        result: computed.resultJson === null ? null : sql`${computed.resultJson}::jsonb`,
+        error: computed.error,
+        engineVersion,
+        durationMs,
+      })
+      .onConflictDoNothing()
+      .returning({ computedAt: outputs.computedAt });
+    if (!row) return (await this.get(tx, key))!;
+    const meta = { key, status: computed.status, error: computed.error, engineVersion, durationMs, computedAt: row.computedAt.toISOString() };
+    return this.remember({ key, status: computed.status, error: computed.error, computedAt: meta.computedAt, durationMs, json: outputJson(meta, computed.resultJson) });
+  }
+}
