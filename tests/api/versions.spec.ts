@@ -105,6 +105,9 @@ describe('saving versions', () => {
 
     const history = (await as['viewer']!.get(`/api/studies/${studyId}/versions`).expect(200)).body as StudyHistory;
     expect(history.branches[0]).toMatchObject({ headVersionId: v1.id, headNumber: 1, versionCount: 1 });
+    // The study's own branch list (what the notebook page loads) carries the head's number too.
+    const listed = await as['viewer']!.get(`/api/studies/${studyId}/branches`).expect(200);
+    expect(listed.body[0]).toMatchObject({ headVersionId: v1.id, headNumber: 1 });
     expect((await getDraft(branchId)).basedOnVersionId).toBe(v1.id);
 
     // Only the flow cell changes: one new revision, the other two rows are shared with version 1.
@@ -264,9 +267,12 @@ describe('roles', () => {
     const { studyId, branchId } = await newStudy('Versions: roles');
     await putDraft(branchId, [flow(randomUUID(), 6e6)]);
     const v1 = await save(branchId, 'Start', null);
+    const permissions = async (role: string) => ((await as[role]!.get(`/api/studies/${studyId}/versions`).expect(200)).body as StudyHistory).permissions;
+    expect(await permissions('lead')).toEqual({ saveVersion: true, branch: true, markBaseline: true, editStudy: true });
+    expect(await permissions('engineer')).toEqual({ saveVersion: true, branch: false, markBaseline: false, editStudy: true });
     for (const role of ['reviewer', 'viewer']) {
+      expect(await permissions(role)).toEqual({ saveVersion: false, branch: false, markBaseline: false, editStudy: false });
       const who = as[role]!;
-      await who.get(`/api/studies/${studyId}/versions`).expect(200);
       await who.get(`/api/branches/${branchId}/versions`).expect(200);
       await who.get(`/api/versions/${v1.id}`).expect(200);
       await who.get(`/api/compare?a=${v1.id}&b=${v1.id}`).expect(200);

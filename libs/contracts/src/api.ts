@@ -144,6 +144,8 @@ export const branchSchema = z.object({
   purpose: z.string(),
   forkedFromVersionId: id.nullable(),
   headVersionId: id.nullable(),
+  /** The head version's number on its branch (null before the first version). */
+  headNumber: z.number().int().nullable().optional(),
   archived: z.boolean(),
   createdBy: z.object({ id, name: z.string() }).nullable(),
   createdAt: isoDate,

@@ -93,6 +93,8 @@ export type BranchOverview = z.infer<typeof branchOverviewSchema>;
 export const studyHistorySchema = z.object({
   studyId: id,
   baselineVersionId: id.nullable(),
+  /** What the caller may do here (the project's settings included), so the web app offers only that. */
+  permissions: z.object({ saveVersion: z.boolean(), branch: z.boolean(), markBaseline: z.boolean(), editStudy: z.boolean() }),
   branches: z.array(branchOverviewSchema),
   versions: z.array(versionSummarySchema),
 });

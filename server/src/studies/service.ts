@@ -88,18 +88,19 @@ export async function updateStudy(tx: Tx, actor: SessionUser, projectId: string,
 /** The branches of a study, main first, then by creation. */
 export async function listBranches(tx: Tx, studyId: string): Promise<Branch[]> {
   const rows = await tx
-    .select({ b: branches, creatorName: users.name })
+    .select({ b: branches, creatorName: users.name, headNumber: sql<number | null>`(select v.number from versions v where v.id = ${branches.headVersionId})` })
     .from(branches)
     .leftJoin(users, eq(users.id, branches.createdBy))
     .where(eq(branches.studyId, studyId))
     .orderBy(sql`${branches.name} <> ${MAIN_BRANCH}`, asc(branches.createdAt));
-  return rows.map(({ b, creatorName }) => ({
+  return rows.map(({ b, creatorName, headNumber }) => ({
     id: b.id,
     studyId: b.studyId,
     name: b.name,
     purpose: b.purpose,
     forkedFromVersionId: b.forkedFromVersionId,
     headVersionId: b.headVersionId,
+    headNumber: headNumber === null ? null : Number(headNumber),
     archived: b.archivedAt !== null,
     createdBy: b.createdBy ? { id: b.createdBy, name: creatorName ?? '' } : null,
     createdAt: b.createdAt.toISOString(),

@@ -84,8 +84,8 @@ export function versionsRouter({ db }: { db: Db }): Router {
   });
 
   router.get('/studies/:studyId/versions', async (req, res) => {
-    const { study } = await studyAccess(db, req.user!, req.params.studyId);
-    res.json(await service.studyHistory(db, study.id));
+    const { study, access } = await studyAccess(db, req.user!, req.params.studyId);
+    res.json(await service.studyHistory(db, study.id, access));
   });
 
   router.post('/studies/:studyId/baseline', async (req, res) => {
@@ -93,7 +93,7 @@ export function versionsRouter({ db }: { db: Db }): Router {
     requireAction(access, 'markBaseline');
     const { versionId } = parse(markBaselineSchema, req.body);
     await db.transaction((tx) => service.markBaseline(tx, req.user!, { studyId: study.id, projectId }, versionId));
-    res.json(await service.studyHistory(db, study.id));
+    res.json(await service.studyHistory(db, study.id, access));
   });
 
   router.get('/compare', async (req, res) => {

@@ -1,6 +1,8 @@
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import {
+  can,
   CELL_KINDS,
+  type ProjectAccess,
   cellKindSchema,
   type BranchOverview,
   type CellKind,
@@ -189,7 +191,6 @@ export async function branchOverviews(tx: Tx, studyId: string): Promise<BranchOv
         id: branches.id,
         draftRevision: drafts.revision,
         draftBasedOnVersionId: drafts.basedOnVersionId,
-        headNumber: sql<number | null>`(select ${versions.number} from ${versions} where ${versions.id} = ${branches.headVersionId})`,
         versionCount: sql<number>`(select count(*)::int from ${versions} where ${versions.branchId} = ${branches.id})`,
         forkedFrom: sql<BranchOverview['forkedFrom']>`(
           select json_build_object('versionId', ${forked}.id, 'branchId', ${forked}.branch_id, 'branchName', fb.name, 'number', ${forked}.number)
@@ -204,7 +205,7 @@ export async function branchOverviews(tx: Tx, studyId: string): Promise<BranchOv
     const e = byId.get(b.id)!;
     return {
       ...b,
-      headNumber: e.headNumber === null ? null : Number(e.headNumber),
+      headNumber: b.headNumber ?? null,
       versionCount: Number(e.versionCount),
       draftRevision: e.draftRevision ?? 0,
       draftBasedOnVersionId: e.draftBasedOnVersionId ?? null,
@@ -213,12 +214,19 @@ export async function branchOverviews(tx: Tx, studyId: string): Promise<BranchOv
   });
 }
 
-export async function studyHistory(tx: Tx, studyId: string): Promise<StudyHistory> {
-  const [study] = await tx.select({ baselineVersionId: studies.baselineVersionId }).from(studies).where(eq(studies.id, studyId));
+export async function studyHistory(tx: Tx, studyId: string, access: ProjectAccess): Promise<StudyHistory> {
+  const [study] = await tx.select({ baselineVersionId: studies.baselineVersionId, archivedAt: studies.archivedAt }).from(studies).where(eq(studies.id, studyId));
   const rows = await summaries(tx).where(eq(versions.studyId, studyId)).orderBy(desc(versions.createdAt), desc(versions.number));
+  const open = !study?.archivedAt;
   return {
     studyId,
     baselineVersionId: study?.baselineVersionId ?? null,
+    permissions: {
+      saveVersion: open && can(access, 'saveVersion'),
+      branch: open && can(access, 'branch'),
+      markBaseline: can(access, 'markBaseline'),
+      editStudy: open && can(access, 'editStudy'),
+    },
     branches: await branchOverviews(tx, studyId),
     versions: rows.map((r) => toSummary(r as SummaryRow)),
   };
