@@ -14,6 +14,18 @@ export const routes: Routes = [
     title: 'Project · Laminote',
   },
   {
+    path: 'studies/:studyId/compare',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./versions/compare-page').then((m) => m.ComparePage),
+    title: 'Compare versions · Laminote',
+  },
+  {
+    path: 'studies/:studyId/versions/:versionId',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./versions/version-page').then((m) => m.VersionPage),
+    title: 'Version · Laminote',
+  },
+  {
     path: 'studies/:studyId',
     canActivate: [requireSignIn],
     loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),

@@ -44,6 +44,7 @@ import { RemovedCells } from './removed-cells';
 import { SaveIndicator } from './save-indicator';
 import { Shortcuts } from './shortcuts';
 import { SweepCell } from './sweep/sweep-cell';
+import { VersionBar } from '../versions/version-bar';
 
 interface OpenedStudy {
   readonly study: Study;
@@ -90,6 +91,7 @@ function isTextEntry(target: EventTarget | null): boolean {
     RouterLink,
     SaveIndicator,
     SweepCell,
+    VersionBar,
   ],
   providers: [DraftSession],
   templateUrl: './notebook-page.html',

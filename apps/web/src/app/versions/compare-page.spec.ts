@@ -1,0 +1,87 @@
+import { TestBed } from '@angular/core/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatSelectHarness } from '@angular/material/select/testing';
+import { MatTabGroupHarness } from '@angular/material/tabs/testing';
+import { Router } from '@angular/router';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { provideTestApp, study } from '../../testing/test-app';
+import { PLOT_RENDERER } from '../shared/plot';
+import { ComparePage } from './compare-page';
+import { CellDiffListHarness, DeltaTableHarness } from './testing/version-harnesses';
+import { STUDY_ID, V1_ID, V2_ID, comparison, history } from './testing/version-fixtures';
+
+describe('ComparePage', () => {
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      providers: [...provideTestApp(), { provide: PLOT_RENDERER, useValue: () => new Promise<never>(() => undefined) }],
+    });
+    http = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => http.verify());
+
+  async function render(query: { a?: string; b?: string }) {
+    const fixture = TestBed.createComponent(ComparePage);
+    fixture.componentRef.setInput('studyId', STUDY_ID);
+    if (query.a) fixture.componentRef.setInput('a', query.a);
+    if (query.b) fixture.componentRef.setInput('b', query.b);
+    fixture.detectChanges();
+    http.expectOne(`/api/studies/${STUDY_ID}`).flush(study());
+    http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history());
+    return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
+  }
+
+  it('tells a forward transition and a drag rise apart as adverse, with the flow change that caused them', async () => {
+    const { fixture, loader } = await render({ a: V1_ID, b: V2_ID });
+    const request = http.expectOne((r) => r.url === '/api/compare' && r.params.get('a') === V1_ID && r.params.get('b') === V2_ID);
+    request.flush(comparison());
+    await fixture.whenStable();
+
+    const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
+    expect(text).toContain('main v1');
+    expect(text).toContain('Reynolds number');
+    expect(text).toMatch(/engineering estimates/);
+
+    const table = await loader.getHarness(DeltaTableHarness);
+    expect(await table.getLabel()).toBe('Deltas on the upper surface');
+    const rows = await table.getRows();
+    expect(rows.find((r) => r.quantity === 'Transition (governing)')).toEqual({
+      quantity: 'Transition (governing)',
+      a: '0.580 (Envelope eᴺ)',
+      b: '0.296 (Envelope eᴺ)',
+      delta: '−0.284 x/c',
+      effect: 'adverse',
+      cue: 'Adverse: forward: shorter laminar run',
+    });
+    expect(rows.find((r) => r.quantity === 'Laminar extent (share of the run)')).toMatchObject({ a: '58.0 %', b: '29.6 %', delta: '−28.4 pts', effect: 'adverse' });
+    // Drag in counts (1 count = 0.0001): 23.8 → 25.4, up 1.6 counts.
+    expect(rows.find((r) => r.quantity === 'cd (Squire–Young)')).toMatchObject({ a: '23.80 cts', b: '25.40 cts', delta: '+1.60 cts', effect: 'adverse', cue: 'Adverse: drag up' });
+
+    const tabs = await loader.getHarness(MatTabGroupHarness);
+    expect(await Promise.all((await tabs.getTabs()).map((t) => t.getLabel()))).toEqual(['Cp', 'N-factor', 'H']);
+
+    const cells = await loader.getHarness(CellDiffListHarness);
+    expect(await cells.getItems()).toEqual([{ change: 'changed', title: 'Cruise flow', fields: ['Reynolds number: 4e6 → 8e6 (+100.0 %)'] }]);
+  });
+
+  it('takes the version before B as A when only B is named, and puts it in the address', async () => {
+    const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const { fixture } = await render({ b: V2_ID });
+    await fixture.whenStable();
+    expect(navigate).toHaveBeenCalledWith([], { queryParams: { a: V1_ID }, queryParamsHandling: 'merge', replaceUrl: true });
+  });
+
+  it('changes a side through its picker, which changes the address', async () => {
+    const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const { fixture, loader } = await render({ a: V1_ID, b: V2_ID });
+    http.expectOne((r) => r.url === '/api/compare').flush(comparison());
+    await fixture.whenStable();
+    const [pickA] = await loader.getAllHarnesses(MatSelectHarness);
+    await pickA!.open();
+    await pickA!.clickOptions({ text: /main v2/ });
+    expect(navigate).toHaveBeenCalledWith([], { queryParams: { a: V2_ID }, queryParamsHandling: 'merge' });
+  });
+});

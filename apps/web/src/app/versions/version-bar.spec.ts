@@ -1,0 +1,149 @@
+import { TestBed } from '@angular/core/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatDialogHarness } from '@angular/material/dialog/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatMenuHarness } from '@angular/material/menu/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
+import { Router } from '@angular/router';
+import type { ProjectAccess, SaveConflict } from '@laminote/contracts';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { problemResponse, provideTestApp } from '../../testing/test-app';
+import { DraftSession } from '../notebook/draft-session';
+import { cell, draft } from '../notebook/testing/notebook-fixtures';
+import { CellDiffListHarness } from './testing/version-harnesses';
+import { MAIN_ID, STUDY_ID, V1_ID, V2_ID, V3_ID, VARIANT_ID, branch, flowChange, history, summary } from './testing/version-fixtures';
+import { VersionBar } from './version-bar';
+
+const lead: ProjectAccess = { role: 'lead', siteAdmin: false };
+const viewer: ProjectAccess = { role: 'viewer', siteAdmin: false };
+
+describe('VersionBar', () => {
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({ providers: [...provideTestApp(), DraftSession] });
+    http = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => http.verify());
+
+  async function render(access: ProjectAccess) {
+    // The draft open on the page, at revision 3, all cells with current results.
+    TestBed.inject(DraftSession).open(MAIN_ID, draft([cell('flow', '11111111-2222-4333-8444-555555555501', { title: 'Cruise flow', runState: 'current' })], { branchId: MAIN_ID }));
+    const fixture = TestBed.createComponent(VersionBar);
+    fixture.componentRef.setInput('studyId', STUDY_ID);
+    fixture.componentRef.setInput('branchId', MAIN_ID);
+    fixture.componentRef.setInput('branches', [branch(), branch({ id: VARIANT_ID, name: 'thin nose', headVersionId: null, headNumber: null, forkedFromVersionId: V1_ID })]);
+    fixture.componentRef.setInput('access', access);
+    fixture.detectChanges();
+    await fixture.whenStable();
+    return { fixture, loader: TestbedHarnessEnvironment.loader(fixture), root: TestbedHarnessEnvironment.documentRootLoader(fixture) };
+  }
+
+  it('shows the branch and its head, and saves the draft as the next version', async () => {
+    const { fixture, loader, root } = await render(lead);
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('v2');
+
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Save version/ }))).click();
+    const dialog = await root.getHarness(MatDialogHarness);
+    expect(await dialog.getTitleText()).toBe('Save version of “main”');
+    expect(await dialog.getContentText()).toContain('The draft becomes version 3, after version 2');
+    await (await dialog.getHarness(MatInputHarness)).setValue('Thinner nose, Re 8 million');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Save version' }))).click();
+
+    const save = http.expectOne({ method: 'POST', url: `/api/branches/${MAIN_ID}/versions` });
+    expect(save.request.body).toEqual({ message: 'Thinner nose, Re 8 million', expectedHeadVersionId: V2_ID, draftRevision: 3 });
+    save.flush(summary({ id: V3_ID, number: 3, message: 'Thinner nose, Re 8 million', parentVersionId: V2_ID }), { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('v3');
+  });
+
+  it('on a stale save shows what the other version changed, keeps the message and saves on top when asked', async () => {
+    const { fixture, loader, root } = await render(lead);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Save version/ }))).click();
+    const dialog = await root.getHarness(MatDialogHarness);
+    await (await dialog.getHarness(MatInputHarness)).setValue('My variant');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Save version' }))).click();
+
+    const conflict: SaveConflict = {
+      type: '/problems/conflict',
+      title: 'Someone else changed this first',
+      status: 409,
+      detail: 'Oskar Lind saved version 3 of this branch first.',
+      reason: 'headMoved',
+      currentHead: summary({ id: V3_ID, number: 3, message: 'Re 8 million', parentVersionId: V2_ID }),
+      newerVersions: [summary({ id: V3_ID, number: 3, message: 'Re 8 million', parentVersionId: V2_ID })],
+      changes: [flowChange()],
+      draftRevision: 3,
+    };
+    http.expectOne({ method: 'POST', url: `/api/branches/${MAIN_ID}/versions` }).flush(conflict, problemResponse(409, 'Conflict'));
+    await fixture.whenStable();
+
+    expect(await dialog.getContentText()).toContain('Oskar Lind saved version 3 first');
+    const changes = await dialog.getHarness(CellDiffListHarness);
+    expect(await changes.getItems()).toEqual([{ change: 'changed', title: 'Cruise flow', fields: ['Reynolds number: 4e6 → 8e6 (+100.0 %)'] }]);
+    expect(await (await dialog.getHarness(MatInputHarness)).getValue()).toBe('My variant');
+
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Save mine as version 4' }))).click();
+    const again = http.expectOne({ method: 'POST', url: `/api/branches/${MAIN_ID}/versions` });
+    expect(again.request.body).toMatchObject({ message: 'My variant', expectedHeadVersionId: V3_ID });
+    again.flush(summary({ id: '00000000-0000-4000-8000-0000000000aa', number: 4, message: 'My variant' }), { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
+  });
+
+  it('offers a viewer the history and compare, not saving or branching', async () => {
+    const { loader, root, fixture } = await render(viewer);
+    expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Save version/ }))).toHaveLength(0);
+    expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /New branch/ }))).toHaveLength(0);
+    const compare = await loader.getHarness(MatButtonHarness.with({ text: /Compare/ }));
+    expect(await (await compare.host()).getAttribute('href')).toBe(`/studies/${STUDY_ID}/compare?b=${V2_ID}`);
+
+    await (await loader.getHarness(MatButtonHarness.with({ text: /History/ }))).click();
+    http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history({ permissions: { saveVersion: false, branch: false, markBaseline: false, editStudy: false } }));
+    await fixture.whenStable();
+    const drawer = await root.getHarness(MatDialogHarness);
+    const text = await drawer.getContentText();
+    expect(text).toContain('Re 8 million');
+    expect(text).toContain('Cruise baseline');
+    // Open and "What changed" only: no menu of changes for a viewer.
+    expect(await drawer.getAllHarnesses(MatMenuHarness)).toHaveLength(0);
+    expect(await drawer.getAllHarnesses(MatButtonHarness.with({ text: 'What changed' }))).toHaveLength(1);
+  });
+
+  it('branches from a version of the history and opens the new branch', async () => {
+    const { fixture, loader, root } = await render(lead);
+    const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /History/ }))).click();
+    http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history());
+    await fixture.whenStable();
+    const drawer = await root.getHarness(MatDialogHarness);
+    const menu = await drawer.getHarness(MatMenuHarness.with({ selector: '[aria-label="More for version 1 of main"]' }));
+    await menu.clickItem({ text: /Branch from here/ });
+    await fixture.whenStable();
+
+    const dialog = await root.getHarness(MatDialogHarness.with({ selector: '.mat-mdc-dialog-container:has(lam-branch-dialog)' }));
+    expect(await dialog.getTitleText()).toBe('New branch from version 1');
+    await (await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName="name"]' }))).setValue('thin nose');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Create branch' }))).click();
+    const create = http.expectOne({ method: 'POST', url: `/api/versions/${V1_ID}/branches` });
+    expect(create.request.body).toEqual({ name: 'thin nose', purpose: '' });
+    create.flush({ ...history().branches[0]!, id: VARIANT_ID, name: 'thin nose', headVersionId: null, headNumber: null, forkedFromVersionId: V1_ID, versionCount: 0 }, { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    await new Promise((r) => setTimeout(r, 0));
+    expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID], { queryParams: { branch: VARIANT_ID } });
+  });
+
+  it('switches branches through the notebook address', async () => {
+    const { loader } = await render(lead);
+    const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const select = await loader.getHarness(MatSelectHarness);
+    await select.open();
+    await select.clickOptions({ text: /thin nose/ });
+    await new Promise((r) => setTimeout(r, 0));
+    expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID], { queryParams: { branch: VARIANT_ID } });
+  });
+});

@@ -1,0 +1,161 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatSelectModule } from '@angular/material/select';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { Router, RouterLink } from '@angular/router';
+import { type Branch, type BranchOverview, type ProjectAccess, type VersionSummary, can } from '@laminote/contracts';
+import { firstValueFrom } from 'rxjs';
+import { Notifier } from '../core/notifier';
+import { ConfirmDialog, type ConfirmDialogData } from '../project/confirm-dialog';
+import { NotebookApi } from '../notebook/notebook-api';
+import { DraftSession } from '../notebook/draft-session';
+import { BranchDialog, type BranchDialogData, type VersionRef } from './branch-dialog';
+import { type HistoryChoice, HistoryDrawer, type HistoryDrawerData } from './history-drawer';
+import { SaveVersionDialog, type SaveVersionData } from './save-version-dialog';
+import { VersionApi } from './version-api';
+
+/**
+ * The notebook header's version bar: which branch this is (and a switch to the others), its head
+ * version, "Save version", the history, a new branch from the head, and a compare of the head with
+ * what came before it. It works from what the notebook page already loaded (the study's branches, the
+ * person's access) and asks the server only when the person acts. What a role does not allow is not
+ * offered; the server refuses it anyway.
+ */
+@Component({
+  selector: 'lam-version-bar',
+  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, MatTooltipModule, RouterLink],
+  templateUrl: './version-bar.html',
+  styleUrl: './version-bar.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class VersionBar {
+  private readonly api = inject(VersionApi);
+  private readonly notebook = inject(NotebookApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly router = inject(Router);
+  private readonly notifier = inject(Notifier);
+  /** Present over the notebook page: flushed before saving, reopened after a restore. */
+  private readonly session = inject(DraftSession, { optional: true });
+
+  readonly studyId = input.required<string>();
+  readonly branchId = input.required<string>();
+  /** The study's branches as the notebook page loaded them. */
+  readonly branches = input.required<readonly Branch[]>();
+  /** The person's access in the study's project (null while unknown). */
+  readonly access = input.required<ProjectAccess | null>();
+  /** An archived study is read-only: no saving, restoring or branching. */
+  readonly studyArchived = input(false);
+
+  /** The branch heads, moved here by saves made from this bar until the page loads the branches again. */
+  private readonly heads = linkedSignal(() => new Map(this.branches().map((b) => [b.id, b.headVersionId ? { id: b.headVersionId, number: b.headNumber ?? null } : null])));
+
+  protected readonly activeBranches = computed(() => this.branches().filter((b) => !b.archived || b.id === this.branchId()));
+  protected readonly archivedBranches = computed(() => this.branches().filter((b) => b.archived && b.id !== this.branchId()));
+  protected readonly branch = computed(() => this.branches().find((b) => b.id === this.branchId()) ?? null);
+  protected readonly head = computed(() => this.heads().get(this.branchId()) ?? null);
+  protected readonly headNumberOf = (b: Branch) => this.heads().get(b.id)?.number ?? null;
+
+  private readonly writable = computed(() => !this.studyArchived() && !this.branch()?.archived);
+  private may(action: 'saveVersion' | 'branch'): boolean {
+    const access = this.access();
+    return access !== null && can(access, action);
+  }
+  protected readonly maySave = computed(() => this.writable() && this.may('saveVersion'));
+  protected readonly mayBranch = computed(() => !this.studyArchived() && this.may('branch'));
+
+  private headRef(): VersionRef | null {
+    const head = this.head();
+    const branch = this.branch();
+    return head && branch && head.number !== null ? { id: head.id, number: head.number, branchName: branch.name } : null;
+  }
+
+  protected async switchTo(branchId: string): Promise<void> {
+    if (branchId === this.branchId()) return;
+    await this.session?.flush();
+    await this.router.navigate(['/studies', this.studyId()], { queryParams: { branch: branchId } });
+  }
+
+  protected saveVersion(): void {
+    const branch = this.branch();
+    if (!branch) return;
+    const data: SaveVersionData = { studyId: this.studyId(), branchId: branch.id, branchName: branch.name, head: this.headRef(), session: this.session };
+    this.dialog
+      .open<SaveVersionDialog, SaveVersionData, VersionSummary>(SaveVersionDialog, { data, width: '44rem', maxWidth: '94vw' })
+      .afterClosed()
+      .subscribe((version) => {
+        if (!version) return;
+        this.heads.update((heads) => new Map(heads).set(version.branchId, { id: version.id, number: version.number }));
+        this.notifier.done(`Saved version ${version.number} of ${version.branchName}.`);
+      });
+  }
+
+  protected openHistory(): void {
+    const data: HistoryDrawerData = { studyId: this.studyId(), branchId: this.branchId(), draftOpen: this.session !== null && this.writable() };
+    this.dialog
+      .open<HistoryDrawer, HistoryDrawerData, HistoryChoice>(HistoryDrawer, {
+        data,
+        position: { right: '0', top: '0' },
+        height: '100vh',
+        width: '30rem',
+        maxWidth: '100vw',
+        panelClass: 'lam-history-drawer',
+        autoFocus: 'dialog',
+      })
+      .afterClosed()
+      .subscribe((choice) => {
+        if (choice?.action === 'branch') this.branchFrom(choice.version);
+        if (choice?.action === 'restore') void this.restore(choice.version);
+      });
+  }
+
+  protected branchFromHead(): void {
+    const head = this.headRef();
+    if (head) this.branchFrom(head);
+  }
+
+  private branchFrom(version: VersionRef): void {
+    this.dialog
+      .open<BranchDialog, BranchDialogData, BranchOverview>(BranchDialog, { data: { version }, width: '32rem', maxWidth: '94vw' })
+      .afterClosed()
+      .subscribe(async (branch) => {
+        if (!branch) return;
+        this.notifier.done(`Branch “${branch.name}” starts from version ${version.number} of ${version.branchName}.`);
+        await this.session?.flush();
+        await this.router.navigate(['/studies', this.studyId()], { queryParams: { branch: branch.id } });
+      });
+  }
+
+  /** Replaces the draft's cells by a version's, as one draft change; the person confirms first. */
+  private async restore(version: VersionSummary): Promise<void> {
+    const session = this.session;
+    if (!session) return;
+    const confirmed = await firstValueFrom(
+      this.dialog
+        .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, {
+          data: {
+            title: `Restore version ${version.number}?`,
+            message: `The draft’s cells become those of version ${version.number} (“${version.message}”). Cells it does not have go to Recently removed. The restore is a draft change: save a version afterwards to keep it.`,
+            confirmLabel: 'Restore into the draft',
+          },
+        })
+        .afterClosed(),
+    );
+    if (!confirmed) return;
+    if (!(await session.flush())) {
+      this.notifier.problem({ type: 'about:blank', status: 409, title: 'The draft has unsaved edits', detail: 'Resolve the draft’s save problem first, then restore.' });
+      return;
+    }
+    const branchId = this.branchId();
+    this.api.restore(branchId, { versionId: version.id, baseRevision: session.revision() }).subscribe({
+      next: (result) => {
+        this.notebook.draft(branchId).subscribe((draft) => session.open(branchId, draft));
+        const trashed = result.movedToTrash.length;
+        this.notifier.done(`The draft is now version ${version.number}${trashed ? `; ${trashed} cell${trashed === 1 ? '' : 's'} moved to Recently removed` : ''}.`);
+      },
+      error: (error: unknown) => this.notifier.problem(error),
+    });
+  }
+}
