@@ -318,6 +318,16 @@ describe('mentions, the inbox and notification preferences', () => {
     await as['engineer']!.get('/api/inbox?limit=0').expect(400);
   });
 
+  it('marks read what the inbox holds about a thread the person opened', async () => {
+    const thread = await startThread(as['reviewer']!, `@${demoUser('engineer').name} about the Granville line`);
+    const before = ((await as['engineer']!.get('/api/inbox').expect(200)).body as Inbox).unreadCount;
+    const res = await as['engineer']!.post('/api/inbox/read-about', { threadId: thread.id }).expect(200);
+    expect(res.body.unreadCount).toBe(before - 1);
+    const entry = ((await as['engineer']!.get('/api/inbox').expect(200)).body as Inbox).items.find((n) => n.link.includes(thread.id))!;
+    expect(entry.read).toBe(true);
+    await as['engineer']!.post('/api/inbox/read-about', {}).expect(400);
+  });
+
   it('respects the preference: a kind turned off still reaches the inbox but sends no e-mail', async () => {
     const engineer = demoUser('engineer');
     expect((await as['engineer']!.get('/api/me/notification-prefs').expect(200)).body).toEqual({ mention: true, reviewRequest: true, reply: true, verdict: true });

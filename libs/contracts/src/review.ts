@@ -259,6 +259,12 @@ export const inboxQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
   before: z.string().datetime({ message: 'before must be an ISO date-time' }).optional(),
 });
+/** POST /api/inbox/read-about: marks read the entries about a thread or a version the person opened. */
+export const readAboutSchema = z
+  .object({ threadId: id.optional(), versionId: id.optional() })
+  .refine((v) => (v.threadId === undefined) !== (v.versionId === undefined), { message: 'give threadId or versionId' });
+export type ReadAbout = z.infer<typeof readAboutSchema>;
+
 export const inboxSchema = z.object({ items: z.array(notificationSchema), unreadCount: z.number().int() });
 export type Inbox = z.infer<typeof inboxSchema>;
 

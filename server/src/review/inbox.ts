@@ -69,6 +69,17 @@ export async function markRead(tx: Tx, user: SessionUser, notificationId: string
   if (updated.length === 0) throw notFound('inbox entry');
 }
 
+/** Marks read what the person's inbox holds about one thread or one version (they are looking at it). */
+export async function markReadAbout(tx: Tx, user: SessionUser, about: { threadId?: string | undefined; versionId?: string | undefined }): Promise<void> {
+  const key = about.threadId ? 'threadId' : 'versionId';
+  const value = about.threadId ?? about.versionId;
+  if (!value) return;
+  await tx
+    .update(notifications)
+    .set({ readAt: sql`now()` })
+    .where(and(visible(user), isNull(notifications.readAt), sql`${notifications.payload}->>${key} = ${value}`));
+}
+
 export async function markAllRead(tx: Tx, user: SessionUser): Promise<void> {
   await tx.update(notifications).set({ readAt: sql`now()` }).where(and(visible(user), isNull(notifications.readAt)));
 }

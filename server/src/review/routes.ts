@@ -4,6 +4,7 @@ import {
   createThreadSchema,
   giveVerdictSchema,
   inboxQuerySchema,
+  readAboutSchema,
   requestReviewSchema,
   threadQuerySchema,
   updateNotificationPrefsSchema,
@@ -151,6 +152,12 @@ export function reviewRouter({ db, config }: { db: Db; config: Pick<Config, 'PUB
 
   router.post('/inbox/read-all', async (req, res) => {
     await inbox.markAllRead(db, req.user!);
+    res.json({ unreadCount: await inbox.unreadCount(db, req.user!) });
+  });
+
+  router.post('/inbox/read-about', async (req, res) => {
+    const about = parse(readAboutSchema, req.body);
+    await inbox.markReadAbout(db, req.user!, about);
     res.json({ unreadCount: await inbox.unreadCount(db, req.user!) });
   });
 

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { Inbox, NotificationPrefs, SinkMessage, UpdateNotificationPrefs } from '@laminote/contracts';
+import type { Inbox, NotificationPrefs, ReadAbout, SinkMessage, UpdateNotificationPrefs } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 
@@ -20,6 +20,11 @@ export class InboxApi {
 
   markRead(notificationId: string): Observable<{ unreadCount: number }> {
     return this.http.post<{ unreadCount: number }>(`${this.base}/inbox/${encodeURIComponent(notificationId)}/read`, {});
+  }
+
+  /** Marks read the entries about a thread or a version the person has just opened. */
+  markReadAbout(about: ReadAbout): Observable<{ unreadCount: number }> {
+    return this.http.post<{ unreadCount: number }>(`${this.base}/inbox/read-about`, about);
   }
 
   markAllRead(): Observable<{ unreadCount: number }> {

@@ -13,7 +13,7 @@ import { UnreadCount } from './unread-count';
   imports: [MatBadgeModule, MatButtonModule, MatIconModule, MatTooltipModule, RouterLink],
   template: `
     <a mat-icon-button class="inbox-link" routerLink="/inbox" [attr.aria-label]="label()" [matTooltip]="label()">
-      <mat-icon aria-hidden="true" [matBadge]="badge()" [matBadgeHidden]="unread() === 0" matBadgeSize="small" matBadgeColor="accent" aria-hidden="true"
+      <mat-icon aria-hidden="true" [matBadge]="badge()" [matBadgeHidden]="unread() === 0" matBadgeSize="medium" matBadgeColor="accent" aria-hidden="true"
         >inbox</mat-icon
       >
     </a>

@@ -1,4 +1,5 @@
 import { DestroyRef, Injectable, inject, signal } from '@angular/core';
+import type { ReadAbout } from '@laminote/contracts';
 import { Auth } from '../core/auth';
 import { InboxApi } from './inbox-api';
 
@@ -38,6 +39,12 @@ export class UnreadCount {
     if (!this.auth.signedIn()) return;
     // The count is a hint in the top bar; a failed poll keeps the last one and tries again later.
     this.api.unreadCount().subscribe({ next: ({ unreadCount }) => this.count.set(unreadCount), error: () => undefined });
+  }
+
+  /** The person opened a thread or a version: what their inbox holds about it is read now. */
+  readAbout(about: ReadAbout): void {
+    if (!this.auth.signedIn()) return;
+    this.api.markReadAbout(about).subscribe({ next: ({ unreadCount }) => this.count.set(unreadCount), error: () => undefined });
   }
 
   set(count: number): void {

@@ -11,6 +11,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { ActivatedRoute } from '@angular/router';
 import type { PlotAnchor } from '@laminote/contracts';
 import { Notifier } from '../core/notifier';
+import { UnreadCount } from '../inbox/unread-count';
 import { DraftSession } from '../notebook/draft-session';
 import { roleLabel } from '../shared/role-label';
 import { AnchorStrip } from './anchor-strip';
@@ -59,6 +60,7 @@ export class CellThreads {
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   private readonly session = inject(DraftSession, { optional: true });
   private readonly route = inject(ActivatedRoute, { optional: true });
+  private readonly unread = inject(UnreadCount);
 
   readonly cellId = input.required<string>();
   readonly studyId = input<string | undefined>(undefined);
@@ -110,6 +112,8 @@ export class CellThreads {
         if (this.scrolledFor === key) return;
         this.scrolledFor = key;
         this.store.setOpen(cellId, true);
+        const linked = this.linkedThread();
+        if (linked && threads.some((t) => t.id === linked)) this.unread.readAbout({ threadId: linked });
         // After the threads are on screen: bring the cell (and the linked thread) into view.
         setTimeout(() => {
           const thread = this.linkedThread() ? this.host.nativeElement.querySelector<HTMLElement>(`[data-thread-id="${this.linkedThread()}"]`) : null;

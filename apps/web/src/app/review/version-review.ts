@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -12,6 +12,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { REVIEW_STATE_LABELS, VERDICT_LABELS, type Member, type VerdictKind, type VersionReviewDetail } from '@laminote/contracts';
 import { catchError, of, switchMap } from 'rxjs';
 import { Notifier } from '../core/notifier';
+import { UnreadCount } from '../inbox/unread-count';
 import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
 import { CommentBody } from './comment-body';
@@ -47,6 +48,7 @@ export class VersionReview {
   private readonly api = inject(ReviewApi);
   private readonly store = inject(ThreadStore);
   private readonly notifier = inject(Notifier);
+  private readonly unread = inject(UnreadCount);
 
   readonly versionId = input.required<string>();
   readonly studyId = input.required<string>();
@@ -76,6 +78,14 @@ export class VersionReview {
   protected readonly verdict = signal<VerdictKind | null>(null);
   protected readonly summaryText = signal('');
   protected readonly busy = signal(false);
+
+  constructor() {
+    // Opening a version's review reads what the inbox holds about it (requests, verdicts).
+    effect(() => {
+      const id = this.state().value?.summary.versionId;
+      if (id) untracked(() => this.unread.readAbout({ versionId: id }));
+    });
+  }
 
   protected retry(): void {
     this.load.reload();
