@@ -14,7 +14,7 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
 import type { Db, Tx } from '../db/client';
-import { cells as cellsTable, drafts, studies, users } from '../db/schema';
+import { auditEvents, cells as cellsTable, drafts, studies, users } from '../db/schema';
 import { EngineBusyError, type EnginePool } from '../engine/pool';
 import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
@@ -63,13 +63,6 @@ function runStateOf(plan: CellPlan, last: CachedOutput | undefined): RunState {
   return 'outdated';
 }
 
-async function loadNames(tx: Tx, ids: (string | null)[]): Promise<Map<string, string>> {
-  const wanted = [...new Set(ids.filter((id): id is string => id !== null))];
-  if (wanted.length === 0) return new Map();
-  const rows = await tx.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
-  return new Map(rows.map((r) => [r.id, r.name]));
-}
-
 const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: unknown }) => canonicalJson([c.kind, c.title, c.collapsed, c.inputs]);
 
 /**
@@ -87,12 +80,36 @@ export class NotebookService {
     private readonly logger: Logger,
   ) {}
 
+  /** People's names for a draft's "updated by" and trash, remembered for a minute (every answer needs them). */
+  private readonly nameCache = new Map<string, { name: string; at: number }>();
+
+  private async names(tx: Tx, ids: (string | null)[]): Promise<Map<string, string>> {
+    const now = Date.now();
+    const out = new Map<string, string>();
+    const missing: string[] = [];
+    for (const id of new Set(ids)) {
+      if (id === null) continue;
+      const hit = this.nameCache.get(id);
+      if (hit && now - hit.at < 60_000) out.set(id, hit.name);
+      else missing.push(id);
+    }
+    if (missing.length) {
+      const rows = await tx.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, missing));
+      if (this.nameCache.size > 10_000) this.nameCache.clear();
+      for (const r of rows) {
+        out.set(r.id, r.name);
+        this.nameCache.set(r.id, { name: r.name, at: now });
+      }
+    }
+    return out;
+  }
+
   /** The draft as the client sees it: cells with run state, problems, last output and last good output. */
   async view(tx: Tx, ctx: BranchContext, row: DraftRow): Promise<DraftDoc> {
     const stored = row.cells as StoredCell[];
     const plans = planCells(stored);
     const found = await this.outputs.getMany(tx, stored.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]));
-    const names = await loadNames(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
+    const names = await this.names(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
     return {
       meta: {
         branchId: ctx.branch.id,
@@ -163,8 +180,11 @@ export class NotebookService {
 
     // Cell ids are the study's own: a new id is registered, a known id keeps its kind.
     const ids = body.cells.map((c) => c.cellId);
-    const known = ids.length ? await tx.select().from(cellsTable).where(inArray(cellsTable.id, ids)) : [];
-    const knownById = new Map(known.map((c) => [c.id, c]));
+    // Cells already in this draft or its trash are registered to this study with their kind.
+    const knownById = new Map<string, { id: string; studyId: string; kind: string }>();
+    for (const c of [...old, ...(row.trash as TrashEntry[])]) knownById.set(c.cellId, { id: c.cellId, studyId: ctx.study.id, kind: c.kind });
+    const unknown = ids.filter((id) => !knownById.has(id));
+    if (unknown.length) for (const c of await tx.select().from(cellsTable).where(inArray(cellsTable.id, unknown))) knownById.set(c.id, c);
     body.cells.forEach((cell, i) => {
       const k = knownById.get(cell.cellId);
       if (k && k.studyId !== ctx.study.id) throw badRequest(`cells[${i}].cellId: this id belongs to another study; give the new cell an id of its own`, `cells[${i}].cellId`);
@@ -258,37 +278,55 @@ export class NotebookService {
     }
     const ran = stored.filter((c) => reports.has(c.cellId)).map((c) => reports.get(c.cellId)!);
 
-    const updated = await this.db.transaction(async (tx) => {
-      const locked = await draftRow(tx, ctx.branch.id, true);
-      let changed = false;
-      const cells = (locked.cells as StoredCell[]).map((cell) => {
-        const out = outputsByCell.get(cell.cellId);
-        if (!out) return cell;
-        const lastGoodOutputKey = out.status === 'ok' ? out.key : (cell.lastGoodOutputKey ?? null);
-        if (cell.lastOutputKey === out.key && cell.lastGoodOutputKey === lastGoodOutputKey) return cell;
-        changed = true;
-        return { ...cell, lastOutputKey: out.key, lastGoodOutputKey };
-      });
-      // The revision stays: it counts the author's edits, and a run is not one.
-      const after = changed ? (await tx.update(drafts).set({ cells }).where(eq(drafts.branchId, ctx.branch.id)).returning())[0]! : locked;
-      await audit(tx, {
-        actorId: actor.id,
-        projectId: ctx.projectId,
-        action: 'cells.run',
-        targetType: 'branch',
-        targetId: ctx.branch.id,
-        detail: {
-          studyId: ctx.study.id,
-          revision: after.revision,
-          cellIds: ran.map((r) => r.cellId),
-          computed: ran.filter((r) => !r.reused && (r.status === 'ok' || r.status === 'error')).length,
-          reused: ran.filter((r) => r.reused).length,
-          failed: ran.filter((r) => r.status !== 'ok').length,
-        },
-      });
-      return after;
-    });
-    return { doc: await this.view(this.db, ctx, updated), ran };
+    const detail = {
+      studyId: ctx.study.id,
+      cellIds: ran.map((r) => r.cellId),
+      computed: ran.filter((r) => !r.reused && (r.status === 'ok' || r.status === 'error')).length,
+      reused: ran.filter((r) => r.reused).length,
+      failed: ran.filter((r) => r.status !== 'ok').length,
+    };
+    const marks = [...outputsByCell].map(([cellId, out]) => ({ cell_id: cellId, key: out.key, ok: out.status === 'ok' }));
+    const updated = marks.length ? await this.markOutputs(ctx, actor, marks, detail) : null;
+    if (!updated) await audit(this.db, { actorId: actor.id, projectId: ctx.projectId, action: 'cells.run', targetType: 'branch', targetId: ctx.branch.id, detail });
+    return { doc: await this.view(this.db, ctx, updated ?? (await draftRow(this.db, ctx.branch.id, false))), ran };
+  }
+
+  /**
+   * Records the run's output keys on the draft's cells, in one statement with its audit event: the
+   * cells are merged in the database as they are now, so a save that landed during the run keeps its
+   * edits, and the revision stays (it counts the author's edits; a run is not one, so it never makes
+   * the next autosave stale). A cell deleted meanwhile is simply not marked.
+   */
+  private async markOutputs(ctx: BranchContext, actor: SessionUser, marks: { cell_id: string; key: string; ok: boolean }[], detail: Record<string, unknown>): Promise<DraftRow | null> {
+    const col = (c: { name: string }) => sql.identifier(c.name);
+    const { rows } = await this.db.execute<Record<string, unknown>>(sql`
+      with marked as (
+        update ${drafts} set ${col(drafts.cells)} = (
+          select coalesce(jsonb_agg(
+            case when m.cell_id is null then e.cell
+            else e.cell || jsonb_build_object('lastOutputKey', m.key, 'lastGoodOutputKey', case when m.ok then to_jsonb(m.key) else coalesce(e.cell -> 'lastGoodOutputKey', 'null'::jsonb) end)
+            end order by e.position), '[]'::jsonb)
+          from jsonb_array_elements(${drafts.cells}) with ordinality as e(cell, position)
+          left join jsonb_to_recordset(${JSON.stringify(marks)}::jsonb) as m(cell_id text, key text, ok boolean) on m.cell_id = e.cell ->> 'cellId'
+        )
+        where ${drafts.branchId} = ${ctx.branch.id}
+        returning *
+      ), logged as (
+        insert into ${auditEvents} (${col(auditEvents.actorId)}, ${col(auditEvents.projectId)}, ${col(auditEvents.action)}, ${col(auditEvents.targetType)}, ${col(auditEvents.targetId)}, ${col(auditEvents.detail)})
+        values (${actor.id}, ${ctx.projectId}, 'cells.run', 'branch', ${ctx.branch.id}, ${JSON.stringify(detail)}::jsonb)
+      )
+      select * from marked`);
+    const r = rows[0];
+    if (!r) return null;
+    return {
+      branchId: r[drafts.branchId.name] as string,
+      revision: r[drafts.revision.name] as number,
+      cells: r[drafts.cells.name] as DraftRow['cells'],
+      trash: r[drafts.trash.name] as DraftRow['trash'],
+      basedOnVersionId: (r[drafts.basedOnVersionId.name] as string | null) ?? null,
+      updatedBy: (r[drafts.updatedBy.name] as string | null) ?? null,
+      updatedAt: new Date(r[drafts.updatedAt.name] as string | Date),
+    };
   }
 
   /** The cells to run: the named ones and everything upstream of them, or every cell that computes. */
