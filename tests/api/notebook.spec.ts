@@ -358,6 +358,76 @@ describe('runs', () => {
   });
 });
 
+describe('trips, single surfaces and limits', () => {
+  it('forces transition at a trip given at x/c, on that surface only', async () => {
+    const { branchId } = await newStudy('Tripped');
+    const { ids, flow, pressure, analysis } = standardCells();
+    const tripped = { ...analysis, inputs: { ...analysis.inputs, trips: { upper: 0.05 } } };
+    await save(as['engineer']!, branchId, 0, [flow, pressure, tripped]).expect(200);
+    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const r = cellOf(ran, ids.analysis).output!.result as EngineResult;
+    const [upper, lower] = r.surfaces;
+    // A trip ahead of natural transition sets it there (common practice: that is what a trip strip is for).
+    expect(upper!.transition.by).toBe('trip');
+    const st = upper!.stations;
+    const i = st.s.findIndex((s) => s >= upper!.transition.s!);
+    expect(st.x![i]!).toBeCloseTo(0.05, 2);
+    expect(lower!.transition.by).not.toBe('trip');
+    // The stations keep their chordwise coordinate when the case had to be split here.
+    expect(st.x).toHaveLength(st.s.length);
+
+    const wrong = { ...analysis, inputs: { ...analysis.inputs, trips: { nacelle: 0.1 } } };
+    await save(as['engineer']!, branchId, 1, [flow, pressure, wrong]).expect(200);
+    const bad = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    expect(cellOf(bad, ids.analysis).output!.error).toMatchObject({ field: 'trips.nacelle', message: expect.stringMatching(/no surface named "nacelle"/) });
+  });
+
+  it('reads a single axisymmetric surface with its radius column', async () => {
+    const { branchId } = await newStudy('Nacelle lip');
+    const flowId = randomUUID();
+    const id = randomUUID();
+    // A body of revolution r = 0.1 + 0.05 √x with a mild favourable gradient (invented for the check).
+    const rows = Array.from({ length: 120 }, (_, k) => {
+      const x = (k / 119) ** 1.5;
+      return `${x.toFixed(6)} ${(0.1 + 0.05 * Math.sqrt(x)).toFixed(6)} ${(-0.1 - 0.2 * x).toFixed(6)}`;
+    });
+    const text = ['x r cp', ...rows].join('\n');
+    await save(as['engineer']!, branchId, 0, [
+      { cellId: flowId, kind: 'flow', inputs: { mode: 'reynolds', reynolds: 5e6, mach: 0 } },
+      { cellId: id, kind: 'pressure', inputs: { text, layout: 'surface', surfaceName: 'outer', hasRadius: true } },
+      { kind: 'analysis', inputs: { flowCellId: flowId, pressureCellId: id } },
+    ]).expect(200);
+    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    expect(ran.ran.map((r) => r.status)).toEqual(['ok', 'ok', 'ok']);
+    const p = cellOf(ran, id).output!.result as PressureResult;
+    expect(p.surfaces.map((s) => s.name)).toEqual(['outer']);
+    expect(p.surfaces[0]!.r![0]).toBeCloseTo(0.1, 6);
+    const a = ran.cells[2]!.output!.result as EngineResult;
+    expect(a.surfaces.map((s) => s.name)).toEqual(['outer']);
+
+    const noHeader = { cellId: id, kind: 'pressure' as const, inputs: { text: rows.join('\n'), layout: 'surface', hasRadius: true } };
+    await save(as['engineer']!, branchId, 1, [noHeader]).expect(200);
+    const bad = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    expect(cellOf(bad, id).output!.error).toMatchObject({ field: 'text', message: expect.stringMatching(/header row/) });
+  });
+
+  it('keeps a table over the size limit as typed, with a problem naming the field', async () => {
+    const { branchId } = await newStudy('Huge table');
+    const id = randomUUID();
+    const text = `x cp\n${'0.5 0.1\n'.repeat(640_000)}`;
+    const res = await save(as['engineer']!, branchId, 0, [{ cellId: id, kind: 'pressure', inputs: { text } }]).expect(200);
+    expect(cellOf(res.body, id).problems).toContainEqual({ field: 'text', message: expect.stringMatching(/longer than 5 million characters/) });
+    expect((cellOf(res.body, id).inputs['text'] as string).length).toBe(text.length);
+  });
+
+  it('answers a draft save over 16 MB with 413 and says the limit', async () => {
+    const { branchId } = await newStudy('Too big');
+    const cells = Array.from({ length: 4 }, () => ({ kind: 'note' as const, inputs: { markdown: 'x'.repeat(4_500_000) } }));
+    const res = await save(as['engineer']!, branchId, 0, cells).expect(413);
+    expect(res.body).toMatchObject({ type: '/problems/too-large', detail: expect.stringMatching(/16 MB/) });
+  });
+});
+
 describe('uploads', () => {
   it('stores an uploaded table byte for byte with its SHA-256 and gives it back to members only', async () => {
     const { studyId } = await newStudy('Upload');

@@ -1,0 +1,28 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { createEnginePool } from './pool';
+
+const pool = createEnginePool({ threads: 1 });
+afterAll(() => pool.close());
+
+describe('engine worker pool', () => {
+  it('loads the TypeScript tasks in a worker thread and computes there', async () => {
+    const out = await pool.run({
+      kind: 'flatPlate',
+      inputs: { mode: 'reynolds', reynolds: 1e6, length_m: 1, speed_mps: 1, kinematicViscosity_m2s: 1e-6, transitionMode: 'location', transitionLocation: 1, transitionReynolds: 1e6 },
+    });
+    expect(out.status).toBe('ok');
+    // Blasius: mean CF = 1.328/√Re_L for a plate laminar to its end (H. Blasius 1908).
+    expect(JSON.parse(out.resultJson!).cfMixed).toBeCloseTo(1.328 / Math.sqrt(1e6), 9);
+    expect(pool.completed).toBe(1);
+  });
+
+  it("hands back the engine's message and field for bad input, not an exception", async () => {
+    const out = await pool.run({
+      kind: 'analysis',
+      inputs: { flowCellId: crypto.randomUUID(), pressureCellId: crypto.randomUUID(), criteria: ['eN'], trips: {}, turbulent: true },
+      flow: { mode: 'reynolds', reynolds: 1e6, mach: 0, altitude_m: 0, isaTemperatureOffset_K: 0, referenceLength_m: 1, turbulenceMode: 'nCrit', nCrit: 9, sweepDeg: 0 },
+      pressure: { text: 'x cp\n1 0\n0.5 zero\n0 1', uploadId: null, filename: null, layout: 'closedLoop', surfaceName: 'upper', hasRadius: false },
+    });
+    expect(out).toMatchObject({ status: 'error', resultJson: null, error: { field: 'pressureTable line 3', line: 3 } });
+  });
+});
