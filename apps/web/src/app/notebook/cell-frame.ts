@@ -24,6 +24,7 @@ import { RUN_STATE_INFO, cellKindInfo } from './cell-kinds';
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: {
     '[attr.data-cell-id]': 'cell().cellId',
+    '[attr.data-cell-title]': 'cell().title',
     '[class.lam-cell-collapsed]': 'cell().collapsed',
     '[class]': '"lam-cell-state-" + state()',
   },

@@ -424,11 +424,14 @@ export class DraftSession {
         },
       }),
       tap(({ draft, seq }) => {
+        // Before the status moves on, so that a waiting flush sees nothing in flight.
+        this.inFlight = false;
         this.saveProblemSignal.set(null);
         this.acceptSaved(draft, seq);
       }),
       map(() => undefined),
       catchError((error: unknown) => {
+        this.inFlight = false;
         const theirs = conflictDraft(error);
         if (theirs) this.openConflict(theirs);
         else {

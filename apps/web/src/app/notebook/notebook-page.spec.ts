@@ -182,6 +182,23 @@ describe('NotebookPage', () => {
     expect(await flow.getRunState()).toBe('Up to date');
   });
 
+  it('saves a waiting edit before it runs, so the run computes what is on screen', async () => {
+    const { fixture, loader } = await open(asRole('engineer'));
+    const flow = await loader.getHarness(CellFrameHarness.with({ title: 'Cruise, M 0.78' }));
+    await (await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="mach"]' }))).setValue('0.8');
+    await flow.run();
+    const save = http.expectOne({ method: 'PUT', url: `/api/branches/${BRANCH_ID}/draft` });
+    expect(save.request.body.cells[0].inputs.mach).toBe(0.8);
+    http.expectNone({ method: 'POST' });
+    const saved = stack();
+    saved.cells[0] = { ...saved.cells[0], inputs: { ...saved.cells[0].inputs, mach: 0.8 } };
+    save.flush({ ...saved, revision: 4 });
+    await settle();
+    const run = http.expectOne({ method: 'POST', url: `/api/branches/${BRANCH_ID}/run` });
+    run.flush({ ...saved, revision: 4, ran: [] });
+    await fixture.whenStable();
+  });
+
   for (const role of ['viewer', 'reviewer'] as const) {
     it(`gives a ${role} a read-only notebook`, async () => {
       const { loader } = await open(asRole(role));

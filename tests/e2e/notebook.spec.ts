@@ -1,0 +1,161 @@
+import { analyzeCase } from '@laminote/aero';
+import type { Browser, Locator, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, signInThroughProvider } from '../support/browser';
+
+/**
+ * The notebook in the browser: the demo engineer adds a flow condition, a pressure cell with a pasted
+ * Cp table and a transition analysis to the demo study, runs it, reads the governing transition from
+ * the summary table and sees the plots.
+ */
+
+// Invented test section from an exact solution: the symmetric Joukowski aerofoil at zero incidence.
+// The circle |ζ − ζ0| = a, ζ0 = −ε, a = 1 + ε, maps by z = ζ + 1/ζ onto a section of about 12 %
+// thickness for ε = 0.1; the surface speed is |dW/dz| = |1 − e^(−2iθ)| / |1 − 1/ζ²| on V∞, finite at the
+// cusped trailing edge, and Cp = 1 − q² (Joukowski transformation; e.g. L. M. Milne-Thomson,
+// "Theoretical Aerodynamics", 4th ed. 1958, ch. 7; from memory). The loop runs from the trailing edge
+// over the upper side, round the nose (θ = π, the stagnation point) and back.
+function joukowskiTable(points: number, epsilon: number): string {
+  const a = 1 + epsilon;
+  const xNose = -(1 + 2 * epsilon) - 1 / (1 + 2 * epsilon);
+  const chord = 2 - xNose;
+  const rows = [`# symmetric Joukowski section, epsilon ${epsilon}, zero incidence, exact potential flow (invented for the test)`, 'x/c\ty/c\tCp'];
+  for (let i = 0; i < points; i++) {
+    // θ = 0 is the trailing edge itself, where speed and mapping both vanish: start just beside it.
+    const t = 1e-3 + ((2 * Math.PI - 2e-3) * i) / (points - 1);
+    const zr = -epsilon + a * Math.cos(t);
+    const zi = a * Math.sin(t);
+    const m2 = zr * zr + zi * zi;
+    const mappingR = 1 - (zr * zr - zi * zi) / (m2 * m2);
+    const mappingI = (2 * zr * zi) / (m2 * m2);
+    const q = Math.hypot(1 - Math.cos(2 * t), Math.sin(2 * t)) / Math.hypot(mappingR, mappingI);
+    rows.push([(zr + zr / m2 - xNose) / chord, (zi - zi / m2) / chord, 1 - q * q].map((v) => v.toFixed(6)).join('\t'));
+  }
+  return rows.join('\n');
+}
+const TABLE = joukowskiTable(161, 0.1);
+const REYNOLDS = 1e7;
+// A tag per run keeps the titles unique when the test runs again on the same database.
+const RUN = Date.now().toString(36);
+const FLOW_TITLE = `E2E ${RUN}: Re 1e7, M 0 (invented)`;
+const PRESSURE_TITLE = `E2E ${RUN}: Joukowski 12 % (invented)`;
+const ANALYSIS_TITLE = `E2E ${RUN}: free transition`;
+
+let browser: Browser;
+let page: Page;
+const problems: string[] = [];
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+  // A content-security-policy violation or a script error is a defect the user would meet.
+  page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
+  page.on('pageerror', (e) => problems.push(e.message));
+  page.on('response', (r) => r.status() >= 400 && !r.url().endsWith('/api/me') && problems.push(`${r.status()} ${r.url()}`));
+});
+afterAll(async () => browser?.close());
+
+function frame(title: string): Locator {
+  return page.locator(`lam-cell-frame[data-cell-title="${title}"]`);
+}
+
+/** Adds a cell of `kind` at the end of the stack and names it. */
+async function addCell(kind: string, title: string): Promise<Locator> {
+  const before = await page.locator('lam-cell-frame').count();
+  await page.getByRole('button', { name: 'Add cell' }).click();
+  await page.getByRole('menuitem', { name: new RegExp(kind) }).click();
+  await expect.poll(() => page.locator('lam-cell-frame').count()).toBe(before + 1);
+  const added = page.locator('lam-cell-frame').last();
+  await added.locator('input.title-input').fill(title);
+  return frame(title);
+}
+
+async function pick(cell: Locator, label: string, option: string): Promise<void> {
+  await cell.getByRole('combobox', { name: label }).click();
+  await page.getByRole('option', { name: option }).click();
+}
+
+describe('the study notebook', () => {
+  it('opens the demo study of the demo project', async () => {
+    await signInThroughProvider(page, 'engineer');
+    await page.getByRole('link', { name: /Larkspur T-62 wing/ }).first().click();
+    await page.getByRole('link', { name: /Outboard section, cruise/ }).first().click();
+    await page.getByRole('heading', { level: 1, name: /Outboard section, cruise/ }).waitFor();
+    await page.getByRole('button', { name: 'Add cell' }).waitFor();
+  });
+
+  it('adds a flow condition given by Reynolds number', async () => {
+    const flow = await addCell('Flow condition', FLOW_TITLE);
+    await flow.getByText('Reynolds number', { exact: true }).click();
+    await flow.getByLabel(/Reynolds number Re/).fill('1e7');
+    await flow.getByLabel(/Mach number/).fill('0');
+    await expect.poll(() => flow.locator('[data-quantity="Re"] dd').textContent()).toBe('1.00 × 10⁷');
+  });
+
+  it('adds a pressure cell, pastes a Cp table and sees it read and plotted', async () => {
+    const pressure = await addCell('Pressure distribution', PRESSURE_TITLE);
+    const table = pressure.getByLabel(/Cp table/);
+    await table.fill(TABLE);
+    await expect(table.inputValue()).resolves.toBe(TABLE);
+    await pressure.getByText('161 points with y').waitFor();
+    // A symmetric section at zero incidence stagnates at its nose, x/c = 0.
+    await expect(pressure.locator('.facts dd.lam-mono').first().textContent()).resolves.toBe('x/c 0.0000');
+    await pressure.locator('lam-plot .main-svg').first().waitFor({ timeout: 30_000 });
+  });
+
+  it('points an analysis at them, runs it and reads the governing transition from the summary table', async () => {
+    const analysis = await addCell('Transition analysis', ANALYSIS_TITLE);
+    await pick(analysis, 'Flow condition', FLOW_TITLE);
+    await pick(analysis, 'Pressure distribution', PRESSURE_TITLE);
+    await analysis.getByRole('button', { name: 'Run' }).click();
+
+    const table = analysis.getByRole('table', { name: 'Transition summary per surface' });
+    await table.waitFor({ timeout: 60_000 }).catch(async (error: unknown) => {
+      await page.screenshot({ path: '/tmp/laminote-e2e-notebook-failed.png', fullPage: true });
+      throw error;
+    });
+    await expect.poll(() => analysis.locator('.run-state-label').textContent()).toBe('Up to date');
+    const rows = await table.locator('tbody tr').all();
+    const shown = new Map<string, { at: number; by: string }>();
+    for (const row of rows) {
+      const name = (await row.locator('td').first().textContent())?.trim() ?? '';
+      const governing = row.locator('td.governing');
+      shown.set(name, { at: Number(await governing.locator('strong').textContent()), by: ((await governing.locator('.by').textContent()) ?? '').trim() });
+    }
+    expect([...shown.keys()].sort()).toEqual(['lower', 'upper']);
+
+    // The same case through the engine library directly: the page must show what the engine found.
+    const direct = analyzeCase({ flow: { reynolds: REYNOLDS, mach: 0, nCrit: 9 }, pressureTable: TABLE });
+    for (const surface of direct.surfaces) {
+      const { s, x } = surface.stations;
+      const at = surface.transition.s!;
+      const k = s.findIndex((v) => v >= at);
+      const xAt = x![k - 1] + ((at - s[k - 1]) / (s[k] - s[k - 1])) * (x![k] - x![k - 1]);
+      expect(shown.get(surface.name)!.at).toBeCloseTo(xAt, 3);
+      expect(shown.get(surface.name)!.at).toBeGreaterThan(0.05);
+      expect(shown.get(surface.name)!.at).toBeLessThan(1);
+    }
+    // A symmetric section at zero incidence: both sides turn turbulent at the same place.
+    expect(shown.get('upper')!.at).toBeCloseTo(shown.get('lower')!.at, 2);
+
+    await analysis.getByText(/Engineering estimates from integral boundary-layer methods/).waitFor();
+    await analysis.locator('lam-plot[data-plot="n"] .main-svg').first().waitFor({ timeout: 30_000 });
+    expect(await analysis.locator('lam-plot .main-svg').count()).toBeGreaterThanOrEqual(4);
+    // The N-factor plot has its axis titles with what is plotted.
+    await expect(analysis.locator('lam-plot[data-plot="n"]').textContent()).resolves.toMatch(/x\/c.*N \(envelope/s);
+    await analysis.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: '/tmp/laminote-e2e-notebook.png', fullPage: true });
+    await analysis.screenshot({ path: '/tmp/laminote-e2e-analysis.png' });
+  });
+
+  it('keeps the cells after a reload (the draft was saved)', async () => {
+    await page.reload();
+    await frame(ANALYSIS_TITLE).waitFor();
+    await expect(frame(PRESSURE_TITLE).getByLabel(/Cp table/).inputValue()).resolves.toBe(TABLE);
+    await expect.poll(() => frame(ANALYSIS_TITLE).locator('.run-state-label').textContent()).toBe('Up to date');
+  });
+
+  it('met no script error and no content-security-policy violation', () => {
+    expect(problems.filter((p) => !/status of 401/.test(p) && !/Failed to load resource/.test(p))).toEqual([]);
+  });
+});
