@@ -28,7 +28,7 @@ export const routes: Routes = [
   {
     path: 'studies/:studyId',
     canActivate: [requireSignIn],
-    loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
+    loadComponent: () => import('./notebook/notebook-page').then((m) => m.NotebookPage),
     title: 'Study · Laminote',
   },
   {
