@@ -89,7 +89,11 @@ export const analysisInputsSchema = z.object({
 });
 export type AnalysisInputs = z.infer<typeof analysisInputsSchema>;
 
-/** Parameter sweep: one analysis cell re-run over a range of one parameter. */
+/**
+ * Parameter sweep: one analysis cell re-run over `steps` evenly spaced values of one parameter of its
+ * flow cell. Mach at a fixed altitude changes the Reynolds number too (V∞ = M a∞); a Reynolds-number
+ * sweep keeps Mach as the flow cell has it.
+ */
 export const sweepInputsSchema = z.object({
   analysisCellId: cellRef('analysisCellId'),
   parameter: z.enum(['reynolds', 'mach', 'nCrit', 'sweepDeg']),
@@ -128,7 +132,11 @@ export const flatPlateInputsSchema = z.object({
 });
 export type FlatPlateInputs = z.infer<typeof flatPlateInputsSchema>;
 
-/** Leading-edge check: attachment-line Reynolds number (Poll) from sweep and LE radius or velocity gradient. */
+/**
+ * Leading-edge check: attachment-line Reynolds number (Poll) from sweep and LE radius or velocity
+ * gradient. The Reynolds number comes from the named flow cell, else from `reynolds`; the sweep is this
+ * cell's own.
+ */
 export const leadingEdgeInputsSchema = z.object({
   flowCellId: cellRef('flowCellId').nullable().default(null),
   sweepDeg: finite('sweepDeg').min(0).max(80).default(25),

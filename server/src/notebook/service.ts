@@ -266,11 +266,13 @@ export class NotebookService {
 
     const reports = new Map<string, CellRunReport>();
     const outputsByCell = new Map<string, CachedOutput>();
+    // Every output the run could reuse, looked up at once.
+    const known = await this.outputs.getMany(this.db, [...targets].map((id) => plans.get(id)!.key));
     for (const rank of [0, 1, 2]) {
       const level = stored.filter((c) => targets.has(c.cellId) && KIND_RANK[c.kind as CellKind] === rank);
       await Promise.all(
         level.map(async (cell) => {
-          const { report, output } = await this.runOne(plans.get(cell.cellId)!, plans, reports);
+          const { report, output } = await this.runOne(plans.get(cell.cellId)!, plans, reports, known);
           reports.set(cell.cellId, report);
           if (output) outputsByCell.set(cell.cellId, output);
         }),
@@ -350,7 +352,12 @@ export class NotebookService {
     return out;
   }
 
-  private async runOne(plan: CellPlan, plans: Map<string, CellPlan>, reports: Map<string, CellRunReport>): Promise<{ report: CellRunReport; output: CachedOutput | null }> {
+  private async runOne(
+    plan: CellPlan,
+    plans: Map<string, CellPlan>,
+    reports: Map<string, CellRunReport>,
+    known: Map<string, CachedOutput>,
+  ): Promise<{ report: CellRunReport; output: CachedOutput | null }> {
     const base = { cellId: plan.cell.cellId, kind: plan.kind };
     const started = performance.now();
     const internal = (message: string, field?: string) => ({
@@ -366,7 +373,7 @@ export class NotebookService {
       return { report: { ...base, status: 'invalid', reused: false, key: null, durationMs: 0, error: first ? { message: `${first.field}: ${first.message}`, field: first.field } : null }, output: null };
     }
     const key = plan.key;
-    const existing = await this.outputs.get(this.db, key);
+    const existing = known.get(key);
     if (existing) return done(existing, true);
 
     for (const ref of plan.refs) {
