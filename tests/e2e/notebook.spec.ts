@@ -1,4 +1,5 @@
 import { analyzeCase } from '@laminote/aero';
+import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser, signInThroughProvider } from '../support/browser';
@@ -9,31 +10,17 @@ import { launchBrowser, signInThroughProvider } from '../support/browser';
  * the summary table and sees the plots.
  */
 
-// Invented test section from an exact solution: the symmetric Joukowski aerofoil at zero incidence.
-// The circle |ζ − ζ0| = a, ζ0 = −ε, a = 1 + ε, maps by z = ζ + 1/ζ onto a section of about 12 %
-// thickness for ε = 0.1; the surface speed is |dW/dz| = |1 − e^(−2iθ)| / |1 − 1/ζ²| on V∞, finite at the
-// cusped trailing edge, and Cp = 1 − q² (Joukowski transformation; e.g. L. M. Milne-Thomson,
-// "Theoretical Aerodynamics", 4th ed. 1958, ch. 7; from memory). The loop runs from the trailing edge
-// over the upper side, round the nose (θ = π, the stagnation point) and back.
-function joukowskiTable(points: number, epsilon: number): string {
-  const a = 1 + epsilon;
-  const xNose = -(1 + 2 * epsilon) - 1 / (1 + 2 * epsilon);
-  const chord = 2 - xNose;
-  const rows = [`# symmetric Joukowski section, epsilon ${epsilon}, zero incidence, exact potential flow (invented for the test)`, 'x/c\ty/c\tCp'];
-  for (let i = 0; i < points; i++) {
-    // θ = 0 is the trailing edge itself, where speed and mapping both vanish: start just beside it.
-    const t = 1e-3 + ((2 * Math.PI - 2e-3) * i) / (points - 1);
-    const zr = -epsilon + a * Math.cos(t);
-    const zi = a * Math.sin(t);
-    const m2 = zr * zr + zi * zi;
-    const mappingR = 1 - (zr * zr - zi * zi) / (m2 * m2);
-    const mappingI = (2 * zr * zi) / (m2 * m2);
-    const q = Math.hypot(1 - Math.cos(2 * t), Math.sin(2 * t)) / Math.hypot(mappingR, mappingI);
-    rows.push([(zr + zr / m2 - xNose) / chord, (zi - zi / m2) / chord, 1 - q * q].map((v) => v.toFixed(6)).join('\t'));
-  }
+// Invented test section from an exact solution: the symmetric Joukowski aerofoil (circle centre
+// −0.1, about 12 % thick) at zero incidence, exact potential flow (libs/aero/test/joukowski.ts, after
+// Milne-Thomson, "Theoretical Aerodynamics", ch. 7). The loop runs from the trailing edge over the upper
+// side, round the nose and back.
+function joukowskiTable(points: number): string {
+  const loop = joukowskiLoop({ re: -0.1, im: 0 }, 0, points);
+  const rows = ['# symmetric Joukowski section at zero incidence, exact potential flow (invented for the test)', 'x/c\ty/c\tCp'];
+  loop.x.forEach((x, i) => rows.push([x, loop.y[i], loop.cp[i]].map((v) => v.toFixed(6)).join('\t')));
   return rows.join('\n');
 }
-const TABLE = joukowskiTable(161, 0.1);
+const TABLE = joukowskiTable(161);
 const REYNOLDS = 1e7;
 // A tag per run keeps the titles unique when the test runs again on the same database.
 const RUN = Date.now().toString(36);
