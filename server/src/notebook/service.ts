@@ -154,102 +154,102 @@ export class NotebookService {
     return this.view(this.db, ctx, await draftRow(this.db, ctx.branch.id, false));
   }
 
-/**
- * Autosave with optimistic concurrency: the draft row is locked, and a save based on another revision
- * than the current one is refused with 409 carrying the current draft, so nothing is overwritten
- * silently. Cells a save leaves out go to the trash; output keys are the server's and are carried over
- * from the stored cells (or from the trash when a cell is brought back), never taken from the client.
- */
+  /**
+   * Autosave with optimistic concurrency: the draft row is locked, and a save based on another revision
+   * than the current one is refused with 409 carrying the current draft, so nothing is overwritten
+   * silently. Cells a save leaves out go to the trash; output keys are the server's and are carried over
+   * from the stored cells (or from the trash when a cell is brought back), never taken from the client.
+   */
   async saveDraft(ctx: BranchContext, actor: SessionUser, body: SaveDraftBody): Promise<DraftDoc> {
-  const seen = new Map<string, number>();
-  body.cells.forEach((cell, i) => {
-    if (seen.has(cell.cellId)) throw badRequest(`cells[${i}].cellId: the cell ${cell.cellId} is in the draft twice (also at cells[${seen.get(cell.cellId)}])`, `cells[${i}].cellId`);
-    seen.set(cell.cellId, i);
-  });
-  return this.db.transaction(async (tx) => {
-    const row = await draftRow(tx, ctx.branch.id, true);
-    if (row.revision !== body.baseRevision) {
-      throw conflict(
-        `The draft is at revision ${row.revision}; this save was based on revision ${body.baseRevision}. Nothing was saved: merge your edits into the current draft and save again.`,
-        { baseRevision: body.baseRevision, currentRevision: row.revision, current: draftObject(await this.view(tx, ctx, row)) },
-      );
-    }
-    const old = row.cells as StoredCell[];
-    const oldById = new Map(old.map((c) => [c.cellId, c]));
-    const trashById = new Map((row.trash as TrashEntry[]).map((t) => [t.cellId, t]));
-
-    // Cell ids are the study's own: a new id is registered, a known id keeps its kind.
-    const ids = body.cells.map((c) => c.cellId);
-    // Cells already in this draft or its trash are registered to this study with their kind.
-    const knownById = new Map<string, { id: string; studyId: string; kind: string }>();
-    for (const c of [...old, ...(row.trash as TrashEntry[])]) knownById.set(c.cellId, { id: c.cellId, studyId: ctx.study.id, kind: c.kind });
-    const unknown = ids.filter((id) => !knownById.has(id));
-    if (unknown.length) for (const c of await tx.select().from(cellsTable).where(inArray(cellsTable.id, unknown))) knownById.set(c.id, c);
+    const seen = new Map<string, number>();
     body.cells.forEach((cell, i) => {
-      const k = knownById.get(cell.cellId);
-      if (k && k.studyId !== ctx.study.id) throw badRequest(`cells[${i}].cellId: this id belongs to another study; give the new cell an id of its own`, `cells[${i}].cellId`);
-      if (k && k.kind !== cell.kind) throw badRequest(`cells[${i}].kind: the cell is a ${CELL_KIND_LABELS[k.kind as CellKind] ?? k.kind} and keeps its kind; add a new cell instead`, `cells[${i}].kind`);
+      if (seen.has(cell.cellId)) throw badRequest(`cells[${i}].cellId: the cell ${cell.cellId} is in the draft twice (also at cells[${seen.get(cell.cellId)}])`, `cells[${i}].cellId`);
+      seen.set(cell.cellId, i);
     });
+    return this.db.transaction(async (tx) => {
+      const row = await draftRow(tx, ctx.branch.id, true);
+      if (row.revision !== body.baseRevision) {
+        throw conflict(
+          `The draft is at revision ${row.revision}; this save was based on revision ${body.baseRevision}. Nothing was saved: merge your edits into the current draft and save again.`,
+          { baseRevision: body.baseRevision, currentRevision: row.revision, current: draftObject(await this.view(tx, ctx, row)) },
+        );
+      }
+      const old = row.cells as StoredCell[];
+      const oldById = new Map(old.map((c) => [c.cellId, c]));
+      const trashById = new Map((row.trash as TrashEntry[]).map((t) => [t.cellId, t]));
 
-    const next: StoredCell[] = body.cells.map((cell) => {
-      const before = oldById.get(cell.cellId) ?? trashById.get(cell.cellId);
-      return {
-        cellId: cell.cellId,
-        kind: cell.kind,
-        title: cell.title,
-        collapsed: cell.collapsed,
-        inputs: cell.inputs,
-        lastOutputKey: before?.lastOutputKey ?? null,
-        lastGoodOutputKey: before?.lastGoodOutputKey ?? null,
-      };
+      // Cell ids are the study's own: a new id is registered, a known id keeps its kind.
+      const ids = body.cells.map((c) => c.cellId);
+      // Cells already in this draft or its trash are registered to this study with their kind.
+      const knownById = new Map<string, { id: string; studyId: string; kind: string }>();
+      for (const c of [...old, ...(row.trash as TrashEntry[])]) knownById.set(c.cellId, { id: c.cellId, studyId: ctx.study.id, kind: c.kind });
+      const unknown = ids.filter((id) => !knownById.has(id));
+      if (unknown.length) for (const c of await tx.select().from(cellsTable).where(inArray(cellsTable.id, unknown))) knownById.set(c.id, c);
+      body.cells.forEach((cell, i) => {
+        const k = knownById.get(cell.cellId);
+        if (k && k.studyId !== ctx.study.id) throw badRequest(`cells[${i}].cellId: this id belongs to another study; give the new cell an id of its own`, `cells[${i}].cellId`);
+        if (k && k.kind !== cell.kind) throw badRequest(`cells[${i}].kind: the cell is a ${CELL_KIND_LABELS[k.kind as CellKind] ?? k.kind} and keeps its kind; add a new cell instead`, `cells[${i}].kind`);
+      });
+
+      const next: StoredCell[] = body.cells.map((cell) => {
+        const before = oldById.get(cell.cellId) ?? trashById.get(cell.cellId);
+        return {
+          cellId: cell.cellId,
+          kind: cell.kind,
+          title: cell.title,
+          collapsed: cell.collapsed,
+          inputs: cell.inputs,
+          lastOutputKey: before?.lastOutputKey ?? null,
+          lastGoodOutputKey: before?.lastGoodOutputKey ?? null,
+        };
+      });
+      const nextIds = new Set(ids);
+      const unchanged = next.length === old.length && next.every((c, i) => c.cellId === old[i]!.cellId && editable(c) === editable(old[i]!));
+      if (unchanged) return this.view(tx, ctx, row);
+
+      const now = new Date().toISOString();
+      const removed = old.filter((c) => !nextIds.has(c.cellId));
+      const trash: TrashEntry[] = [
+        ...removed.map((c) => ({ ...c, deletedAt: now, deletedBy: actor.id })),
+        ...(row.trash as TrashEntry[]).filter((t) => !nextIds.has(t.cellId) && !removed.some((r) => r.cellId === t.cellId)),
+      ].slice(0, TRASH_LIMIT);
+
+      const fresh = body.cells.filter((c) => !knownById.has(c.cellId));
+      if (fresh.length) {
+        await tx
+          .insert(cellsTable)
+          .values(fresh.map((c) => ({ id: c.cellId, studyId: ctx.study.id, kind: c.kind, createdBy: actor.id })))
+          .onConflictDoNothing();
+      }
+      const [updated] = await tx
+        .update(drafts)
+        .set({ revision: row.revision + 1, cells: next, trash, updatedBy: actor.id, updatedAt: sql`now()` })
+        .where(eq(drafts.branchId, ctx.branch.id))
+        .returning();
+      await tx.update(studies).set({ updatedAt: sql`now()` }).where(eq(studies.id, ctx.study.id));
+
+      const added = next.filter((c) => !oldById.has(c.cellId)).map((c) => c.cellId);
+      const edited = next.filter((c) => oldById.has(c.cellId) && editable(c) !== editable(oldById.get(c.cellId)!)).map((c) => c.cellId);
+      const oldOrder = old.filter((c) => nextIds.has(c.cellId)).map((c) => c.cellId);
+      const newOrder = next.filter((c) => oldById.has(c.cellId)).map((c) => c.cellId);
+      // One event per save: the client debounces its autosave, and the event names cells, not their inputs.
+      await audit(tx, {
+        actorId: actor.id,
+        projectId: ctx.projectId,
+        action: 'draft.save',
+        targetType: 'branch',
+        targetId: ctx.branch.id,
+        detail: {
+          studyId: ctx.study.id,
+          revision: updated!.revision,
+          added,
+          removed: removed.map((c) => c.cellId),
+          edited,
+          moved: oldOrder.join() !== newOrder.join(),
+        },
+      });
+      return this.view(tx, ctx, updated!);
     });
-    const nextIds = new Set(ids);
-    const unchanged = next.length === old.length && next.every((c, i) => c.cellId === old[i]!.cellId && editable(c) === editable(old[i]!));
-    if (unchanged) return this.view(tx, ctx, row);
-
-    const now = new Date().toISOString();
-    const removed = old.filter((c) => !nextIds.has(c.cellId));
-    const trash: TrashEntry[] = [
-      ...removed.map((c) => ({ ...c, deletedAt: now, deletedBy: actor.id })),
-      ...(row.trash as TrashEntry[]).filter((t) => !nextIds.has(t.cellId) && !removed.some((r) => r.cellId === t.cellId)),
-    ].slice(0, TRASH_LIMIT);
-
-    const fresh = body.cells.filter((c) => !knownById.has(c.cellId));
-    if (fresh.length) {
-      await tx
-        .insert(cellsTable)
-        .values(fresh.map((c) => ({ id: c.cellId, studyId: ctx.study.id, kind: c.kind, createdBy: actor.id })))
-        .onConflictDoNothing();
-    }
-    const [updated] = await tx
-      .update(drafts)
-      .set({ revision: row.revision + 1, cells: next, trash, updatedBy: actor.id, updatedAt: sql`now()` })
-      .where(eq(drafts.branchId, ctx.branch.id))
-      .returning();
-    await tx.update(studies).set({ updatedAt: sql`now()` }).where(eq(studies.id, ctx.study.id));
-
-    const added = next.filter((c) => !oldById.has(c.cellId)).map((c) => c.cellId);
-    const edited = next.filter((c) => oldById.has(c.cellId) && editable(c) !== editable(oldById.get(c.cellId)!)).map((c) => c.cellId);
-    const oldOrder = old.filter((c) => nextIds.has(c.cellId)).map((c) => c.cellId);
-    const newOrder = next.filter((c) => oldById.has(c.cellId)).map((c) => c.cellId);
-    // One event per save: the client debounces its autosave, and the event names cells, not their inputs.
-    await audit(tx, {
-      actorId: actor.id,
-      projectId: ctx.projectId,
-      action: 'draft.save',
-      targetType: 'branch',
-      targetId: ctx.branch.id,
-      detail: {
-        studyId: ctx.study.id,
-        revision: updated!.revision,
-        added,
-        removed: removed.map((c) => c.cellId),
-        edited,
-        moved: oldOrder.join() !== newOrder.join(),
-      },
-    });
-    return this.view(tx, ctx, updated!);
-  });
   }
 
   /**
@@ -315,7 +315,7 @@ export class NotebookService {
         returning *
       ), logged as (
         insert into ${auditEvents} (${col(auditEvents.actorId)}, ${col(auditEvents.projectId)}, ${col(auditEvents.action)}, ${col(auditEvents.targetType)}, ${col(auditEvents.targetId)}, ${col(auditEvents.detail)})
-        values (${actor.id}, ${ctx.projectId}, 'cells.run', 'branch', ${ctx.branch.id}, ${JSON.stringify(detail)}::jsonb)
+        select ${actor.id}::uuid, ${ctx.projectId}::uuid, 'cells.run', 'branch', ${ctx.branch.id}::text, ${JSON.stringify(detail)}::jsonb from marked
       )
       select * from marked`);
     const r = rows[0];
