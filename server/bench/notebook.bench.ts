@@ -213,7 +213,24 @@ if (isMainThread) {
     say(
       `${String(count).padStart(7)}  ${String(m.run.n).padStart(6)}  ${fmt(m.run.median)}  ${fmt(m.run.p95)}  ${fmt(m.run.max)}  ${fmt(m.save.median)}  ${fmt(m.save.p95)}  ${fmt(m.engine.median)}     ${m.throughput.toFixed(0).padStart(4)}`,
     );
-    say(`         server main-thread CPU: ${m.cpuPerRun.toFixed(1)} ms per run, ${m.cpuPerSave.toFixed(1)} ms per save (per-thread accounting; not inflated by other programs on the cores)`);
+    say(`         server main-thread CPU: ${m.cpuPerRun.toFixed(1)} ms per run, ${m.cpuPerSave.toFixed(1)} ms per save (this thread's own CPU time: it varies less than wall time with what else runs on the cores)`);
     if (count === 20) say(`\n20 clients: p95 ${m.run.p95.toFixed(1)} ms against the target of 50 ms: ${m.run.p95 < 50 ? 'met' : 'NOT met'}`);
+  }
+  // The floor of this machine right now: a signed-in request that does no notebook work at all.
+  for (const count of [1, 20]) {
+    const times: number[] = [];
+    for (let r = 0; r < 10; r++) {
+      times.push(
+        ...(await Promise.all(
+          sessions.slice(0, count).map(async (s) => {
+            const t0 = performance.now();
+            await s.json('/api/me');
+            return performance.now() - t0;
+          }),
+        )),
+      );
+    }
+    const m = stats(times);
+    say(`reference, GET /api/me (session and user only) at ${String(count).padStart(2)} concurrent: median ${m.median.toFixed(1)} ms, p95 ${m.p95.toFixed(1)} ms`);
   }
 }
