@@ -57,6 +57,9 @@ describe('CellThreads', () => {
     await buttonHarness.toggle();
     expect(await panelHarness.isOpen()).toBe(true);
     expect(await panelHarness.getCounts()).toBe('1 open · 1 resolved');
+    // Resolved threads are folded away until asked for.
+    expect(await panelHarness.getThreads()).toHaveLength(1);
+    await panelHarness.showResolved();
     const threads = await panelHarness.getThreads();
     expect(threads).toHaveLength(2);
     expect(await threads[0]!.saysCellChanged()).toBe(true);
@@ -76,14 +79,14 @@ describe('CellThreads', () => {
     const req = http.expectOne((r) => r.method === 'POST' && r.url === `/api/studies/${STUDY_ID}/threads`);
     expect(req.request.body).toEqual({ cellId: CELL_ID, versionId: null, branchId: BRANCH_ID, body: 'Laminar separation bubble here? @Dev Arjunan', anchor: { surface: 'lower', x: 0.35 } });
     req.flush(thread({ id: 'c8d9e0f1-a2b3-4c4d-9e5f-6a7b8c9d0e1f', anchor: { surface: 'lower', x: 0.35 } }));
-    expect(await panelHarness.getThreads()).toHaveLength(3);
+    expect(await panelHarness.getThreads()).toHaveLength(2);
     expect(await (await panelHarness.getNewThreadBox())!.getText()).toBe('');
   });
 
   it('lets a viewer read but offers no box to write in', async () => {
     const { buttonHarness, panelHarness } = await render('viewer');
     await buttonHarness.toggle();
-    expect(await panelHarness.getThreads()).toHaveLength(2);
+    expect(await panelHarness.getThreads()).toHaveLength(1);
     expect(await panelHarness.getNewThreadBox()).toBeNull();
     expect(await panelHarness.getReadOnlyNote()).toBe('You read these comments as viewer.');
   });

@@ -66,14 +66,22 @@ export class CellThreads {
   readonly studyId = input<string | undefined>(undefined);
   readonly versionId = input<string | undefined>(undefined);
   readonly branchId = input<string | undefined>(undefined);
-  /** Surfaces a comment can point at; by default those of the cell's last result. */
+  /** Surfaces a comment can point at; by default those of the cell's result. */
   readonly surfaces = input<readonly string[] | undefined>(undefined);
+  /** The cell's result where it is not in the notebook's draft (a saved version's stored output). */
+  readonly result = input<unknown>(undefined);
 
   private readonly newBox = viewChild<CommentBox>('newBox');
 
   protected readonly review = cellReviewContext({ cellId: this.cellId, studyId: this.studyId, versionId: this.versionId, branchId: this.branchId });
   protected readonly open = computed(() => this.store.openCellIds().has(this.cellId()));
   protected readonly resolvedCount = computed(() => this.review.threads().length - this.review.openCount());
+  /** Resolved threads stay folded away until asked for (a thread a link points at is always shown). */
+  protected readonly showResolved = signal(false);
+  protected readonly shownThreads = computed(() =>
+    this.showResolved() ? this.review.threads() : this.review.threads().filter((t) => !t.resolved || t.id === this.linkedThread()),
+  );
+  protected readonly hiddenResolved = computed(() => this.review.threads().length - this.shownThreads().length);
   protected readonly readOnlyNote = computed(() => {
     const access = this.review.access();
     return access && !this.review.canComment() ? `You read these comments as ${roleLabel(access.role, access.siteAdmin).toLowerCase()}.` : null;
@@ -82,7 +90,7 @@ export class CellThreads {
     const given = this.surfaces();
     if (given?.length) return given;
     const cell = this.session?.cells().find((c) => c.cellId === this.cellId());
-    const found = resultSurfaces(cell?.output?.result ?? cell?.lastGoodOutput?.result ?? null);
+    const found = resultSurfaces(this.result() ?? cell?.output?.result ?? cell?.lastGoodOutput?.result ?? null);
     return found.length ? found : ['upper', 'lower'];
   });
 

@@ -14,7 +14,7 @@ import { ReviewStateTag } from './review-state';
   template: `
     @if (head(); as head) {
       <a class="review-link" [routerLink]="['/studies', studyId(), 'versions', head.summary.versionId]" [attr.aria-label]="'Review of version ' + head.summary.versionNumber">
-        <span class="label">Review of v{{ head.summary.versionNumber }}</span>
+        <span class="label">Review</span>
         <lam-review-state [summary]="head.summary" [branchName]="head.branchName" />
       </a>
     }

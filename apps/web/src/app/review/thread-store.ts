@@ -1,5 +1,5 @@
 import { Injectable, type Signal, type WritableSignal, inject, signal } from '@angular/core';
-import type { Member, Problem, Study, Thread } from '@laminote/contracts';
+import type { Member, Problem, Study, StudyReview, Thread } from '@laminote/contracts';
 import { catchError, shareReplay, switchMap, throwError, type Observable } from 'rxjs';
 import { toProblem } from '../core/problem';
 import { ProjectApi } from '../shared/project-api';
@@ -36,6 +36,7 @@ export class ThreadStore {
   private readonly openCells = signal<ReadonlySet<string>>(new Set());
   private readonly memberLists = new Map<string, Observable<Member[]>>();
   private readonly studyInfo = new Map<string, Observable<Study>>();
+  private readonly studyReviews = new Map<string, Observable<StudyReview>>();
 
   /** The threads of a study from a view; loads them the first time (and again when they are old). */
   view(studyId: string, view: ReviewView): ThreadsOfView {
@@ -92,6 +93,15 @@ export class ThreadStore {
   /** The study (for its project), asked once per study. */
   study(studyId: string): Observable<Study> {
     return this.cached(this.studyInfo, studyId, () => this.studies.get(studyId));
+  }
+
+  /** Every version's review summary of a study, asked once until `forgetReview` (after a request or verdict). */
+  studyReview(studyId: string): Observable<StudyReview> {
+    return this.cached(this.studyReviews, studyId, () => this.api.studyReview(studyId));
+  }
+
+  forgetReview(studyId: string): void {
+    this.studyReviews.delete(studyId);
   }
 
   /** The members of the study's project, for @-mentions (asked once per study). */

@@ -93,6 +93,7 @@ export class VersionReview {
 
   private done(review: VersionReviewDetail, message: string): void {
     this.answered.set(review);
+    this.store.forgetReview(this.studyId());
     this.busy.set(false);
     this.notifier.done(message);
   }

@@ -16,6 +16,7 @@ import { BranchDialog, type BranchDialogData, type VersionRef } from './branch-d
 import { type HistoryChoice, HistoryDrawer, type HistoryDrawerData } from './history-drawer';
 import { SaveVersionDialog, type SaveVersionData } from './save-version-dialog';
 import { VersionApi } from './version-api';
+import { StudyReviewState } from '../review/study-review-state';
 
 /**
  * The notebook header's version bar: which branch this is (and a switch to the others), its head
@@ -26,7 +27,7 @@ import { VersionApi } from './version-api';
  */
 @Component({
   selector: 'lam-version-bar',
-  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, MatTooltipModule, RouterLink],
+  imports: [StudyReviewState, MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, MatTooltipModule, RouterLink],
   templateUrl: './version-bar.html',
   styleUrl: './version-bar.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -202,6 +202,13 @@ export class CellThreadsHarness extends ComponentHarness {
     return this.locatorForAll(CommentThreadHarness)();
   }
 
+  /** Unfolds the resolved threads (folded away by default). */
+  async showResolved(): Promise<void> {
+    const button = await this.locatorForOptional(MatButtonHarness.with({ selector: '.show-resolved' }))();
+    if (!button) throw new Error('No resolved threads are folded away here');
+    await button.click();
+  }
+
   async getReadOnlyNote(): Promise<string | null> {
     const note = await this.readOnly();
     return note ? note.text() : null;
