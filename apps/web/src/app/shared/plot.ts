@@ -1,5 +1,5 @@
 import { NgComponentOutlet } from '@angular/common';
-import { ChangeDetectionStrategy, Component, InjectionToken, type Type, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, InjectionToken, type Type, afterNextRender, computed, inject, input, signal } from '@angular/core';
 
 /** One line or set of markers on a plot. `y` may hold nulls where a quantity is undefined. */
 export interface PlotTrace {
@@ -147,8 +147,9 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
 }
 
 /**
- * A plot, drawn by plotly.js through angular-plotly.js. The library is fetched the first time a plot is
- * shown, in a chunk of its own, so the first screen never waits for it.
+ * A plot, drawn by plotly.js through angular-plotly.js. The library is fetched the first time a plot
+ * comes near the screen, in a chunk of its own, so the first screen never waits for it and a long
+ * study does not draw plots nobody has scrolled to yet.
  */
 @Component({
   selector: 'lam-plot',
@@ -159,7 +160,7 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
     } @else if (failed()) {
       <p class="placeholder" role="alert">The plot could not be drawn: {{ failed() }}</p>
     } @else {
-      <p class="placeholder" [style.height.px]="height()">Loading the plot…</p>
+      <p class="placeholder" [style.height.px]="height()">Plot is drawn when it comes into view…</p>
     }
   `,
   styles: `
@@ -195,8 +196,33 @@ export class Plot {
     return { data, layout, config, useResizeHandler: true, style: { width: '100%', height: `${this.height()}px` } };
   });
 
+  private readonly load = inject(PLOT_RENDERER);
+
   constructor() {
-    inject(PLOT_RENDERER)()
+    const host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
+    const destroyRef = inject(DestroyRef);
+    afterNextRender(() => {
+      if (typeof IntersectionObserver === 'undefined') {
+        this.draw();
+        return;
+      }
+      // Drawn once it is within a screen's height of the viewport.
+      const observer = new IntersectionObserver(
+        (entries) => {
+          if (entries.some((e) => e.isIntersecting)) {
+            observer.disconnect();
+            this.draw();
+          }
+        },
+        { rootMargin: '100% 0px' },
+      );
+      observer.observe(host);
+      destroyRef.onDestroy(() => observer.disconnect());
+    });
+  }
+
+  private draw(): void {
+    this.load()
       .then((component) => this.renderer.set(component))
       .catch((error: unknown) => this.failed.set(error instanceof Error ? error.message : String(error)));
   }
