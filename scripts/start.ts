@@ -41,7 +41,8 @@ async function main(): Promise<void> {
     log('installing dependencies (npm ci) …');
     execFileSync('npm', ['ci', '--no-audit', '--no-fund'], { cwd: ROOT, stdio: 'inherit' });
   }
-  for (const [name, port] of [['app', PORT], ['identity provider', OIDC_PORT], ['SMTP sink', SMTP_PORT]] as const) {
+  const sinkHttpPort = Number(process.env['SMTP_SINK_HTTP_PORT'] ?? 2526);
+  for (const [name, port] of [['app', PORT], ['identity provider', OIDC_PORT], ['SMTP sink', SMTP_PORT], ['SMTP sink web page', sinkHttpPort]] as const) {
     if (!(await portIsFree(HOST, port))) throw new Error(`port ${port} (${name}) is in use: is Laminote already running? Stop it, or set another port.`);
   }
   if (webBuildIsCurrent()) log('web app build is current');

@@ -12,10 +12,11 @@ export function sessionMiddleware(config: Config, pool: pg.Pool) {
   return session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+    // No write per request: a session lasts SESSION_TTL_HOURS from sign-in, and reads stay reads.
+    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60, disableTouch: true }),
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    rolling: false,
     proxy: secure,
     cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: config.SESSION_TTL_HOURS * 3600_000, path: '/' },
   });
