@@ -49,9 +49,11 @@ async function personPage(role: 'reviewer' | 'engineer'): Promise<Page> {
   return page;
 }
 
-/** The notebook's analysis cell (its kind label), which the demo study has exactly one of. */
+/** The demo study's transition-analysis cell (seeded by server/src/notebook/demo-filler.ts). */
 function analysisCell(page: Page): Locator {
-  return page.locator('lam-cell-frame').filter({ has: page.locator('.kind-label', { hasText: 'Transition analysis' }) });
+  return page
+    .locator('lam-cell-frame[data-cell-title="Transition and drag at cruise"]')
+    .filter({ has: page.locator('.kind-label', { hasText: 'Transition analysis' }) });
 }
 
 let reviewerPage: Page;
