@@ -385,3 +385,24 @@ export function fieldLabel(kind: CellKind, path: string): string {
   const label = FIELD_LABELS[kind]?.[head!] ?? head!;
   return rest.length ? `${label}: ${rest.join('.')}` : label;
 }
+
+/** How the notebook words the choices an input field holds ("closedLoop" reads "closed loop"). */
+export const VALUE_LABELS: Record<string, Record<string, string>> = {
+  mode: { altitude: 'altitude, Mach, length', reynolds: 'Reynolds number', dimensional: 'length, speed, viscosity', radius: 'leading-edge radius', gradient: 'velocity gradient' },
+  turbulenceMode: { nCrit: 'N_crit', intensity: 'turbulence level' },
+  layout: { closedLoop: 'closed loop', surface: 'one surface' },
+  criteria: { eN: 'envelope eᴺ', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
+  parameter: { reynolds: 'Reynolds number', mach: 'Mach number', nCrit: 'N_crit', sweepDeg: 'sweep' },
+  transitionMode: { reynolds: 'Reynolds number', location: 'location' },
+};
+
+export function valueLabel(field: string, value: string): string {
+  return VALUE_LABELS[field.split('.')[0]!]?.[value] ?? value;
+}
+
+/** Field names in the order the notebook shows them for a kind, then any others. */
+export function orderedFields(kind: CellKind, keys: Iterable<string>): string[] {
+  const known = Object.keys(FIELD_LABELS[kind] ?? {});
+  const all = [...keys];
+  return [...known.filter((k) => all.includes(k)), ...all.filter((k) => !known.includes(k))];
+}

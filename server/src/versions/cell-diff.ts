@@ -1,4 +1,4 @@
-import { CELL_INPUT_SCHEMAS, CELL_REFERENCE_FIELDS, fieldLabel, type CellDiff, type CellKind, type FieldChange, type TextDiff } from '@laminote/contracts';
+import { CELL_INPUT_SCHEMAS, CELL_REFERENCE_FIELDS, fieldLabel, orderedFields, valueLabel, type CellDiff, type CellKind, type FieldChange, type TextDiff } from '@laminote/contracts';
 import { diffPressureTables, tableRowCount, type TableInputs } from './table-diff';
 
 /** A cell as a version (or a draft) holds it, enough to compare. */
@@ -42,15 +42,16 @@ export function formatNumber(v: number): string {
   return String(Number(v.toPrecision(6)));
 }
 
-function display(value: Json, titles: Map<string, string>, reference: boolean): string {
+function display(value: Json, titles: Map<string, string>, reference: boolean, field: string): string {
   if (value === undefined || value === null) return '—';
   if (typeof value === 'number') return formatNumber(value);
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (typeof value === 'string') {
     if (reference) return titles.get(value) ?? `a cell no longer in the study (${value.slice(0, 8)})`;
-    return value.length > 120 ? `${value.slice(0, 117)}…` : value;
+    const shown = valueLabel(field, value);
+    return shown.length > 120 ? `${shown.slice(0, 117)}…` : shown;
   }
-  if (Array.isArray(value)) return value.map((v) => display(v, titles, false)).join(', ') || '(none)';
+  if (Array.isArray(value)) return value.map((v) => display(v, titles, false, field)).join(', ') || '(none)';
   return JSON.stringify(value);
 }
 
@@ -72,9 +73,9 @@ function diffInputs(kind: CellKind, a: Record<string, unknown>, b: Record<string
     const p = path.join('.');
     const reference = path.length === 1 && CELL_REFERENCE_FIELDS.has(path[0]!);
     const relative = typeof x === 'number' && typeof y === 'number' && x !== 0 ? (y - x) / Math.abs(x) : null;
-    out.push({ path: p, label: fieldLabel(kind, p), old: x ?? null, new: y ?? null, oldText: display(x, titles, reference), newText: display(y, titles, reference), relative });
+    out.push({ path: p, label: fieldLabel(kind, p), old: x ?? null, new: y ?? null, oldText: display(x, titles, reference, p), newText: display(y, titles, reference, p), relative });
   };
-  for (const k of new Set([...Object.keys(a), ...Object.keys(b)])) if (!skip.has(k)) walk([k], a[k], b[k]);
+  for (const k of orderedFields(kind, new Set([...Object.keys(a), ...Object.keys(b)]))) if (!skip.has(k)) walk([k], a[k], b[k]);
   return out;
 }
 

@@ -1,5 +1,6 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -7,14 +8,14 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { RouterLink } from '@angular/router';
+import { NavigationStart, Router, RouterLink } from '@angular/router';
 import type { VersionSummary } from '@laminote/contracts';
+import { filter } from 'rxjs';
 import { Notifier } from '../core/notifier';
 import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
 import { VersionApi } from './version-api';
 import { REVIEW_LABELS } from './version-labels';
-import { EarlierVerdict } from '../review/earlier-verdict';
 
 export interface HistoryDrawerData {
   readonly studyId: string;
@@ -33,7 +34,7 @@ export type HistoryChoice = { readonly action: 'restore' | 'branch'; readonly ve
  */
 @Component({
   selector: 'lam-history-drawer',
-  imports: [EarlierVerdict, DatePipe, MatButtonModule, MatButtonToggleModule, MatDialogModule, MatIconModule, MatMenuModule, MatProgressBarModule, MatTooltipModule, ProblemBanner, RouterLink],
+  imports: [DatePipe, MatButtonModule, MatButtonToggleModule, MatDialogModule, MatIconModule, MatMenuModule, MatProgressBarModule, MatTooltipModule, ProblemBanner, RouterLink],
   templateUrl: './history-drawer.html',
   styleUrl: './history-drawer.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -61,6 +62,16 @@ export class HistoryDrawer {
     return this.scope() === 'branch' ? history.versions.filter((v) => v.branchId === this.data.branchId) : history.versions;
   });
   protected readonly baselineId = computed(() => this.state().value?.baselineVersionId ?? null);
+
+  constructor() {
+    // A link in the drawer (open, compare) leaves the page the drawer belongs to.
+    inject(Router)
+      .events.pipe(
+        filter((e) => e instanceof NavigationStart),
+        takeUntilDestroyed(),
+      )
+      .subscribe(() => this.dialogRef.close());
+  }
 
   protected choose(action: HistoryChoice['action'], version: VersionSummary): void {
     this.dialogRef.close({ action, version });

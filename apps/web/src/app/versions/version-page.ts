@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { DomSanitizer, type SafeHtml, Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
-import { engineResultSchema, FIELD_LABELS, CELL_REFERENCE_FIELDS, TRANSITION_CRITERIA, type VersionCell } from '@laminote/contracts';
+import { engineResultSchema, FIELD_LABELS, CELL_REFERENCE_FIELDS, TRANSITION_CRITERIA, orderedFields, valueLabel, type VersionCell } from '@laminote/contracts';
 import { CRITERION_LABELS, analysisFigures, summarise } from '../notebook/analysis/analysis-summary';
 import { cellKindInfo } from '../notebook/cell-kinds';
 import { fixed, sci } from '../notebook/format';
@@ -14,30 +14,29 @@ import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { Plot } from '../shared/plot';
 import { ProblemBanner } from '../shared/problem-banner';
-import { CellThreads } from '../review/cell-threads';
-import { CellThreadsButton } from '../review/cell-threads-button';
-import { VersionReview } from '../review/version-review';
 import { VersionApi } from './version-api';
 import { REVIEW_LABELS } from './version-labels';
 
 /** An input as the page shows it: labelled, numbers in engineering notation, cell references by title. */
 function inputRows(cell: VersionCell, titles: Map<string, string>): { label: string; value: string }[] {
   const labels = FIELD_LABELS[cell.kind] ?? {};
-  return Object.entries(cell.inputs)
-    .filter(([key, value]) => !(cell.kind === 'pressure' && key === 'text') && !(cell.kind === 'note' && key === 'markdown') && value !== null && value !== undefined)
-    .map(([key, value]) => ({
-      label: labels[key] ?? key,
-      value:
-        CELL_REFERENCE_FIELDS.has(key) && typeof value === 'string'
-          ? (titles.get(value) ?? 'a cell not in this version')
-          : typeof value === 'number'
-            ? sci(value, 4)
-            : Array.isArray(value)
-              ? value.join(', ')
-              : typeof value === 'object'
-                ? Object.entries(value as Record<string, unknown>).map(([k, v]) => `${k}: ${String(v)}`).join('; ') || '—'
-                : String(value),
-    }));
+  const shown = (key: string, value: unknown): string =>
+    CELL_REFERENCE_FIELDS.has(key) && typeof value === 'string'
+      ? (titles.get(value) ?? 'a cell not in this version')
+      : typeof value === 'number'
+        ? sci(value, 4)
+        : typeof value === 'boolean'
+          ? value
+            ? 'yes'
+            : 'no'
+          : Array.isArray(value)
+            ? value.map((v) => shown(key, v)).join(', ') || '—'
+            : typeof value === 'object' && value !== null
+              ? Object.entries(value as Record<string, unknown>).map(([k, v]) => `${k} ${shown(key, v)}`).join('; ') || '—'
+              : valueLabel(key, String(value));
+  return orderedFields(cell.kind, Object.keys(cell.inputs))
+    .filter((key) => !(cell.kind === 'pressure' && key === 'text') && !(cell.kind === 'note' && key === 'markdown') && cell.inputs[key] !== null && cell.inputs[key] !== undefined)
+    .map((key) => ({ label: labels[key] ?? key, value: shown(key, cell.inputs[key]) }));
 }
 
 /**
@@ -46,7 +45,7 @@ function inputRows(cell: VersionCell, titles: Map<string, string>): { label: str
  */
 @Component({
   selector: 'lam-version-page',
-  imports: [CellThreads, CellThreadsButton, DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, NotFound, Plot, ProblemBanner, RouterLink, VersionReview],
+  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, NotFound, Plot, ProblemBanner, RouterLink],
   templateUrl: './version-page.html',
   styleUrl: './version-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
