@@ -16,6 +16,7 @@ import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
 import { VersionApi } from './version-api';
 import { REVIEW_LABELS } from './version-labels';
+import { EarlierVerdict } from '../review/earlier-verdict';
 
 export interface HistoryDrawerData {
   readonly studyId: string;
@@ -34,7 +35,7 @@ export type HistoryChoice = { readonly action: 'restore' | 'branch'; readonly ve
  */
 @Component({
   selector: 'lam-history-drawer',
-  imports: [DatePipe, MatButtonModule, MatButtonToggleModule, MatDialogModule, MatIconModule, MatMenuModule, MatProgressBarModule, MatTooltipModule, ProblemBanner, RouterLink],
+  imports: [EarlierVerdict, DatePipe, MatButtonModule, MatButtonToggleModule, MatDialogModule, MatIconModule, MatMenuModule, MatProgressBarModule, MatTooltipModule, ProblemBanner, RouterLink],
   templateUrl: './history-drawer.html',
   styleUrl: './history-drawer.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -14,6 +14,9 @@ import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { Plot } from '../shared/plot';
 import { ProblemBanner } from '../shared/problem-banner';
+import { CellThreads } from '../review/cell-threads';
+import { CellThreadsButton } from '../review/cell-threads-button';
+import { VersionReview } from '../review/version-review';
 import { VersionApi } from './version-api';
 import { REVIEW_LABELS } from './version-labels';
 
@@ -45,7 +48,7 @@ function inputRows(cell: VersionCell, titles: Map<string, string>): { label: str
  */
 @Component({
   selector: 'lam-version-page',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, NotFound, Plot, ProblemBanner, RouterLink],
+  imports: [CellThreads, CellThreadsButton, DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, NotFound, Plot, ProblemBanner, RouterLink, VersionReview],
   templateUrl: './version-page.html',
   styleUrl: './version-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
