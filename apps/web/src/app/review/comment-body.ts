@@ -12,7 +12,45 @@ export function renderComment(markdown: string): string {
   return DOMPurify.sanitize(html, { USE_PROFILES: { html: true }, FORBID_TAGS: ['style', 'form', 'input', 'button', 'img', 'iframe'] });
 }
 
-/** A comment's text, rendered. */
+/**
+ * Marks `@Name` of the given people in rendered, already sanitised HTML, in text only (never inside a
+ * tag, a link or code), so mentions read as such.
+ */
+export function markMentions(html: string, names: readonly string[]): string {
+  const wanted = names.filter((n) => n.trim()).sort((a, b) => b.length - a.length);
+  if (wanted.length === 0 || !html.includes('@')) return html;
+  const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  const pattern = new RegExp(`(^|[^\\p{L}\\p{N}_.-])@(${wanted.map(escape).join('|')})(?![\\p{L}\\p{N}_@])`, 'giu');
+  const template = document.createElement('template');
+  template.innerHTML = html;
+  const walker = document.createTreeWalker(template.content, NodeFilter.SHOW_TEXT);
+  const texts: Text[] = [];
+  for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+    if (!(node.parentElement?.closest('a, code, pre') ?? null)) texts.push(node as Text);
+  }
+  for (const text of texts) {
+    const value = text.data;
+    pattern.lastIndex = 0;
+    if (!pattern.test(value)) continue;
+    pattern.lastIndex = 0;
+    const fragment = document.createDocumentFragment();
+    let last = 0;
+    for (const match of value.matchAll(pattern)) {
+      const at = match.index + match[1]!.length;
+      fragment.append(value.slice(last, at));
+      const span = document.createElement('span');
+      span.className = 'mention';
+      span.textContent = `@${match[2]}`;
+      fragment.append(span);
+      last = at + 1 + match[2]!.length;
+    }
+    fragment.append(value.slice(last));
+    text.replaceWith(fragment);
+  }
+  return template.innerHTML;
+}
+
+/** A comment's text, rendered, with the mentioned people marked. */
 @Component({
   selector: 'lam-comment-body',
   template: `<div class="markdown" [innerHTML]="html()"></div>`,
@@ -26,12 +64,15 @@ export function renderComment(markdown: string): string {
     .markdown pre code { background: none; padding: 0; }
     .markdown blockquote { border-left: 3px solid var(--mat-sys-outline-variant); padding-left: 0.75em; color: var(--mat-sys-on-surface-variant); }
     .markdown a { color: var(--mat-sys-primary); }
+    .markdown .mention { color: var(--mat-sys-on-tertiary-container); background: var(--mat-sys-tertiary-container); border-radius: 4px; padding: 0 0.2em; font-weight: 700; }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class CommentBody {
   private readonly sanitizer = inject(DomSanitizer);
   readonly text = input.required<string>();
+  /** Names of the people who can be mentioned (the project's members). */
+  readonly people = input<readonly string[]>([]);
   // DOMPurify has already removed everything unsafe; Angular's own pass would only strip more.
-  protected readonly html = computed((): SafeHtml => this.sanitizer.bypassSecurityTrustHtml(renderComment(this.text())));
+  protected readonly html = computed((): SafeHtml => this.sanitizer.bypassSecurityTrustHtml(markMentions(renderComment(this.text()), this.people())));
 }

@@ -53,6 +53,13 @@ describe('CommentThread', () => {
     expect(first!.text).toContain('Trip at 5 %?');
   });
 
+  it('marks mentions of members in the text, not inside code', async () => {
+    const { harness } = await render(thread({ comments: [comment({ body: '@Dev Arjunan and @dev arjunan, see `@Dev Arjunan` and mail@Dev Arjunan' })] }));
+    const [first] = await harness.getComments();
+    expect(first!.html.match(/<span class="mention">@[^<]+<\/span>/g)).toEqual(['<span class="mention">@Dev Arjunan</span>', '<span class="mention">@dev arjunan</span>']);
+    expect(first!.html).toContain('<code>@Dev Arjunan</code>');
+  });
+
   it('lets only the author edit, and shows the earlier texts of an edited comment', async () => {
     const mine = comment({ id: 'b1c2d3e4-f5a6-4b7c-8d9e-0f1a2b3c4d5e', author: { id: ENGINEER_ID, name: 'Dev Arjunan' }, body: 'Trip stands for the bug-debris strip.', canEdit: true });
     const edited = comment({ editedAt: '2026-03-05T11:00:00.000Z', revisionCount: 2, body: 'Is N_crit 9 right for cruise at FL 370?' });

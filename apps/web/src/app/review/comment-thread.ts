@@ -46,6 +46,7 @@ export class CommentThread {
   private readonly editBox = viewChild<CommentBox>('editBox');
 
   protected readonly origin = computed(() => originLabel(this.thread()));
+  protected readonly people = computed(() => this.members().map((m) => m.name));
   /** A resolved thread shows only its first comment until opened. */
   protected readonly expanded = linkedSignal(() => !this.thread().resolved || this.highlighted());
   protected readonly shown = computed(() => (this.expanded() ? this.thread().comments : this.thread().comments.slice(0, 1)));
