@@ -21,7 +21,7 @@ async function main(): Promise<void> {
     throw err;
   }
   const logger = createLogger(config.LOG_LEVEL);
-  const database = connect(config.DATABASE_URL);
+  const database = connect(config.DATABASE_URL, 10, (err) => logger.warn({ err }, 'an idle database connection was closed'));
   await applyMigrations(database.db);
   const engine = createEnginePool({ threads: config.ENGINE_THREADS });
   const app = createApp({ config, database, logger, oidc: createOidcClient(config), engine });

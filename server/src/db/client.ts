@@ -12,8 +12,11 @@ export interface Database {
   close(): Promise<void>;
 }
 
-export function connect(url: string, max = 10): Database {
+export function connect(url: string, max = 10, onIdleError?: (err: Error) => void): Database {
   const pool = new pg.Pool({ connectionString: url, max });
+  // An idle client can be cut off (database restart, administrator command); the pool drops it and
+  // makes a new one on demand. Without a listener that would crash the process.
+  pool.on('error', (err) => onIdleError?.(err));
   const db = drizzle(pool, { schema });
   return { pool, db, close: () => pool.end() };
 }
