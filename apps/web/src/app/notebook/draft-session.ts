@@ -181,7 +181,7 @@ export class DraftSession {
       kind,
       title: count === 0 ? label : `${label} ${count + 1}`,
       collapsed: false,
-      inputs: defaultInputs(kind),
+      inputs: { ...defaultInputs(kind), ...this.nearestSources(kind, index) },
       runState: 'idle',
       problems: [],
       output: null,
@@ -190,6 +190,21 @@ export class DraftSession {
     this.cellsSignal.update((cells) => [...cells.slice(0, index), cell, ...cells.slice(index)]);
     this.changed();
     return cellId;
+  }
+
+  /** A new cell uses the nearest cells above it of the kinds it needs, as a study is usually read. */
+  private nearestSources(kind: CellKind, index: number): Record<string, string> {
+    const above = this.cellsSignal().slice(0, index).reverse();
+    const nearest = (wanted: CellKind) => above.find((c) => c.kind === wanted)?.cellId;
+    const links: Record<string, string | undefined> =
+      kind === 'analysis'
+        ? { flowCellId: nearest('flow'), pressureCellId: nearest('pressure') }
+        : kind === 'leadingEdge'
+          ? { flowCellId: nearest('flow') }
+          : kind === 'sweep'
+            ? { analysisCellId: nearest('analysis') }
+            : {};
+    return Object.fromEntries(Object.entries(links).filter((entry): entry is [string, string] => entry[1] !== undefined));
   }
 
   /** A copy just below, with a fresh id and no result (it has not been computed as itself). */

@@ -7,7 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
 import type { DraftCell } from '@laminote/contracts';
 import DOMPurify from 'dompurify';
-import { marked } from 'marked';
+import { Marked } from 'marked';
 import { bindCellForm } from '../cell-form';
 import { DraftSession } from '../draft-session';
 
@@ -15,9 +15,21 @@ interface NoteFormValue {
   markdown: string;
 }
 
-/** Markdown to HTML that carries no script, handler or foreign frame (DOMPurify after marked). */
+const ESCAPES: Record<string, string> = { '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' };
+
+/**
+ * Notes are Markdown, not HTML: raw HTML in a note shows as the text it is, so no tag or handler of it
+ * reaches the page's parser (and its content-security policy never has to refuse one).
+ */
+const notes = new Marked({
+  gfm: true,
+  breaks: false,
+  renderer: { html: ({ text }) => text.replace(/[&<>"']/g, (c) => ESCAPES[c]!) },
+});
+
+/** Markdown to HTML that carries no script, handler or foreign frame (marked, then DOMPurify). */
 export function renderMarkdown(markdown: string): string {
-  const html = marked.parse(markdown, { async: false, gfm: true, breaks: false });
+  const html = notes.parse(markdown, { async: false });
   return DOMPurify.sanitize(html, { USE_PROFILES: { html: true }, FORBID_TAGS: ['style', 'form', 'input', 'button'] });
 }
 
