@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input, output } from '@angular/core';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import type { Thread } from '@laminote/contracts';
 
@@ -49,6 +49,8 @@ interface Pin {
 export class AnchorStrip {
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   readonly threads = input.required<readonly Thread[]>();
+  /** A pin was chosen (the thread is brought into view if it is on screen). */
+  readonly picked = output<string>();
 
   protected readonly surfaces = computed(() => {
     const bySurface = new Map<string, Pin[]>();
@@ -68,6 +70,7 @@ export class AnchorStrip {
   });
 
   protected show(threadId: string): void {
+    this.picked.emit(threadId);
     const panel = this.host.nativeElement.parentElement;
     const thread = panel?.querySelector<HTMLElement>(`[data-thread-id="${threadId}"]`);
     thread?.scrollIntoView({ block: 'nearest' });

@@ -54,6 +54,8 @@ describe('CellThreads', () => {
     const { buttonHarness, panelHarness } = await render('reviewer');
     expect(await buttonHarness.getLabel()).toBe('Show comments: 1 open of 2 threads');
     expect(await panelHarness.isOpen()).toBe(false);
+    // Closed, the open thread that points at the plot still shows its pin beside it.
+    expect(await panelHarness.getPins()).toEqual(['x/c 0.420 on upper: Is N_crit 9 right for cruise?']);
     await buttonHarness.toggle();
     expect(await panelHarness.isOpen()).toBe(true);
     expect(await panelHarness.getCounts()).toBe('1 open · 1 resolved');

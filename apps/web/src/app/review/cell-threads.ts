@@ -136,6 +136,14 @@ export class CellThreads {
     });
   }
 
+  /** Unresolved threads that point at the plot, shown beside it while the comments are closed. */
+  protected readonly anchoredOpen = computed(() => this.review.threads().filter((t) => t.anchor && !t.resolved));
+
+  protected openAt(threadId: string): void {
+    this.store.setOpen(this.cellId(), true);
+    setTimeout(() => this.host.nativeElement.querySelector<HTMLElement>(`[data-thread-id="${threadId}"]`)?.scrollIntoView({ block: 'center' }));
+  }
+
   protected close(): void {
     this.store.setOpen(this.cellId(), false);
   }

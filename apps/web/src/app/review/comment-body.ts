@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ViewEncapsulation, computed, inject, input } from '@angular/core';
 import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
 import DOMPurify from 'dompurify';
 import { marked } from 'marked';
@@ -54,17 +54,19 @@ export function markMentions(html: string, names: readonly string[]): string {
 @Component({
   selector: 'lam-comment-body',
   template: `<div class="markdown" [innerHTML]="html()"></div>`,
+  // The rendered HTML comes in through innerHTML, which emulated encapsulation does not reach.
+  encapsulation: ViewEncapsulation.None,
   styles: `
-    :host { display: block; overflow-wrap: anywhere; }
-    .markdown :first-child { margin-top: 0; }
-    .markdown :last-child { margin-bottom: 0; }
-    .markdown p, .markdown ul, .markdown ol, .markdown pre, .markdown blockquote { margin: 0 0 0.5em; }
-    .markdown code { font-family: 'JetBrains Mono', ui-monospace, monospace; font-size: 0.86em; background: var(--mat-sys-surface-container-high); padding: 0 0.25em; border-radius: 3px; }
-    .markdown pre { overflow-x: auto; background: var(--mat-sys-surface-container-high); padding: 0.5em; border-radius: 4px; }
-    .markdown pre code { background: none; padding: 0; }
-    .markdown blockquote { border-left: 3px solid var(--mat-sys-outline-variant); padding-left: 0.75em; color: var(--mat-sys-on-surface-variant); }
-    .markdown a { color: var(--mat-sys-primary); }
-    .markdown .mention { color: var(--mat-sys-on-tertiary-container); background: var(--mat-sys-tertiary-container); border-radius: 4px; padding: 0 0.2em; font-weight: 700; }
+    lam-comment-body { display: block; overflow-wrap: anywhere; }
+    lam-comment-body .markdown > :first-child { margin-top: 0; }
+    lam-comment-body .markdown > :last-child { margin-bottom: 0; }
+    lam-comment-body .markdown :is(p, ul, ol, pre, blockquote) { margin: 0 0 0.5em; }
+    lam-comment-body .markdown code { font-family: 'JetBrains Mono', ui-monospace, monospace; font-size: 0.86em; background: var(--mat-sys-surface-container-high); padding: 0 0.25em; border-radius: 3px; }
+    lam-comment-body .markdown pre { overflow-x: auto; background: var(--mat-sys-surface-container-high); padding: 0.5em; border-radius: 4px; }
+    lam-comment-body .markdown pre code { background: none; padding: 0; }
+    lam-comment-body .markdown blockquote { border-left: 3px solid var(--mat-sys-outline-variant); padding-left: 0.75em; color: var(--mat-sys-on-surface-variant); }
+    lam-comment-body .markdown a { color: var(--mat-sys-primary); }
+    lam-comment-body .markdown .mention { color: var(--mat-sys-on-tertiary-container); background: var(--mat-sys-tertiary-container); border-radius: 4px; padding: 0 0.2em; font-weight: 700; }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
