@@ -14,9 +14,9 @@ import { ThreadStore } from './thread-store';
   imports: [MatIconModule],
   template: `
     @if (earlier(); as e) {
-      <span class="earlier" [attr.data-state]="e.state">
+      <span class="earlier" [attr.data-state]="e.state" [attr.title]="'The verdict was given on version ' + e.versionNumber + ', an older version; this one has none yet'">
         <mat-icon aria-hidden="true">subdirectory_arrow_right</mat-icon>v{{ e.versionNumber }}{{ e.branchName !== branchName() ? ' (' + e.branchName + ')' : '' }}
-        {{ labels[e.state].toLowerCase() }}: applies to that older version
+        {{ labels[e.state].toLowerCase() }} · not this version
       </span>
     }
   `,

@@ -25,7 +25,7 @@ export const REVIEW_STATE_ICONS: Record<ReviewState, string> = {
     </span>
     @if (earlier(); as e) {
       <span class="earlier" [attr.data-state]="e.state">
-        v{{ e.versionNumber }}{{ e.branchName !== branchName() ? ' (' + e.branchName + ')' : '' }} {{ labels[e.state].toLowerCase() }}: applies to that older version
+        <span [attr.title]="'The verdict was given on version ' + e.versionNumber + ', an older version; this one has none yet'">v{{ e.versionNumber }}{{ e.branchName !== branchName() ? ' (' + e.branchName + ')' : '' }} {{ labels[e.state].toLowerCase() }} · not this version</span>
       </span>
     }
   `,
