@@ -178,6 +178,21 @@ describe('saving versions', () => {
     expect(behind.body).toMatchObject({ reason: 'draftChanged', draftRevision: draftBefore.revision });
   });
 
+  it('lets exactly one of two simultaneous saves on the same head through (the branch row is locked)', async () => {
+    const { branchId } = await newStudy('Versions: race');
+    await putDraft(branchId, [flow(randomUUID(), 6e6)]);
+    const [x, y] = await Promise.all([
+      as['lead']!.post(`/api/branches/${branchId}/versions`, { message: 'From the lead', expectedHeadVersionId: null }),
+      as['engineer']!.post(`/api/branches/${branchId}/versions`, { message: 'From the engineer', expectedHeadVersionId: null }),
+    ]);
+    expect([x.status, y.status].sort()).toEqual([201, 409]);
+    const loser = x.status === 409 ? x : y;
+    const winner = x.status === 201 ? x : y;
+    expect(loser.body.currentHead).toMatchObject({ id: winner.body.id, number: 1 });
+    const list = (await as['lead']!.get(`/api/branches/${branchId}/versions`).expect(200)).body as VersionSummary[];
+    expect(list.map((v) => v.number)).toEqual([1]);
+  });
+
   it('names the field at fault in a bad save', async () => {
     const { branchId } = await newStudy('Versions: bad input');
     const res = await as['lead']!.post(`/api/branches/${branchId}/versions`, { message: '  ', expectedHeadVersionId: 'nope' }).expect(400);

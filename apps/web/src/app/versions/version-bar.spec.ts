@@ -141,6 +141,31 @@ describe('VersionBar', () => {
     expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID], { queryParams: { branch: VARIANT_ID } });
   });
 
+  it('restores a version into the open draft after asking, and reopens the draft the server now has', async () => {
+    const { fixture, loader, root } = await render(lead);
+    const session = TestBed.inject(DraftSession);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /History/ }))).click();
+    http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history());
+    await fixture.whenStable();
+    const drawer = await root.getHarness(MatDialogHarness);
+    await (await drawer.getHarness(MatMenuHarness.with({ selector: '[aria-label="More for version 1 of main"]' }))).clickItem({ text: /Restore into the draft/ });
+    await fixture.whenStable();
+
+    const confirm = await root.getHarness(MatDialogHarness.with({ selector: '.mat-mdc-dialog-container:has(lam-confirm-dialog)' }));
+    expect(await confirm.getTitleText()).toBe('Restore version 1?');
+    await (await confirm.getHarness(MatButtonHarness.with({ text: 'Restore into the draft' }))).click();
+    await fixture.whenStable();
+
+    const restore = http.expectOne({ method: 'POST', url: `/api/branches/${MAIN_ID}/draft/restore` });
+    expect(restore.request.body).toEqual({ versionId: V1_ID, baseRevision: 3 });
+    restore.flush({ branchId: MAIN_ID, revision: 4, restoredFromVersionId: V1_ID, cellCount: 1, movedToTrash: [] });
+    const restored = draft([cell('flow', '11111111-2222-4333-8444-555555555501', { title: 'Cruise flow, as in v1', runState: 'current' })], { branchId: MAIN_ID, revision: 4 });
+    http.expectOne(`/api/branches/${MAIN_ID}/draft`).flush(restored);
+    await fixture.whenStable();
+    expect(session.revision()).toBe(4);
+    expect(session.cells().map((c) => c.title)).toEqual(['Cruise flow, as in v1']);
+  });
+
   it('switches branches through the notebook address', async () => {
     const { loader } = await render(lead);
     const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);

@@ -1,4 +1,4 @@
-import { ComponentHarness } from '@angular/cdk/testing';
+import { type BaseHarnessFilters, ComponentHarness, HarnessPredicate } from '@angular/cdk/testing';
 
 /** Text as a person reads it: without the names of the icons the icon font draws from text. */
 function readable(text: string): string {
@@ -78,5 +78,40 @@ export class CellDiffListHarness extends ComponentHarness {
 
   async getItems(): Promise<{ change: string; title: string; fields: string[] }[]> {
     return Promise.all((await this.items()).map(async (i) => ({ change: await i.getChange(), title: await i.getTitle(), fields: await i.getFields() })));
+  }
+}
+
+export class InputRowHarness extends ComponentHarness {
+  static hostSelector = '.inputs > div';
+  private readonly label = this.locatorFor('dt');
+  private readonly value = this.locatorFor('dd');
+
+  async read(): Promise<string> {
+    return `${(await (await this.label()).text()).trim()}: ${(await (await this.value()).text()).trim()}`;
+  }
+}
+
+/** One cell of a saved version on the read-only version page. */
+export class VersionCellHarness extends ComponentHarness {
+  static hostSelector = 'li.cell';
+  private readonly inputs = this.locatorForAll(InputRowHarness);
+  private readonly summary = this.locatorForOptional('table.summary');
+
+  static with(options: BaseHarnessFilters & { label?: string } = {}): HarnessPredicate<VersionCellHarness> {
+    return new HarnessPredicate(VersionCellHarness, options).addOption('label', options.label, async (h, label) => (await (await h.host()).getAttribute('aria-label')) === label);
+  }
+
+  /** Each input as "label: value". */
+  async getInputs(): Promise<string[]> {
+    return Promise.all((await this.inputs()).map((r) => r.read()));
+  }
+
+  async getSummaryText(): Promise<string | null> {
+    const table = await this.summary();
+    return table ? table.text() : null;
+  }
+
+  async getText(): Promise<string> {
+    return (await this.host()).text();
   }
 }
