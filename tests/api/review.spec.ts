@@ -239,6 +239,14 @@ describe('role matrix', () => {
     await me.post(`/api/versions/${v2}/verdicts`, { verdict: 'changes_requested', summary: `Checked by the ${role}` }).expect(verdict);
   });
 
+  it('lets a reviewer comment but not edit cells or save versions', async () => {
+    const draft = await as['reviewer']!.get(`/api/branches/${branchId}/draft`).expect(200);
+    const edit = await as['reviewer']!.put(`/api/branches/${branchId}/draft`, { baseRevision: draft.body.revision, cells: [] }).expect(403);
+    expect(edit.body.detail).toMatch(/reviewer/);
+    await as['reviewer']!.post(`/api/branches/${branchId}/versions`, { message: 'by the reviewer', expectedHeadVersionId: draft.body.basedOnVersionId }).expect(403);
+    await as['viewer']!.put(`/api/branches/${branchId}/draft`, { baseRevision: draft.body.revision, cells: [] }).expect(403);
+  });
+
   it('hides threads, comments and versions of a project from a non-member (404, never 403)', async () => {
     const thread = await startThread(as['reviewer']!, 'Visible to members only');
     const outsider = as['outsider']!;
