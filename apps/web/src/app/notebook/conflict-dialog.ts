@@ -59,7 +59,8 @@ export class ConflictDialog {
   protected readonly keepMineNote = computed(() => {
     const added = this.conflict.theirChanges.filter((c) => c.change === 'added').length;
     const clash = this.conflict.clashing.size > 0 ? ': where you both changed a cell, yours wins' : '';
-    const trash = added > 0 ? `; the ${added === 1 ? 'cell' : `${added} cells`} they added go to “Recently removed”, from where they can be brought back` : '';
+    const trash =
+      added === 0 ? '' : `; ${added === 1 ? 'the cell they added goes' : `the ${added} cells they added go`} to “Recently removed”, from where it can be brought back`;
     return clash + trash;
   });
 }

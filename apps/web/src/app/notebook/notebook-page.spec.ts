@@ -1,5 +1,6 @@
 import { TestBed } from '@angular/core/testing';
 import { HttpTestingController } from '@angular/common/http/testing';
+import { TestKey } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
@@ -196,6 +197,29 @@ describe('NotebookPage', () => {
     await settle();
     const run = http.expectOne({ method: 'POST', url: `/api/branches/${BRANCH_ID}/run` });
     run.flush({ ...saved, revision: 4, ran: [] });
+    await fixture.whenStable();
+  });
+
+  it('moves a cell with Alt+Shift+arrows and runs it with Ctrl+Enter', async () => {
+    const { fixture, loader } = await open(asRole('engineer'));
+    const titles = async () => Promise.all((await loader.getAllHarnesses(CellFrameHarness)).map((f) => f.getTitle()));
+    const pressure = await loader.getHarness(CellFrameHarness.with({ title: 'Outboard Cp (invented)' }));
+    await pressure.pressInTitle({ alt: true, shift: true }, TestKey.UP_ARROW);
+    expect(await titles()).toEqual(['Outboard Cp (invented)', 'Cruise, M 0.78', 'Free transition']);
+    await pressure.pressInTitle({ alt: true, shift: true }, TestKey.DOWN_ARROW);
+    await pressure.pressInTitle({ alt: true, shift: true }, TestKey.DOWN_ARROW);
+    expect(await titles()).toEqual(['Cruise, M 0.78', 'Free transition', 'Outboard Cp (invented)']);
+    await settle();
+    const save = http.expectOne({ method: 'PUT' });
+    expect(save.request.body.cells.map((c: { cellId: string }) => c.cellId)).toEqual([FLOW_ID, ANALYSIS_ID, PRESSURE_ID]);
+    save.flush({ ...stack(), revision: 4, cells: [stack().cells[0], stack().cells[2], stack().cells[1]] });
+    await fixture.whenStable();
+
+    await pressure.pressInTitle({ control: true }, TestKey.ENTER);
+    await settle();
+    const run = http.expectOne({ method: 'POST', url: `/api/branches/${BRANCH_ID}/run` });
+    expect(run.request.body).toEqual({ cellIds: [PRESSURE_ID] });
+    run.flush({ ...stack(), revision: 4, ran: [] });
     await fixture.whenStable();
   });
 

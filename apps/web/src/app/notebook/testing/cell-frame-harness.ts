@@ -1,4 +1,4 @@
-import { type BaseHarnessFilters, ComponentHarness, HarnessPredicate } from '@angular/cdk/testing';
+import { type BaseHarnessFilters, ComponentHarness, HarnessPredicate, type ModifierKeys, type TestKey } from '@angular/cdk/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatMenuHarness } from '@angular/material/menu/testing';
 
@@ -47,6 +47,14 @@ export class CellFrameHarness extends ComponentHarness {
     if (!input) throw new Error('The cell title cannot be edited here');
     await input.clear();
     await input.sendKeys(title);
+  }
+
+  /** Presses a key in the cell's title field, as a keyboard shortcut is pressed while working in the cell. */
+  async pressInTitle(modifiers: ModifierKeys, key: TestKey): Promise<void> {
+    const input = await this.titleInput();
+    if (!input) throw new Error('The cell title cannot be edited here');
+    await input.focus();
+    await input.sendKeys(modifiers, key);
   }
 
   async getKindLabel(): Promise<string> {
