@@ -9,7 +9,7 @@ import { provideTestApp, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
 import { ComparePage } from './compare-page';
 import { CellDiffListHarness, DeltaTableHarness } from './testing/version-harnesses';
-import { STUDY_ID, V1_ID, V2_ID, comparison, history } from './testing/version-fixtures';
+import { STUDY_ID, V1_ID, V2_ID, analysisResult, comparison, history } from './testing/version-fixtures';
 
 describe('ComparePage', () => {
   let http: HttpTestingController;
@@ -65,6 +65,17 @@ describe('ComparePage', () => {
 
     const cells = await loader.getHarness(CellDiffListHarness);
     expect(await cells.getItems()).toEqual([{ change: 'changed', title: 'Cruise flow', fields: ['Reynolds number: 4e6 → 8e6 (+100.0 %)'] }]);
+  });
+
+  it('folds an analysis whose numbers did not change into one line', async () => {
+    const { fixture, loader } = await render({ a: V1_ID, b: V2_ID });
+    const c = comparison();
+    const same = analysisResult();
+    const unchanged = { ...same, cellId: '00000000-0000-4000-8000-0000000000cc', title: 'Lower-speed check', surfaces: same.surfaces.map((s) => ({ ...s, transition: { ...s.transition, b: s.transition.a, delta: 0, shift: 'none' as const, effect: 'neutral' as const }, criteria: [], laminarExtent: { ...s.laminarExtent, b: s.laminarExtent.a }, cd: { ...s.cd, b: s.cd.a }, cdFriction: { ...s.cdFriction, b: s.cdFriction.a } })), flow: { ...same.flow, reynolds: { ...same.flow.reynolds, b: same.flow.reynolds.a } }, cd: { ...same.cd, b: same.cd.a } };
+    http.expectOne((r) => r.url === '/api/compare').flush({ ...c, results: [...c.results, unchanged] });
+    await fixture.whenStable();
+    expect(await loader.getAllHarnesses(DeltaTableHarness)).toHaveLength(1);
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('Same results in A and B.');
   });
 
   it('takes the version before B as A when only B is named, and puts it in the address', async () => {

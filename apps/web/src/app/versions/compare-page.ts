@@ -19,7 +19,7 @@ import { Plot } from '../shared/plot';
 import { ProblemBanner } from '../shared/problem-banner';
 import { StudyApi } from '../shared/study-api';
 import { CellDiffList } from './cell-diff-list';
-import { flowChanges, overlayFigures, surfaceTable, versionLabel } from './compare-view';
+import { flowChanges, overlayFigures, sameResults, surfaceTable, versionLabel } from './compare-view';
 import { VersionApi } from './version-api';
 import { type VersionGroup, VersionPicker } from './version-picker';
 
@@ -91,6 +91,7 @@ export class ComparePage {
     if (!c) return [];
     return c.results.map((r) => ({
       result: r,
+      same: sameResults(r),
       flow: flowChanges(r, (v) => sci(v, 3)),
       surfaces: r.surfaces.map((s) => ({ name: s.name, table: surfaceTable(s), figures: overlayFigures(r, s, c.a, c.b) })),
     }));

@@ -149,3 +149,16 @@ export function flowChanges(result: AnalysisComparison, format: (v: number | nul
     { label: 'N_crit', a: plain(f.nCrit.a, 2), b: plain(f.nCrit.b, 2), changed: f.nCrit.a !== f.nCrit.b },
   ];
 }
+
+/** Whether an analysis gives the same numbers in both versions (nothing to read in its delta table). */
+export function sameResults(r: AnalysisComparison): boolean {
+  const same = (d: Delta) => d.a === d.b;
+  return (
+    r.statusA === r.statusB &&
+    same(r.flow.reynolds) &&
+    same(r.flow.mach) &&
+    same(r.flow.nCrit) &&
+    same(r.cd) &&
+    r.surfaces.every((s) => [s.transition, ...s.criteria, s.laminarExtent, s.cd, s.cdFriction, s.laminarSeparation, s.turbulentSeparation].every(same))
+  );
+}
