@@ -17,6 +17,8 @@ describe('App shell', () => {
   });
 
   afterEach(() => {
+    // While someone is signed in, the top bar asks how many inbox entries are unread.
+    for (const request of http.match('/api/inbox/unread-count')) request.flush({ unreadCount: 0 });
     http.verify();
     document.cookie = 'XSRF-TOKEN=; expires=Thu, 01 Jan 1970 00:00:00 GMT; path=/';
   });
@@ -33,9 +35,11 @@ describe('App shell', () => {
     await signInAs(me());
     const { fixture, loader, element } = await render('/projects');
     http.expectOne('/api/projects').flush([project()]);
+    http.expectOne('/api/inbox/unread-count').flush({ unreadCount: 3 });
     await fixture.whenStable();
 
     expect(element.querySelector('[role="banner"]')?.textContent).toContain('Laminote');
+    expect(element.querySelector('[role="banner"] a[href="/inbox"]')?.getAttribute('aria-label')).toBe('Inbox: 3 unread');
     const menu = await loader.getHarness(MatMenuHarness.with({ selector: '[aria-label="Account: Ines Varga"]' }));
     await menu.open();
     const items = await menu.getItems();

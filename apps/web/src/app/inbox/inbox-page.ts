@@ -4,8 +4,9 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { Router } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import type { Inbox, Notification, NotificationKind } from '@laminote/contracts';
+import { Auth } from '../core/auth';
 import { Notifier } from '../core/notifier';
 import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
@@ -33,7 +34,7 @@ const KIND_WORDS: Record<NotificationKind, string> = {
  */
 @Component({
   selector: 'lam-inbox-page',
-  imports: [DatePipe, MatButtonModule, MatButtonToggleModule, MatIconModule, MatProgressBarModule, NotificationSettings, ProblemBanner],
+  imports: [DatePipe, MatButtonModule, MatButtonToggleModule, MatIconModule, MatProgressBarModule, NotificationSettings, ProblemBanner, RouterLink],
   templateUrl: './inbox-page.html',
   styleUrl: './inbox-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -43,6 +44,9 @@ export class InboxPage {
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   private readonly unread = inject(UnreadCount);
+  /** Site admins also reach the development mail page from here (it exists outside production only). */
+  private readonly auth = inject(Auth);
+  protected readonly siteAdmin = computed(() => this.auth.me()?.user.siteAdmin ?? false);
 
   /** `?settings=1` (the link in every e-mail) scrolls to the notification settings. */
   readonly settings = input<string | undefined>(undefined);
