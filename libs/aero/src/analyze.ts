@@ -29,7 +29,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.0.0';
+export const ENGINE_VERSION = '1.1.0';
 
 /** Shown wherever results are: what these numbers are and what decides instead. */
 export const ENGINE_CAUTION =
@@ -68,6 +68,8 @@ interface SurfaceContext {
   mach: number;
   nCrit: number;
   criteria: readonly TransitionCriterion[];
+  /** The criterion whose location governs, or 'earliest'. */
+  governing: TransitionCriterion | 'earliest';
   turbulent: boolean;
   warnings: string[];
 }
@@ -96,7 +98,10 @@ export function analyzeCase(input: unknown): EngineResult {
       : engineCase.surfaces!.map((surface, index) => surfaceFromArrays(surface, index, flow.mach, warnings));
 
   const criteria = [...new Set(engineCase.criteria)];
-  const context: SurfaceContext = { reynolds: flow.reynolds, mach: flow.mach, nCrit, criteria, turbulent: engineCase.turbulent, warnings };
+  // The envelope e^N method is the primary criterion of laminar-flow design practice; the single-point
+  // correlations are shown beside it as cross-checks unless the case asks otherwise.
+  const governing = engineCase.governing ?? (criteria.includes('eN') ? 'eN' : 'earliest');
+  const context: SurfaceContext = { reynolds: flow.reynolds, mach: flow.mach, nCrit, criteria, governing, turbulent: engineCase.turbulent, warnings };
   const gradients: number[] = [];
   const results = surfaces.map((surface) => analyzeSurface(surface, context, gradients));
 
@@ -379,10 +384,11 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     }
   }
 
-  // The governing transition: the earliest of the criteria, a trip, and laminar separation.
+  // The governing transition: the governing criterion (or the earliest of them), then a trip or laminar
+  // separation ahead of it.
   let transitionS: number | null = null;
   let transitionBy: TransitionCause | null = null;
-  for (const c of criteria) {
+  for (const c of context.governing === 'earliest' ? criteria : [context.governing]) {
     const r = found[c];
     if (r != null && (transitionS === null || r.s < transitionS)) {
       transitionS = r.s;

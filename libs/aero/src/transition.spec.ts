@@ -64,10 +64,24 @@ describe('flat-plate transition against the published correlations', () => {
     expect(Math.abs(relative(reS('granville'), expected))).toBeLessThan(0.005);
   });
 
-  it('the governing location is the earliest criterion', () => {
-    const earliest = Object.entries(plate.transition.criteria).reduce((a, b) => (b[1]!.s < a[1]!.s ? b : a));
-    expect(plate.transition.by).toBe(earliest[0]);
-    expect(plate.transition.s).toBe(earliest[1]!.s);
+  it('e^N governs by default when it is chosen; the other criteria are cross-checks', () => {
+    expect(plate.transition.by).toBe('eN');
+    expect(plate.transition.s).toBe(plate.transition.criteria.eN!.s);
+  });
+
+  it('`governing: earliest` takes the shortest laminar run of the chosen criteria', () => {
+    const earliestCase = analyzeCase({ flow: { reynolds }, governing: 'earliest', turbulent: false, surfaces: [{ name: 'plate', s, ue: s.map(() => 1) }] }).surfaces[0];
+    const earliest = Object.entries(earliestCase.transition.criteria).reduce((a, b) => (b[1]!.s < a[1]!.s ? b : a));
+    expect(earliestCase.transition.by).toBe(earliest[0]);
+    expect(earliestCase.transition.s).toBe(earliest[1]!.s);
+    // On a flat plate at N_crit = 9 Michel's line is crossed ahead of e^N (both computed above).
+    expect(earliestCase.transition.s!).toBeLessThan(plate.transition.s!);
+  });
+
+  it('a named governing criterion must be among the chosen ones; without e^N the earliest governs', () => {
+    expect(() => analyzeCase({ flow: { reynolds }, criteria: ['michel'], governing: 'eN', surfaces: [{ name: 'plate', s, ue: s.map(() => 1) }] })).toThrow(/governing/);
+    const noEN = analyzeCase({ flow: { reynolds }, criteria: ['michel', 'granville'], turbulent: false, surfaces: [{ name: 'plate', s, ue: s.map(() => 1) }] }).surfaces[0];
+    expect(noEN.transition.by).toBe('michel');
   });
 });
 

@@ -160,6 +160,11 @@ export const engineCaseSchema = z
     /** Closed-loop `x [y] cp` table from the trailing edge over one side to the other. */
     pressureTable: z.string().max(ENGINE_LIMITS.maxTableCharacters, { error: `longer than ${ENGINE_LIMITS.maxTableCharacters} characters (limit)` }).optional(),
     criteria: z.array(z.enum(TRANSITION_CRITERIA)).default([...TRANSITION_CRITERIA]),
+    /**
+     * Which criterion sets the governing transition: one of the chosen criteria, or `earliest` (the
+     * shortest laminar run any of them predicts). Absent: e^N when it is chosen, else the earliest.
+     */
+    governing: z.enum(['earliest', ...TRANSITION_CRITERIA]).optional(),
     /** Leading-edge sweep in degrees, for the attachment-line check. */
     sweepDeg: z.number().gt(-90, { error: 'sweepDeg must lie between -90 and 90' }).lt(90, { error: 'sweepDeg must lie between -90 and 90' }).default(0),
     /** Leading-edge radius normal to the leading edge (divided by L), for the attachment-line check. */
@@ -170,6 +175,9 @@ export const engineCaseSchema = z
   .superRefine((engineCase, ctx) => {
     const hasSurfaces = engineCase.surfaces !== undefined && engineCase.surfaces.length > 0;
     const hasTable = engineCase.pressureTable !== undefined && engineCase.pressureTable.trim() !== '';
+    if (engineCase.governing && engineCase.governing !== 'earliest' && !engineCase.criteria.includes(engineCase.governing)) {
+      ctx.addIssue({ code: 'custom', path: ['governing'], message: `governing criterion "${engineCase.governing}" is not among the chosen criteria` });
+    }
     if (!hasSurfaces && !hasTable) {
       ctx.addIssue({ code: 'custom', path: ['surfaces'], message: 'nothing to analyse: give surfaces or a pressureTable' });
     } else if (hasSurfaces && hasTable) {

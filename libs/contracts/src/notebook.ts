@@ -86,6 +86,11 @@ export const analysisInputsSchema = z.object({
    */
   trips: z.record(z.string(), finite('trip').min(0, 'a trip location must not be negative')).default({}),
   turbulent: z.boolean().default(true),
+  /**
+   * Which criterion sets the governing transition: `auto` is e^N when chosen (the others are
+   * cross-checks), else the earliest; `earliest` takes the shortest laminar run of the chosen ones.
+   */
+  governing: z.enum(['auto', 'earliest', ...TRANSITION_CRITERIA_IDS]).default('auto'),
 });
 export type AnalysisInputs = z.infer<typeof analysisInputsSchema>;
 

@@ -19,7 +19,7 @@ describe('engine worker pool', () => {
   it("hands back the engine's message and field for bad input, not an exception", async () => {
     const out = await pool.run({
       kind: 'analysis',
-      inputs: { flowCellId: crypto.randomUUID(), pressureCellId: crypto.randomUUID(), criteria: ['eN'], trips: {}, turbulent: true },
+      inputs: { flowCellId: crypto.randomUUID(), pressureCellId: crypto.randomUUID(), criteria: ['eN'], trips: {}, turbulent: true, governing: 'auto' },
       flow: { mode: 'reynolds', reynolds: 1e6, mach: 0, altitude_m: 0, isaTemperatureOffset_K: 0, referenceLength_m: 1, turbulenceMode: 'nCrit', nCrit: 9, sweepDeg: 0 },
       pressure: { text: 'x cp\n1 0\n0.5 zero\n0 1', uploadId: null, filename: null, layout: 'closedLoop', surfaceName: 'upper', hasRadius: false },
     });

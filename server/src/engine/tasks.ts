@@ -310,7 +310,13 @@ interface PreparedCase {
  * stagnation finder) and handed over as surfaces.
  */
 function prepareCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInputs): PreparedCase {
-  const common = { flow: engineFlow(flow), criteria: a.criteria, turbulent: a.turbulent, sweepDeg: flow.sweepDeg };
+  const common = {
+    flow: engineFlow(flow),
+    criteria: a.criteria,
+    ...(a.governing === 'auto' ? {} : { governing: a.governing }),
+    turbulent: a.turbulent,
+    sweepDeg: flow.sweepDeg,
+  };
   const trips = Object.entries(a.trips);
   if (p.layout === 'closedLoop' && trips.length === 0 && !p.hasRadius) return { engineCase: { ...common, pressureTable: p.text }, xBySurface: null };
 

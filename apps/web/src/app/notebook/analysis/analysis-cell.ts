@@ -8,7 +8,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { ENGINE_CAUTION } from '@laminote/aero';
-import { type DraftCell, type EngineResult, TRANSITION_CRITERIA_IDS, type TransitionCriterion } from '@laminote/contracts';
+import { type AnalysisInputs, type DraftCell, type EngineResult, TRANSITION_CRITERIA_IDS, type TransitionCriterion } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
@@ -26,7 +26,10 @@ interface AnalysisFormValue {
   tripA: string;
   tripB: string;
   turbulent: boolean;
+  governing: Governing;
 }
+
+type Governing = AnalysisInputs['governing'];
 
 /**
  * Transition analysis: the boundary layer marched along each surface of a pressure cell at a flow
@@ -70,6 +73,7 @@ export class AnalysisCell {
     tripA: new FormControl('', { nonNullable: true }),
     tripB: new FormControl('', { nonNullable: true }),
     turbulent: new FormControl(true, { nonNullable: true }),
+    governing: new FormControl<Governing>('auto', { nonNullable: true }),
   });
 
   protected readonly flowCells = computed(() => this.session.cells().filter((c) => c.kind === 'flow'));
@@ -99,6 +103,7 @@ export class AnalysisCell {
         tripA: numberText(trips[a]),
         tripB: b ? numberText(trips[b]) : '',
         turbulent: inputs['turbulent'] !== false,
+        governing: (typeof inputs['governing'] === 'string' ? inputs['governing'] : 'auto') as Governing,
       };
     },
     fromForm: (value, previous) => {
@@ -115,6 +120,7 @@ export class AnalysisCell {
         criteria: TRANSITION_CRITERIA_IDS.filter((id) => value[id]),
         trips,
         turbulent: value.turbulent,
+        governing: value.governing,
       };
     },
     controlOf: (field) => {
