@@ -6,8 +6,9 @@
  * rounds of flow condition, pressure distribution from an exact Joukowski loop, transition analysis,
  * flat-plate estimate and note) and run once, so every cell has its result and its plots. Then the
  * study is opened 5 times cold (a fresh browser context, empty cache) and 5 times warm (reload), and
- * the time from navigation to interactive is measured: all 20 cells drawn with their bodies and the
- * page answering a keystroke in a cell title (the save indicator changes). Target (issue 4): < 1.5 s.
+ * the time from navigation to interactive is measured: all 20 cell frames on the page, the bodies of
+ * the cells on the first screen drawn, and the page answering a keystroke in a cell title (the save
+ * indicator changes). Target (issue 4): < 1.5 s. Also timed: every body drawn, and the plots drawn.
  *
  * It also reports the initial JavaScript of the built app (dist/web/browser: main and its static
  * imports), the notebook route's chunks, and the lazily loaded plot chunks, raw and gzip, and whether
@@ -159,7 +160,9 @@ async function makeStudy(context: BrowserContext): Promise<string> {
 // ── Timing ─────────────────────────────────────────────────────────────────────────────────────
 
 interface Measure {
+  framesMs: number;
   interactiveMs: number;
+  allBodiesMs: number;
   plotsDrawnMs: number | null;
   plotFetchedBeforeInteractive: boolean;
   jsBytes: number;
@@ -169,17 +172,31 @@ async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, r
   const started = Date.now();
   if (reload) await page.reload({ waitUntil: 'commit' });
   else await page.goto(`${APP}/studies/${studyId}`, { waitUntil: 'commit' });
-  await page.waitForFunction((count) => {
-    const frames = document.querySelectorAll('lam-cell-frame');
-    return frames.length === count && [...frames].every((f) => f.querySelector('.body > *') !== null) && document.querySelector('lam-save-indicator') !== null;
-  }, CELLS, { polling: 'raf', timeout: 30_000 });
+  await page.waitForFunction(
+    (count) => {
+      const frames = [...document.querySelectorAll('lam-cell-frame')];
+      const onScreen = frames.filter((f) => f.getBoundingClientRect().top < window.innerHeight);
+      // (No named helper in here: the page gets this function's source without the bundler's helpers.)
+      return (
+        frames.length === count &&
+        onScreen.length > 0 &&
+        onScreen.every((f) => f.querySelector('.body > :not(.body-pending)') !== null) &&
+        document.querySelector('lam-save-indicator') !== null
+      );
+    },
+    CELLS,
+    { polling: 'raf', timeout: 30_000 },
+  );
   // The page answers: a keystroke in a title is taken up and the draft waits to save.
-  const title = page.locator('lam-cell-frame input.title-input').first();
-  await title.press('End');
-  await title.press('Space');
-  await page.locator('lam-save-indicator', { hasText: /waiting|Saving/ }).waitFor({ timeout: 10_000 });
+  const framesMs = Date.now() - started;
+  await page.focus('lam-cell-frame input.title-input');
+  await page.keyboard.press('End');
+  await page.keyboard.press('Space');
+  await page.waitForFunction(() => /waiting|Saving/.test(document.querySelector('lam-save-indicator')?.textContent ?? ''), undefined, { polling: 'raf', timeout: 10_000 });
   const interactiveMs = Date.now() - started;
-  await title.press('Backspace');
+  await page.keyboard.press('Backspace');
+  await page.waitForFunction(() => document.querySelectorAll('.body-pending').length === 0, undefined, { polling: 'raf', timeout: 30_000 });
+  const allBodiesMs = Date.now() - started;
   const resources = await page.evaluate(() =>
     performance.getEntriesByType('resource').map((r) => ({ name: (r as PerformanceResourceTiming).name, end: r.responseEnd, size: (r as PerformanceResourceTiming).encodedBodySize })),
   );
@@ -195,7 +212,9 @@ async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, r
   // Wait for the title's own save, so the next round starts from a saved draft.
   await page.locator('lam-save-indicator', { hasText: 'All edits saved' }).waitFor({ timeout: 10_000 });
   return {
+    framesMs,
     interactiveMs,
+    allBodiesMs,
     plotsDrawnMs,
     plotFetchedBeforeInteractive: plotEntry !== undefined && plotEntry.end < interactiveAt - (Date.now() - started - interactiveMs),
     jsBytes: resources.filter((r) => r.name.endsWith('.js')).reduce((n, r) => n + r.size, 0),
@@ -236,8 +255,10 @@ try {
 
   out(`Machine at end: ${machine()}`);
   out(`\n${CELLS}-cell study (flow, Joukowski Cp, analysis with 4 plots, flat plate, note ×4), all run, headless chromium:`);
+  out(`  frames and first-screen bodies drawn, cold cache: ${stats(cold.map((m) => m.framesMs))}`);
   out(`  interactive, cold cache: ${stats(cold.map((m) => m.interactiveMs))}   (target < 1500 ms)`);
   out(`  interactive, warm cache: ${stats(warm.map((m) => m.interactiveMs))}`);
+  out(`  every cell body drawn, cold (after a keystroke, which draws them all): ${stats(cold.map((m) => m.allBodiesMs))}`);
   const drawn = cold.map((m) => m.plotsDrawnMs).filter((v): v is number => v !== null);
   if (drawn.length) out(`  plots drawn (after the lazy chunk), cold: ${stats(drawn)}`);
   out(`  JS fetched by a cold open (encoded): ${kb(cold[0]!.jsBytes)}`);

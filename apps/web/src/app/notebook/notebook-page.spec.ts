@@ -223,6 +223,17 @@ describe('NotebookPage', () => {
     await fixture.whenStable();
   });
 
+  it('draws every frame of a long study at once and the bodies below the first screen soon after', async () => {
+    const cells = Array.from({ length: 9 }, (_, i) => cell('note', `11111111-2222-4333-8444-5555555556${String(i).padStart(2, '0')}`, { title: `Note ${i + 1}`, inputs: { markdown: `Reading ${i + 1}` } }));
+    const { fixture, loader } = await open(asRole('engineer'), draft(cells));
+    expect(await loader.getAllHarnesses(CellFrameHarness)).toHaveLength(9);
+    await fixture.whenStable();
+    const frames = await loader.getAllHarnesses(CellFrameHarness);
+    expect(await frames[8].isCollapsed()).toBe(false);
+    expect((fixture.nativeElement as HTMLElement).querySelectorAll('.body-pending')).toHaveLength(0);
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('Reading 9');
+  });
+
   for (const role of ['viewer', 'reviewer'] as const) {
     it(`gives a ${role} a read-only notebook`, async () => {
       const { loader } = await open(asRole(role));

@@ -5,11 +5,13 @@ import {
   Component,
   ElementRef,
   Injector,
+  PendingTasks,
   afterNextRender,
   computed,
   effect,
   inject,
   input,
+  signal,
   viewChildren,
 } from '@angular/core';
 import { MatBottomSheet } from '@angular/material/bottom-sheet';
@@ -52,6 +54,10 @@ interface OpenedStudy {
   readonly branch: Branch;
   readonly draft: Draft;
 }
+
+/** Cell bodies drawn with the first screen; the rest follow in small batches while the browser is idle. */
+const FIRST_BODIES = 3;
+const BODIES_PER_BATCH = 2;
 
 /** `?branch=` names a branch by id or by name; without it the study opens on `main`. */
 function pickBranch(branches: Branch[], wanted: string | undefined): Branch | undefined {
@@ -175,13 +181,23 @@ export class NotebookPage {
   protected readonly cells = this.session.cells;
   protected readonly runnableCount = computed(() => this.cells().filter((cell) => cellKindInfo(cell.kind).runs).length);
 
+  /**
+   * How many cells, from the top, have their bodies drawn. A long study shows every frame at once and
+   * the bodies of the first screen, then draws the others a few at a time between the person's input,
+   * so the page answers at once. A cell the person adds, copies, brings back or goes to is drawn at once.
+   */
+  protected readonly bodiesShown = signal(FIRST_BODIES);
+  private readonly pendingTasks = inject(PendingTasks);
+
   private readonly addControls = viewChildren(AddCell);
   private conflictRef: MatDialogRef<ConflictDialog, ConflictChoice> | null = null;
 
   constructor() {
     effect(() => {
       const opened = this.opened();
-      if (opened) this.session.open(opened.branch.id, opened.draft);
+      if (!opened) return;
+      this.session.open(opened.branch.id, opened.draft);
+      this.drawBodiesProgressively(opened.draft.cells.length);
     });
     effect(() => {
       this.session.editable.set(this.editable());
@@ -200,7 +216,28 @@ export class NotebookPage {
     this.opening.reload();
   }
 
+  private drawBodiesProgressively(count: number): void {
+    this.bodiesShown.set(FIRST_BODIES);
+    if (count <= FIRST_BODIES) return;
+    // The page counts as busy until every body is drawn (tests and whenStable wait for it).
+    const done = this.pendingTasks.add();
+    const idle = (next: () => void) =>
+      typeof requestIdleCallback === 'function' ? requestIdleCallback(next, { timeout: 500 }) : setTimeout(next, 16);
+    const step = () => {
+      if (this.bodiesShown() >= count) return done();
+      this.bodiesShown.update((n) => n + BODIES_PER_BATCH);
+      afterNextRender(() => idle(step), { injector: this.injector });
+    };
+    afterNextRender(() => idle(step), { injector: this.injector });
+  }
+
   // ── Cell actions ─────────────────────────────────────────────────────────────────────────────
+
+  /** Draws the bodies of every cell down to this one. */
+  private drawDownTo(cellId: string): void {
+    const index = this.cells().findIndex((cell) => cell.cellId === cellId);
+    this.bodiesShown.update((shown) => Math.max(shown, index + 1));
+  }
 
   protected add(kind: CellKind, index: number): void {
     const cellId = this.session.add(kind, index);
@@ -328,6 +365,7 @@ export class NotebookPage {
 
   /** Puts the focus in a cell once it is on screen: on its first field, or on the frame itself. */
   private focusCell(cellId: string, inside?: string): void {
+    this.drawDownTo(cellId);
     afterNextRender(
       () => {
         const frame = this.host.nativeElement.querySelector<HTMLElement>(`lam-cell-frame[data-cell-id="${cellId}"]`);

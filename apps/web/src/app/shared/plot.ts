@@ -206,15 +206,17 @@ export class Plot {
         this.draw();
         return;
       }
-      // Drawn once it is within a screen's height of the viewport.
+      // Drawn once it is within half a screen's height of the viewport.
       const observer = new IntersectionObserver(
         (entries) => {
           if (entries.some((e) => e.isIntersecting)) {
             observer.disconnect();
-            this.draw();
+            // The library takes a long task to start: leave the first moments to the person's input.
+            if (typeof requestIdleCallback === 'function') requestIdleCallback(() => this.draw(), { timeout: 2000 });
+            else this.draw();
           }
         },
-        { rootMargin: '100% 0px' },
+        { rootMargin: '50% 0px' },
       );
       observer.observe(host);
       destroyRef.onDestroy(() => observer.disconnect());
