@@ -9,6 +9,7 @@ import { PLOT_COLOURS, Plot, type PlotFigure, type PlotTrace } from '../../share
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../draft-session';
+import { CAUSE_LABELS } from '../analysis/analysis-summary';
 import { sci } from '../format';
 
 type Parameter = SweepInputs['parameter'];
@@ -115,7 +116,8 @@ export class SweepCell {
   protected location(step: SweepResult['steps'][number], name: string): string {
     const surface = step.surfaces.find((s) => s.name === name);
     const at = surface ? (surface.transitionX ?? surface.transitionS) : null;
-    return at === null || at === undefined ? '—' : `${at.toFixed(3)}${surface?.by ? ` (${surface.by})` : ''}`;
+    const by = surface?.by ? (CAUSE_LABELS[surface.by as keyof typeof CAUSE_LABELS] ?? surface.by) : null;
+    return at === null || at === undefined ? '—' : `${at.toFixed(3)}${by ? ` (${by})` : ''}`;
   }
 
   protected cd(value: number | null): string {
