@@ -83,6 +83,7 @@ describe('the study notebook', () => {
     const pressure = await addCell('Pressure distribution', PRESSURE_TITLE);
     const table = pressure.getByLabel(/Cp table/);
     await table.fill(TABLE);
+    await pressure.locator('lam-plot').scrollIntoViewIfNeeded();
     await expect(table.inputValue()).resolves.toBe(TABLE);
     await pressure.getByText('161 points with y').waitFor();
     // A symmetric section at zero incidence stagnates at its nose, x/c = 0.
@@ -126,6 +127,8 @@ describe('the study notebook', () => {
     expect(shown.get('upper')!.at).toBeCloseTo(shown.get('lower')!.at, 2);
 
     await analysis.getByText(/Engineering estimates from integral boundary-layer methods/).waitFor();
+    // Plots are drawn as they come into view, as the person scrolls to them.
+    await analysis.locator('lam-plot[data-plot="cf"]').scrollIntoViewIfNeeded();
     await analysis.locator('lam-plot[data-plot="n"] .main-svg').first().waitFor({ timeout: 30_000 });
     expect(await analysis.locator('lam-plot .main-svg').count()).toBeGreaterThanOrEqual(4);
     // The N-factor plot has its axis titles with what is plotted.
