@@ -169,6 +169,10 @@ export function createIdentityProvider(options: IdentityProviderOptions = {}): I
     }
     res.set({ 'X-Content-Type-Options': 'nosniff', 'Cache-Control': 'no-cache' }).type(asset.type).send(asset.body);
   });
+  // Browsers ask every origin for an icon; answer with nothing rather than a 404 in their console.
+  app.get('/favicon.ico', (_req, res) => {
+    res.status(204).end();
+  });
   app.use(interactionRoutes({ provider, clientId: client.clientId, clientName: CLIENT_NAME, logger, sendPage }));
   app.use(provider.callback());
 

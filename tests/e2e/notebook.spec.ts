@@ -2,7 +2,7 @@ import { analyzeCase } from '@laminote/aero';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInThroughProvider } from '../support/browser';
+import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
 
 /**
  * The notebook in the browser: the demo engineer adds a flow condition, a pressure cell with a pasted
@@ -35,10 +35,7 @@ const problems: string[] = [];
 beforeAll(async () => {
   browser = await launchBrowser();
   page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-  // A content-security-policy violation or a script error is a defect the user would meet.
-  page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
-  page.on('pageerror', (e) => problems.push(e.message));
-  page.on('response', (r) => r.status() >= 400 && !r.url().endsWith('/api/me') && problems.push(`${r.status()} ${r.url()}`));
+  collectPageProblems(page, problems);
 });
 afterAll(async () => browser?.close());
 
@@ -146,6 +143,6 @@ describe('the study notebook', () => {
   });
 
   it('met no script error and no content-security-policy violation', () => {
-    expect(problems.filter((p) => !/status of 401/.test(p) && !/Failed to load resource/.test(p))).toEqual([]);
+    expect(problems).toEqual([]);
   });
 });

@@ -2,7 +2,7 @@ import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { SinkMessage } from '@laminote/contracts';
 import { DEMO_USERS } from '../../oidc-fake/src/users';
-import { launchBrowser, signInThroughProvider } from '../support/browser';
+import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
 import { testEnv } from '../support/env';
 
 /**
@@ -41,10 +41,7 @@ async function personPage(role: 'reviewer' | 'engineer'): Promise<Page> {
   const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
   contexts.push(context);
   const page = await context.newPage();
-  // A failed request is reported with its address by the response handler below.
-  page.on('console', (m) => m.type() === 'error' && !m.text().startsWith('Failed to load resource') && problems.push(`${role}: ${m.text()}`));
-  page.on('pageerror', (e) => problems.push(`${role}: ${e.message}`));
-  page.on('response', (r) => r.status() >= 400 && !r.url().endsWith('/api/me') && problems.push(`${role}: ${r.status()} ${r.url()}`));
+  collectPageProblems(page, problems, role);
   await signInThroughProvider(page, role);
   return page;
 }
@@ -171,6 +168,6 @@ describe('review: comment with a mention → e-mail → reply and resolve → ve
   });
 
   it('met no script error and no failed request', () => {
-    expect(problems.filter((p) => !/favicon/.test(p))).toEqual([]);
+    expect(problems).toEqual([]);
   });
 });

@@ -1,7 +1,7 @@
 import { analyzeCase, inventedDemoSections } from '@laminote/aero';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInThroughProvider } from '../support/browser';
+import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
 
 /**
  * Versions in the browser: the demo lead saves a version of the demo study, branches a variant from
@@ -23,10 +23,7 @@ const problems: string[] = [];
 beforeAll(async () => {
   browser = await launchBrowser();
   page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-  // A content-security-policy violation or a script error is a defect the user would meet.
-  page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
-  page.on('pageerror', (e) => problems.push(e.message));
-  page.on('response', (r) => r.status() >= 400 && !r.url().endsWith('/api/me') && problems.push(`${r.status()} ${r.url()}`));
+  collectPageProblems(page, problems);
 });
 afterAll(async () => browser?.close());
 
@@ -171,6 +168,6 @@ describe('versions, branches and comparison', () => {
   });
 
   it('met no script error and no content-security-policy violation', () => {
-    expect(problems.filter((p) => !/status of 401/.test(p) && !/Failed to load resource/.test(p))).toEqual([]);
+    expect(problems).toEqual([]);
   });
 });

@@ -33,3 +33,15 @@ export async function signInThroughProvider(page: Page, role: 'lead' | 'engineer
   await page.getByRole('button', { name: new RegExp(`Sign in as ${person.name}`) }).click();
   await page.waitForURL((url) => url.href.startsWith(testEnv.appUrl));
 }
+
+/**
+ * Collects what a person would meet as a defect: script errors, content-security-policy violations and
+ * failed requests (the signed-out /api/me probe excepted), each tagged with `label` when given. A failed
+ * request is reported once, with its address, by the response handler.
+ */
+export function collectPageProblems(page: Page, problems: string[], label = ''): void {
+  const tag = label ? `${label}: ` : '';
+  page.on('console', (m) => m.type() === 'error' && !m.text().startsWith('Failed to load resource') && problems.push(`${tag}${m.text()}`));
+  page.on('pageerror', (e) => problems.push(`${tag}${e.message}`));
+  page.on('response', (r) => r.status() >= 400 && !r.url().endsWith('/api/me') && problems.push(`${tag}${r.status()} ${r.url()}`));
+}
