@@ -27,5 +27,5 @@ export function newestMtime(paths: string[]): number {
 export function webBuildIsCurrent(): boolean {
   const index = path.join(WEB_DIST, 'index.html');
   if (!existsSync(index)) return false;
-  return statSync(index).mtimeMs >= newestMtime(['apps/web', 'libs/contracts', 'angular.json', 'package-lock.json']);
+  return statSync(index).mtimeMs >= newestMtime(['apps/web', 'libs/contracts', 'libs/aero/src', 'angular.json', 'package-lock.json']);
 }
