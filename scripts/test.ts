@@ -6,7 +6,8 @@
  *   web   the web app's unit tests through Angular's unit-test builder (vitest)
  *   e2e   browser tests in Debian's chromium against the built app and the real server (project e2e)
  *
- * `npm test -- --only api,e2e` runs a subset.
+ * `npm test -- --only api,e2e` runs a subset; `--files a,b` passes file filters to vitest in every
+ * phase it runs (`npm test -- --only api --files tests/api/notebook.spec.ts`).
  */
 import { spawn } from 'node:child_process';
 import { startTestStack, type TestStack } from './lib/stack';
@@ -17,6 +18,8 @@ type Phase = (typeof PHASES)[number];
 const onlyIndex = process.argv.findIndex((a) => a === '--only' || a.startsWith('--only='));
 const onlyValue = onlyIndex < 0 ? undefined : (process.argv[onlyIndex]!.split('=')[1] ?? process.argv[onlyIndex + 1]);
 const phases = new Set<string>(onlyValue ? onlyValue.split(',') : PHASES);
+const filesIndex = process.argv.findIndex((a) => a === '--files' || a.startsWith('--files='));
+const fileFilters = filesIndex < 0 ? [] : (process.argv[filesIndex]!.split('=')[1] ?? process.argv[filesIndex + 1] ?? '').split(',').filter(Boolean);
 for (const p of phases) if (!(PHASES as readonly string[]).includes(p)) throw new Error(`--only: unknown phase "${p}" (use ${PHASES.join(', ')})`);
 const log = (line: string) => process.stdout.write(`[test] ${line}\n`);
 
@@ -52,9 +55,9 @@ const seed = async (env: NodeJS.ProcessEnv) => {
 
 async function main(): Promise<void> {
   const base: NodeJS.ProcessEnv = { NODE_ENV: 'test', NG_CLI_ANALYTICS: 'false' };
-  if (phases.has('unit')) await run('unit', VITEST, ['run', '--project', 'libs', '--project', 'server'], base);
+  if (phases.has('unit')) await run('unit', VITEST, ['run', '--project', 'libs', '--project', 'server', ...fileFilters], base);
   if (phases.has('api') || phases.has('e2e')) stack = await startTestStack(log, seed);
-  if (phases.has('api')) await run('api', VITEST, ['run', '--project', 'api'], stack!.env);
+  if (phases.has('api')) await run('api', VITEST, ['run', '--project', 'api', ...fileFilters], stack!.env);
   if (phases.has('web')) await run('web', NG, ['test', 'web', '--watch=false'], base);
   if (phases.has('e2e')) {
     if (!webBuildIsCurrent()) {
@@ -62,7 +65,7 @@ async function main(): Promise<void> {
       if (!(await run('build', NG, ['build', 'web'], base))) return;
     }
     await stack!.startServer();
-    await run('e2e', VITEST, ['run', '--project', 'e2e'], stack!.env);
+    await run('e2e', VITEST, ['run', '--project', 'e2e', ...fileFilters], stack!.env);
   }
 }
 
