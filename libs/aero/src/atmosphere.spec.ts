@@ -1,36 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { geopotentialAltitude, isaAtmosphere, sutherlandViscosity } from './atmosphere';
+import { isaAtmosphere } from './atmosphere';
 import { deriveFlowCondition } from './flow-condition';
 
-describe('ISA against the U.S. Standard Atmosphere 1976 table (geopotential altitude)', () => {
-  // U.S. Standard Atmosphere, 1976, Table I / layer-base values (ICAO identical below 32 km);
-  // values from memory of the table.
-  const table = [
-    { h: 0, t: 288.15, p: 101325, rho: 1.225 },
-    { h: 11000, t: 216.65, p: 22632.06, rho: 0.36392 },
-    { h: 20000, t: 216.65, p: 5474.889, rho: 0.088035 },
-    { h: 32000, t: 228.65, p: 868.0187, rho: 0.013225 },
-    { h: 47000, t: 270.65, p: 110.9063, rho: 0.0014275 },
-    { h: 51000, t: 270.65, p: 66.93887, rho: 0.00086160 },
-    { h: 71000, t: 214.65, p: 3.956420, rho: 0.000064211 },
-  ];
-  for (const row of table) {
-    it(`${row.h} m`, () => {
-      const air = isaAtmosphere(row.h);
-      expect(air.temperature_K).toBeCloseTo(row.t, 3);
-      expect(Math.abs(air.pressure_Pa / row.p - 1)).toBeLessThan(2e-5);
-      expect(Math.abs(air.density_kgm3 / row.rho - 1)).toBeLessThan(5e-4);
-    });
-  }
-
-  it('sea-level speed of sound and viscosity', () => {
-    // U.S. Standard Atmosphere 1976: a0 = 340.294 m/s, μ0 = 1.7894e-5 Pa s (from memory).
-    const air = isaAtmosphere(0);
-    expect(air.speedOfSound_ms).toBeCloseTo(340.294, 2);
-    expect(air.viscosity_Pas).toBeCloseTo(1.7894e-5, 8);
-    expect(sutherlandViscosity(216.65)).toBeCloseTo(1.4216e-5, 8); // 1976 table at 11 km (from memory)
-  });
-
+// The table values (U.S. Standard Atmosphere 1976), sea-level speed of sound and viscosity, and
+// geopotential altitude are shared reference cases (./validation/atmosphere.ts), run by the validation page too.
+describe('ISA', () => {
   it('is continuous across layer boundaries', () => {
     for (const h of [11000, 20000, 32000, 47000, 51000, 71000]) {
       const below = isaAtmosphere(h - 1e-6);
@@ -51,10 +25,6 @@ describe('ISA against the U.S. Standard Atmosphere 1976 table (geopotential alti
   it('refuses altitudes outside the standard', () => {
     expect(() => isaAtmosphere(90000)).toThrow(RangeError);
     expect(() => isaAtmosphere(-6000)).toThrow(RangeError);
-  });
-
-  it('converts geometric to geopotential altitude (H = r0 Z/(r0 + Z), r0 = 6 356 766 m)', () => {
-    expect(geopotentialAltitude(11019.1)).toBeCloseTo(11000, 0);
   });
 });
 

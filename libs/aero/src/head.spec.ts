@@ -1,32 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeCase } from './analyze';
-import { laminarMeanCf, turbulentMeanCfPrandtl, turbulentMeanCfSchlichting } from './flat-plate';
+import { laminarMeanCf } from './flat-plate';
+import { turbulentPlate } from './validation/turbulent';
 import { entrainmentShapeFactor, shapeFactorFromEntrainment } from './head';
 import { analyzeOne, nearest, relative, stations } from '../test/cases';
 
-/** Mean skin friction of a plate turbulent from the leading edge, by the engine's Head march. */
-function turbulentPlate(reynolds: number) {
-  const s = stations(301, 0, 1, 1.5);
-  return analyzeOne({ flow: { reynolds }, criteria: [], surfaces: [{ name: 'plate', s, ue: s.map(() => 1), trip: 0 }] }).surface;
-}
 
+// Head's method against Prandtl's and Schlichting's friction laws and the momentum balance of a plate are
+// shared reference cases (./validation/turbulent.ts), run by the validation page too.
 describe('Head’s method on a turbulent flat plate', () => {
-  it('matches Prandtl’s 0.074/Re^0.2 where that law holds (5e5 < Re < 1e7)', () => {
-    // L. Prandtl (1927), one-fifth-power law (H. Schlichting, "Boundary-Layer Theory", ch. 21).
-    // Head's method with Ludwieg–Tillmann friction runs a few per cent low; 8 % is allowed.
-    for (const re of [3e6, 1e7]) {
-      expect(Math.abs(relative(turbulentPlate(re).cdFriction!, turbulentMeanCfPrandtl(re)))).toBeLessThan(0.08);
-    }
-  });
-
-  it('matches Schlichting’s 0.455/(log Re)^2.58 from 1e6 to 1e8', () => {
-    // H. Schlichting (1936), Prandtl–Schlichting law. Tolerance 8 % to 1e7 and 13 % at 1e8, where the
-    // Ludwieg–Tillmann law falls furthest below it.
-    for (const [re, tolerance] of [[1e6, 0.08], [1e7, 0.08], [1e8, 0.13]]) {
-      expect(Math.abs(relative(turbulentPlate(re).cdFriction!, turbulentMeanCfSchlichting(re)))).toBeLessThan(tolerance);
-    }
-  });
-
   it('falls roughly as Re^−0.2 and is several times the laminar value (common observation)', () => {
     const cf6 = turbulentPlate(1e6).cdFriction!;
     const cf8 = turbulentPlate(1e8).cdFriction!;
@@ -35,14 +17,6 @@ describe('Head’s method on a turbulent flat plate', () => {
     expect(exponent).toBeLessThan(-0.13);
     expect(cf6 / laminarMeanCf(1e6)).toBeGreaterThan(3);
     expect(turbulentPlate(1e7).cdFriction! / laminarMeanCf(1e7)).toBeGreaterThan(6);
-  });
-
-  it('conserves momentum: on a plate the Squire–Young drag 2θ_TE equals the friction integral', () => {
-    // Momentum integral equation with dUe/dx = 0 (exact): dθ/dx = cf/2.
-    for (const re of [1e6, 1e8]) {
-      const plate = turbulentPlate(re);
-      expect(Math.abs(relative(plate.cd!, plate.cdFriction!))).toBeLessThan(0.003);
-    }
   });
 
   it('has a flat-plate shape factor near 1.3 to 1.4 (common practice)', () => {

@@ -1,4 +1,4 @@
-import { Solver } from '../src/odex-solver';
+import { Solver } from '../odex-solver';
 
 /**
  * Falkner–Skan similarity solutions computed here, by shooting with odex, as an independent reference
