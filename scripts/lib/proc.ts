@@ -68,3 +68,77 @@ export async function freePort(): Promise<number> {
     });
   });
 }
+
+export interface SupervisorOptions {
+  /** Called with each line worth telling the operator (restarts, giving up). */
+  log: (line: string) => void;
+  /** Called once when the service keeps crashing and is not started again. */
+  onGiveUp: (service: string) => void;
+  /** First delay before a restart; doubles after each crash, up to maxDelayMs. */
+  baseDelayMs?: number;
+  maxDelayMs?: number;
+  /** A run that lasted this long counts as healthy: the back-off starts over. */
+  healthyAfterMs?: number;
+  /** Crashes in a row (without a healthy run between them) before giving up. */
+  maxCrashes?: number;
+}
+
+export interface Supervised {
+  name: string;
+  /** The current process. */
+  current(): Service;
+  /** How many times it was started again after a crash. */
+  restarts(): number;
+  stop(): Promise<void>;
+}
+
+/** The delay before restart number `crashes` (1-based): base · 2^(crashes−1), capped. */
+export function restartDelayMs(crashes: number, baseDelayMs: number, maxDelayMs: number): number {
+  return Math.min(maxDelayMs, baseDelayMs * 2 ** Math.max(0, crashes - 1));
+}
+
+/**
+ * Keeps a service running: when it exits on its own, it is started again after a back-off delay and
+ * the restart is logged; after `maxCrashes` crashes in a row it is given up (onGiveUp).
+ */
+export function supervise(name: string, launch: () => Service, options: SupervisorOptions): Supervised {
+  const { log, onGiveUp, baseDelayMs = 1000, maxDelayMs = 30_000, healthyAfterMs = 60_000, maxCrashes = 6 } = options;
+  let service = launch();
+  let stopping = false;
+  let crashes = 0;
+  let restarts = 0;
+  let timer: NodeJS.Timeout | null = null;
+  const watch = (s: Service) => {
+    const startedAt = Date.now();
+    s.child.once('exit', (code, signal) => {
+      if (stopping) return;
+      crashes = Date.now() - startedAt >= healthyAfterMs ? 1 : crashes + 1;
+      const how = signal ? `signal ${signal}` : `exit ${code}`;
+      if (crashes > maxCrashes) {
+        log(`${name} stopped (${how}) ${crashes} times in a row; not starting it again`);
+        onGiveUp(name);
+        return;
+      }
+      const delay = restartDelayMs(crashes, baseDelayMs, maxDelayMs);
+      log(`${name} stopped unexpectedly (${how}); starting it again in ${(delay / 1000).toFixed(1)} s`);
+      timer = setTimeout(() => {
+        timer = null;
+        if (stopping) return;
+        restarts++;
+        service = launch();
+        watch(service);
+      }, delay);
+    });
+  };
+  watch(service);
+  return {
+    name,
+    current: () => service,
+    restarts: () => restarts,
+    async stop() {
+      stopping = true;
+      if (timer) clearTimeout(timer);
+      await service.stop();
+    },
+  };
+}

@@ -38,7 +38,7 @@ export async function startTestStack(log: (line: string) => void, runSeed: (env:
       adminUrl = process.env['DATABASE_URL'];
       log('using the PostgreSQL server of DATABASE_URL for throw-away databases');
     } else {
-      cluster = await startCluster(path.join(scratch, 'pg'), await freePort(), log);
+      cluster = await startCluster(path.join(scratch, 'pg'), await freePort(), log, { mode: 'throwaway' });
       adminUrl = cluster.url('postgres');
     }
     const template = `laminote_template_${process.pid}`;
