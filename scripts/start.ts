@@ -59,9 +59,16 @@ process.on('SIGHUP', () => void stopAll(0));
  */
 function watchCluster(c: Cluster): void {
   let failures = 0;
+  let missed = 0;
   let busy = false;
   clusterWatch = setInterval(() => {
-    if (busy || stopped || c.isRunning()) return;
+    if (busy || stopped) return;
+    if (c.isRunning()) {
+      missed = 0;
+      return;
+    }
+    // Seen down twice in a row: someone restarting it by hand has had the time to do so.
+    if (++missed < 2) return;
     busy = true;
     failures++;
     log(`PostgreSQL is not running; starting it again (attempt ${failures}) …`);

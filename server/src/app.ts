@@ -11,7 +11,7 @@ import { csrfProtection } from './auth/csrf';
 import type { OidcClient } from './auth/oidc';
 import { authRouter, loadUser, requireUser } from './auth/routes';
 import { sessionMiddleware } from './auth/session';
-import { errorHandler, notFoundHandler } from './http/problem';
+import { databaseUnavailable, errorHandler, notFoundHandler } from './http/problem';
 import type { EnginePool } from './engine/pool';
 import { draftBodyParser, notebookRouter } from './notebook/routes';
 import { projectsRouter } from './projects/routes';
@@ -80,7 +80,9 @@ export function createApp(deps: AppDeps): Express {
   );
 
   app.get('/healthz', async (_req, res) => {
-    await database.pool.query('select 1');
+    await database.pool.query('select 1').catch(() => {
+      throw databaseUnavailable();
+    });
     res.json({ status: 'ok' });
   });
 

@@ -21,7 +21,7 @@ async function main(): Promise<void> {
     throw err;
   }
   const logger = createLogger(config.LOG_LEVEL);
-  const database = connect(config.DATABASE_URL, 10, (err) => logger.warn({ err }, 'an idle database connection was closed'));
+  const database = connect(config.DATABASE_URL, 10, (err) => logger.warn({ err: err.message }, 'a database connection was closed; the pool makes a new one when needed'));
   await applyMigrations(database.db);
   const engine = createEnginePool({ threads: config.ENGINE_THREADS });
   const app = createApp({ config, database, logger, oidc: createOidcClient(config), engine });

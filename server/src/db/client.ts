@@ -12,11 +12,23 @@ export interface Database {
   close(): Promise<void>;
 }
 
-export function connect(url: string, max = 10, onIdleError?: (err: Error) => void): Database {
-  const pool = new pg.Pool({ connectionString: url, max });
-  // An idle client can be cut off (database restart, administrator command); the pool drops it and
-  // makes a new one on demand. Without a listener that would crash the process.
-  pool.on('error', (err) => onIdleError?.(err));
+/**
+ * A connection pool that rides out database restarts. A client can be cut off (database restart,
+ * administrator command) while idle in the pool or while checked out between two queries of a
+ * transaction; node-postgres then emits 'error' on it, which ends the process when nobody listens. The
+ * pool drops a broken client and makes a new one on demand; a request that was using it fails with an
+ * error that isDatabaseUnavailable recognises (answered 503).
+ */
+export function connect(url: string, max = 10, onConnectionError?: (err: Error) => void): Database {
+  const pool = new pg.Pool({
+    connectionString: url,
+    max,
+    // A request waits at most this long for a connection (a refused one fails at once), then answers 503.
+    connectionTimeoutMillis: 20_000,
+    keepAlive: true,
+  });
+  pool.on('error', (err) => onConnectionError?.(err));
+  pool.on('connect', (client) => client.on('error', (err) => onConnectionError?.(err)));
   const db = drizzle(pool, { schema });
   return { pool, db, close: () => pool.end() };
 }

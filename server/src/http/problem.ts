@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
 import type { Problem } from '@laminote/contracts';
 import type { Logger } from '../logger';
+import { DATABASE_RETRY_AFTER_S, isDatabaseUnavailable } from '../db/availability';
 
 /**
  * Errors answer `application/problem+json` (RFC 9457) with a stable `type`, a human `title` and, for bad
@@ -29,6 +30,13 @@ export const unauthorized = () =>
 export const forbidden = (detail: string) => new ProblemError(403, 'forbidden', 'Your role does not allow this', { detail });
 export const notFound = (what: string) =>
   new ProblemError(404, 'not-found', 'Not found', { detail: `No ${what} here, or it is not shared with you.` });
+/** The database is away for a moment (restarting); the client tries again after Retry-After seconds. */
+export const databaseUnavailable = () =>
+  new ProblemError(503, 'database-unavailable', 'The database is not reachable right now', {
+    detail: `Nothing was changed. Laminote reconnects by itself; try again in ${DATABASE_RETRY_AFTER_S} seconds.`,
+    retryAfter: DATABASE_RETRY_AFTER_S,
+  });
+
 export const conflict = (detail: string, extra: Record<string, unknown> = {}) =>
   new ProblemError(409, 'conflict', 'Someone else changed this first', { detail, ...extra });
 
@@ -52,6 +60,8 @@ export function parse<S extends z.ZodType>(schema: S, data: unknown): z.infer<S>
 }
 
 export function sendProblem(res: Parameters<RequestHandler>[1], problem: ProblemError): void {
+  const retryAfter = problem.extra['retryAfter'];
+  if (typeof retryAfter === 'number') res.setHeader('retry-after', String(retryAfter));
   res.status(problem.status).type('application/problem+json').send(JSON.stringify(problem.toProblem()));
 }
 
@@ -68,6 +78,10 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     // body-parser and multer signal bad bodies with a status of their own.
     if (e?.type === 'entity.parse.failed') return sendProblem(res, badRequest('The request body is not valid JSON.', 'body'));
     if (e?.type === 'entity.too.large') return sendProblem(res, new ProblemError(413, 'too-large', 'The request is too large', { detail: e.message ?? '' }));
+    if (isDatabaseUnavailable(err)) {
+      (req.log ?? logger).warn({ err: e?.message }, 'database unavailable; answered 503');
+      return sendProblem(res, databaseUnavailable());
+    }
     (req.log ?? logger).error({ err }, 'unhandled error');
     sendProblem(res, new ProblemError(500, 'internal', 'Something went wrong on the server', { detail: 'The error was logged.' }));
   };

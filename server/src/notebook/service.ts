@@ -1,7 +1,8 @@
 import { eq, inArray, sql } from 'drizzle-orm';
-import { ENGINE_VERSION } from '@laminote/aero';
+import { ENGINE_VERSION, upstreamFailedError } from '@laminote/aero';
 import {
   CELL_KIND_LABELS,
+  RUN_RANK,
   type CellKind,
   type CellOutput,
   type CellRunReport,
@@ -16,11 +17,15 @@ import { audit } from '../audit/audit';
 import type { Db, Tx } from '../db/client';
 import { auditEvents, cells as cellsTable, drafts, studies, users } from '../db/schema';
 import { EngineBusyError, type EnginePool } from '../engine/pool';
-import { badRequest, conflict, ProblemError } from '../http/problem';
+import { isDatabaseUnavailable } from '../db/availability';
+import { badRequest, conflict, databaseUnavailable, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import type { BranchContext } from './branch';
 import { OutputStore, type CachedOutput } from './outputs';
-import { canonicalJson, KIND_RANK, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
+import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
+
+/** The places in a run, first to last: the cells of one place run together, after those before it. */
+const RUN_RANKS = [...new Set(Object.values(RUN_RANK))].sort((a, b) => a - b);
 
 /** Deleted cells kept in a draft's trash, newest first. */
 export const TRASH_LIMIT = 30;
@@ -268,8 +273,8 @@ export class NotebookService {
     const outputsByCell = new Map<string, CachedOutput>();
     // Every output the run could reuse, looked up at once.
     const known = await this.outputs.getMany(this.db, [...targets].map((id) => plans.get(id)!.key));
-    for (const rank of [0, 1, 2]) {
-      const level = stored.filter((c) => targets.has(c.cellId) && KIND_RANK[c.kind as CellKind] === rank);
+    for (const rank of RUN_RANKS) {
+      const level = stored.filter((c) => targets.has(c.cellId) && RUN_RANK[c.kind as CellKind] === rank);
       await Promise.all(
         level.map(async (cell) => {
           const { report, output } = await this.runOne(plans.get(cell.cellId)!, plans, reports, known);
@@ -383,14 +388,16 @@ export class NotebookService {
     const failedRef = plan.refs.find((ref) => reports.get(ref.cellId)?.status === 'error');
     if (failedRef) {
       const up = reports.get(failedRef.cellId)!;
-      const label = CELL_KIND_LABELS[plans.get(failedRef.cellId)!.kind].toLowerCase();
-      const error = { message: `the ${label} it uses (${failedRef.field}) failed: ${up.error?.message ?? 'see that cell'}`, field: failedRef.field };
+      const error = upstreamFailedError(plans.get(failedRef.cellId)!.kind, failedRef.field, up.error);
       return done(await this.outputs.put(this.db, key, plan.kind, ENGINE_VERSION, { status: 'error', resultJson: null, error, durationMs: 0 }), false);
     }
     try {
       return done(await this.compute(key, plan, plans), false);
     } catch (error) {
       if (error instanceof EngineBusyError) throw new ProblemError(503, 'engine-busy', 'The engine is busy', { detail: 'Too many computations are waiting; try the run again in a moment.' });
+      // The database went away while the output was being stored: the whole run answers 503 (a run
+      // changes no draft, so running again is safe) rather than leaving a cell marked internal.
+      if (isDatabaseUnavailable(error)) throw databaseUnavailable();
       this.logger.error({ err: error, cellId: plan.cell.cellId }, 'engine task failed');
       return internal(`the server could not compute this cell: ${error instanceof Error ? error.message : String(error)}`);
     }
