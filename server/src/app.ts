@@ -19,6 +19,7 @@ import { studiesRouter } from './studies/routes';
 import { versionsRouter } from './versions/routes';
 import { reviewRouter } from './review/routes';
 import { devMailRouter } from './mail/dev-routes';
+import { methodsRouter } from './methods/routes';
 
 export interface AppDeps {
   config: Config;
@@ -102,6 +103,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(versionsRouter({ db }));
   api.use(reviewRouter({ db, config }));
   api.use(devMailRouter({ config }));
+  api.use(methodsRouter());
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -18,3 +18,5 @@ export * from './smoothing';
 export * from './squire-young';
 export * from './stagnation';
 export * from './thwaites';
+export { METHODS, findMethod, type MethodEntry, type MethodSymbol } from './methods';
+export { VALIDATION_SUITES, runCase, runValidation, type ValidationCaseResult, type ValidationSuite, type ValidationSuiteResult, type Tolerance } from './validation';

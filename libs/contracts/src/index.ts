@@ -4,3 +4,4 @@ export * from './engine';
 export * from './notebook';
 export * from './versions';
 export * from './review';
+export * from './methods';

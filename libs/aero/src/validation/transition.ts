@@ -63,7 +63,7 @@ export const flatPlateTransition: ValidationSuite = {
         title: 'Granville with λ̄ = 0: Re_θ,tr = Re_θ,i + 375 + e^6.1',
         quantity: 'Re_x,tr (–)',
         tolerance: relativeWithin(0.005),
-        source: 'R. M. Granville, David Taylor Model Basin Report 849 (1953)',
+        source: 'P. S. Granville, David Taylor Model Basin Report 849 (1953); curve fit quoted from memory from T. Cebeci (1999)',
         measure: () => ({ value: reS('granville'), reference: ((reThetaOnset(H_PLATE) + 375 + Math.exp(6.1)) / SQRT_045) ** 2 }),
       },
     ];

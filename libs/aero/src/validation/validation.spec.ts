@@ -39,3 +39,28 @@ describe('the shared list', () => {
     expect(judge(Number.NaN, 1, { kind: 'absolute', value: 1 }).pass).toBe(false);
   });
 });
+
+describe('the methods catalogue', () => {
+  it('names a method for every suite, and every method names its engine module and a source', async () => {
+    const { METHODS } = await import('../methods');
+    const { existsSync } = await import('node:fs');
+    const ids = new Set(METHODS.map((m) => m.id));
+    expect(ids.size).toBe(METHODS.length);
+    for (const suite of VALIDATION_SUITES) for (const m of suite.methods) expect(ids.has(m), `${suite.id} → ${m}`).toBe(true);
+    for (const m of METHODS) {
+      expect(existsSync(new URL(`../${m.module}`, import.meta.url)), m.module).toBe(true);
+      expect(m.sources.length).toBeGreaterThan(0);
+      expect(m.formulas.length).toBeGreaterThan(0);
+    }
+  });
+
+  it('has formulas and symbols that KaTeX typesets without error', async () => {
+    const { METHODS } = await import('../methods');
+    const katex = (await import('katex')).default;
+    for (const m of METHODS) {
+      for (const tex of [...m.formulas, ...m.symbols.map((s) => s.tex)]) {
+        expect(() => katex.renderToString(tex, { throwOnError: true, displayMode: true }), `${m.id}: ${tex}`).not.toThrow();
+      }
+    }
+  });
+});

@@ -1,0 +1,116 @@
+import type { MethodEntry } from './method';
+
+/** Laminar and turbulent boundary layer, drag and friction. */
+export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
+  {
+    id: 'thwaites',
+    name: 'Thwaites’ laminar method',
+    purpose: 'Momentum thickness, shape factor and skin friction of the laminar layer from the attachment line, and laminar separation.',
+    module: 'thwaites.ts',
+    formulas: [
+      '\\theta^2 = \\frac{0.45\\,\\nu}{U_e^6} \\int_0^s U_e^5\\, ds, \\qquad \\lambda = \\frac{\\theta^2}{\\nu}\\frac{dU_e}{ds}',
+      '\\frac{\\tau_w\\, \\theta}{\\mu\\, U_e} = l(\\lambda), \\qquad H = H(\\lambda), \\qquad c_f = \\frac{2\\, l(\\lambda)}{Re_\\theta}',
+      '0 \\le \\lambda \\le 0.25: \\; l = 0.22 + 1.57\\lambda - 1.8\\lambda^2, \\; H = 2.61 - 3.75\\lambda + 5.24\\lambda^2',
+      '-0.1 \\le \\lambda < 0: \\; l = 0.22 + 1.402\\lambda + \\frac{0.018\\lambda}{0.107 + \\lambda}, \\; H = 2.088 + \\frac{0.0731}{0.14 + \\lambda}',
+      '\\text{stagnation point } (U_e = a s): \\; \\theta^2 = 0.075\\, \\nu / a; \\qquad \\text{separation at } \\lambda = -0.09',
+    ],
+    symbols: [
+      { tex: '\\theta', meaning: 'momentum thickness, divided by the reference length', unit: '–' },
+      { tex: 'U_e', meaning: 'edge velocity, divided by V∞', unit: '–' },
+      { tex: 's', meaning: 'arc length from the attachment line, divided by the reference length', unit: '–' },
+      { tex: '\\nu', meaning: 'kinematic viscosity; 1/Re in these units', unit: '–' },
+      { tex: '\\lambda', meaning: 'pressure-gradient parameter', unit: '–' },
+      { tex: 'H', meaning: 'shape factor δ*/θ', unit: '–' },
+      { tex: 'c_f', meaning: 'skin-friction coefficient on the local edge dynamic pressure', unit: '–' },
+    ],
+    validity: 'Attached two-dimensional or axisymmetric laminar flow, −0.09 < λ ≤ 0.25; incompressible.',
+    sources: [
+      'B. Thwaites, "Approximate calculation of the laminar boundary layer", Aeronautical Quarterly 1 (1949) 245–280.',
+      'T. Cebeci & P. Bradshaw, "Momentum Transfer in Boundary Layers" (1977): fits l(λ), H(λ) (coefficients quoted from memory).',
+    ],
+    limits: [
+      'A one-parameter method: θ is within a few per cent of exact solutions, skin friction worse near separation.',
+      'Separation comes about 3 % late in a retarded flow (Howarth’s case).',
+      'No separation bubble: the march stops at laminar separation, which then sets transition.',
+    ],
+    usedFor: 'analysis cell: θ, H, cf and laminar separation up to transition',
+  },
+  {
+    id: 'mangler',
+    name: 'Mangler transformation (bodies of revolution)',
+    purpose: 'Carries Thwaites’ method over to axisymmetric bodies such as nacelles.',
+    module: 'thwaites.ts',
+    formulas: ['\\theta^2 = \\frac{0.45\\,\\nu}{r^2 U_e^6} \\int_0^s r^2 U_e^5\\, ds, \\qquad \\text{pointed nose } (r = s): \\; \\theta^2 = 0.05625\\,\\nu/a'],
+    symbols: [{ tex: 'r', meaning: 'body radius, divided by the reference length', unit: '–' }],
+    validity: 'Thin boundary layer on a body of revolution at zero incidence (θ ≪ r).',
+    sources: ['W. Mangler, ZAMM 28 (1948); N. Rott & L. F. Crabtree, J. Aeronaut. Sci. 19 (1952) 553.'],
+    limits: ['Transverse curvature (a layer thick against the radius, e.g. a slender tail) is ignored.', 'A nacelle at incidence is not axisymmetric: use the surface line of interest as a plane case.'],
+    usedFor: 'analysis cell when the pressure distribution carries a radius r',
+  },
+  {
+    id: 'head',
+    name: 'Head’s entrainment method',
+    purpose: 'The turbulent layer from transition to the trailing edge, turbulent separation and the trailing-edge state for the drag.',
+    module: 'head.ts',
+    formulas: [
+      '\\frac{d\\theta}{ds} = \\frac{c_f}{2} - (H + 2)\\frac{\\theta}{U_e}\\frac{dU_e}{ds} - \\frac{\\theta}{r}\\frac{dr}{ds}',
+      '\\frac{d}{ds}\\left(r U_e \\theta H_1\\right) = r U_e F(H_1), \\qquad F = 0.0306\\,(H_1 - 3)^{-0.6169}',
+      'H_1 = 0.8234\\,(H - 1.1)^{-1.287} + 3.3 \\;(H \\le 1.6), \\qquad H_1 = 1.5501\\,(H - 0.6778)^{-3.064} + 3.3 \\;(H > 1.6)',
+      'c_f = 0.246 \\cdot 10^{-0.678 H}\\, Re_\\theta^{-0.268}',
+    ],
+    symbols: [
+      { tex: 'H_1', meaning: 'entrainment shape factor (δ − δ*)/θ', unit: '–' },
+      { tex: 'F', meaning: 'entrainment rate', unit: '–' },
+      { tex: 'Re_\\theta', meaning: 'momentum-thickness Reynolds number Ue θ/ν', unit: '–' },
+    ],
+    validity: 'Attached turbulent flow, 1.3 ≲ H < 2.4; starts at transition with H = 1.4 (common practice).',
+    sources: [
+      'M. R. Head, "Entrainment in the turbulent boundary layer", ARC R&M 3152 (1958).',
+      'H. Ludwieg & W. Tillmann, Ing.-Arch. 17 (1949): skin friction.',
+      'T. Cebeci & P. Bradshaw (1977): fits of H1(H) and F (quoted from memory).',
+    ],
+    limits: [
+      'Flat-plate friction runs a few per cent below the classical laws, up to 13 % low at Re = 1e8.',
+      'Turbulent separation is taken at H = 2.4; Head’s method places it anywhere from 1.8 to 2.4.',
+      'No history of the transition region: the layer is fully turbulent at once.',
+    ],
+    usedFor: 'analysis cell: turbulent θ, H, cf, turbulent separation and the trailing-edge state',
+  },
+  {
+    id: 'squire-young',
+    name: 'Squire–Young profile drag',
+    purpose: 'Profile drag of each surface from its trailing-edge boundary layer.',
+    module: 'squire-young.ts',
+    formulas: ['\\theta_\\infty = \\theta_{TE} \\left(\\frac{U_{e,TE}}{V_\\infty}\\right)^{(H_{TE} + 5)/2}, \\qquad c_d = \\frac{2\\,\\theta_\\infty}{L}'],
+    symbols: [
+      { tex: '\\theta_{TE}, H_{TE}, U_{e,TE}', meaning: 'momentum thickness, shape factor and edge velocity at the trailing edge', unit: '–' },
+      { tex: 'c_d', meaning: 'profile drag coefficient on the reference length (sum of both surfaces)', unit: '–' },
+    ],
+    validity: 'Attached flow at the trailing edge; two-dimensional sections.',
+    sources: ['H. B. Squire & A. D. Young, "The calculation of the profile drag of aerofoils", ARC R&M 1838 (1938).'],
+    limits: ['Meaningless after turbulent separation (the analysis warns and reports no drag then).', 'Wave drag and the drag of a separation bubble are not included.'],
+    usedFor: 'analysis cell: cd per surface and in total; sweep cell: drag against the swept parameter',
+  },
+  {
+    id: 'flat-plate',
+    name: 'Flat-plate friction estimates',
+    purpose: 'Quick laminar, turbulent and mixed friction of a plate, and the saving of a laminar run.',
+    module: 'flat-plate.ts',
+    formulas: [
+      'c_f = \\frac{0.664}{\\sqrt{Re_x}}, \\qquad C_F = \\frac{1.328}{\\sqrt{Re_L}} \\quad \\text{(laminar)}',
+      'C_F = 0.074\\, Re_L^{-0.2}, \\qquad C_F = \\frac{0.455}{(\\log_{10} Re_L)^{2.58}} \\quad \\text{(turbulent)}',
+      'C_F = C_{F,t}(Re_L) - \\frac{Re_{tr}}{Re_L}\\left[C_{F,t}(Re_{tr}) - C_{F,l}(Re_{tr})\\right] \\quad \\text{(mixed)}',
+    ],
+    symbols: [
+      { tex: 'C_F', meaning: 'mean friction coefficient per side on q∞', unit: '–' },
+      { tex: 'Re_L, Re_x, Re_{tr}', meaning: 'Reynolds numbers on the plate length, the station and the transition point', unit: '–' },
+    ],
+    validity: 'Zero pressure gradient; Prandtl’s law 5e5 < Re < 1e7, Schlichting’s to 1e9.',
+    sources: [
+      'H. Blasius, Z. Math. Phys. 56 (1908).',
+      'L. Prandtl (1927); H. Schlichting (1936); H. Schlichting, "Boundary-Layer Theory", ch. 21 (mixed plate).',
+    ],
+    limits: ['A wing is not a plate: pressure gradients change both the laminar run and the friction.'],
+    usedFor: 'flat-plate estimate cell',
+  },
+];
