@@ -2,3 +2,4 @@ export * from './identity';
 export * from './projects';
 export * from './studies';
 export * from './review';
+export * from './jobs';
