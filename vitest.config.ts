@@ -16,7 +16,7 @@ export default defineConfig({
   test: {
     projects: [
       { resolve: { alias }, test: { name: 'libs', include: ['libs/**/*.spec.ts'], environment: 'node' } },
-      { resolve: { alias }, test: { name: 'server', include: ['server/**/*.spec.ts', 'oidc-fake/**/*.spec.ts'], environment: 'node' } },
+      { resolve: { alias }, test: { name: 'server', include: ['server/**/*.spec.ts', 'oidc-fake/**/*.spec.ts', 'scripts/**/*.spec.ts'], environment: 'node' } },
       {
         resolve: { alias },
         test: { name: 'api', include: ['tests/api/**/*.spec.ts'], environment: 'node', fileParallelism: false, testTimeout: 30_000, hookTimeout: 60_000 },

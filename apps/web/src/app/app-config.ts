@@ -19,7 +19,7 @@ export const appConfig: ApplicationConfig = {
     provideRouter(routes, withComponentInputBinding(), withInMemoryScrolling({ scrollPositionRestoration: 'top' })),
     // The router's guards need to know who is signed in before the first navigation.
     provideAppInitializer(() => {
-      inject(MatIconRegistry).setDefaultFontSetClass('material-symbols-outlined');
+      inject(MatIconRegistry).setDefaultFontSetClass('lam-symbols');
       return inject(Auth).load();
     }),
   ],
