@@ -33,7 +33,7 @@ import { ADDABLE_KINDS, cellKindInfo } from './cell-kinds';
     }
     <mat-menu #kinds="matMenu" class="lam-add-cell-menu">
       @for (kind of kinds_; track kind.kind) {
-        <button mat-menu-item type="button" (click)="add.emit(kind.kind)">
+        <button mat-menu-item type="button" class="kind-item" (click)="add.emit(kind.kind)">
           <mat-icon aria-hidden="true">{{ kind.icon }}</mat-icon>
           <span class="kind-name">{{ kind.label }}</span>
           <span class="kind-hint">{{ kind.hint }}</span>
