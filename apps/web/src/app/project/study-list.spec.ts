@@ -8,7 +8,8 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { MatMenuHarness } from '@angular/material/menu/testing';
 import { MatSlideToggleHarness } from '@angular/material/slide-toggle/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { Router } from '@angular/router';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, STUDY_ID, problem, problemResponse, provideTestApp, study } from '../../testing/test-app';
 import { StudyList } from './study-list';
 
@@ -100,10 +101,11 @@ describe('StudyList', () => {
     expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(1);
   });
 
-  it('closes the dialog and shows the new study once the server has it', async () => {
+  it('closes the dialog and opens the new study once the server has it', async () => {
     const { fixture, loader, root } = await render(true);
     expectList(false).flush([]);
     await fixture.whenStable();
+    const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
 
     await (await loader.getHarness(MatButtonHarness.with({ text: /New study/ }))).click();
     const dialog = await root.getHarness(MatDialogHarness);
@@ -113,9 +115,8 @@ describe('StudyList', () => {
     await fixture.whenStable();
 
     expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
-    expectList(false).flush([study()]);
-    await fixture.whenStable();
-    expect(await (await loader.getHarness(MatTableHarness)).getRows()).toHaveLength(1);
+    // The person lands in the new study's notebook, not back on the list.
+    expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID]);
   });
 
   it('renames and archives a study from its menu', async () => {

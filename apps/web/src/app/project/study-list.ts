@@ -7,7 +7,7 @@ import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import type { Study } from '@laminote/contracts';
 import { type Observable, forkJoin, map } from 'rxjs';
 import { Notifier } from '../core/notifier';
@@ -38,6 +38,7 @@ export class StudyList {
   private readonly api = inject(StudyApi);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
+  private readonly router = inject(Router);
 
   readonly projectId = input.required<string>();
   /** Whether the caller may create, rename and archive studies here. */
@@ -64,8 +65,11 @@ export class StudyList {
     this.studiesLoad.reload();
   }
 
+  /** A new study opens at once: the next thing anyone does with it is add cells. */
   protected create(): void {
-    this.openDialog({ projectId: this.projectId() }, (study) => `Study “${study.title}” created`);
+    this.openDialog({ projectId: this.projectId() }, (study) => `Study “${study.title}” created`, (study) => {
+      void this.router.navigate(['/studies', study.id]);
+    });
   }
 
   protected rename(study: Study): void {
@@ -82,14 +86,14 @@ export class StudyList {
     });
   }
 
-  private openDialog(data: StudyDialogData, message: (study: Study) => string): void {
+  private openDialog(data: StudyDialogData, message: (study: Study) => string, then: (study: Study) => void = () => this.reload()): void {
     this.dialog
       .open<StudyDialog, StudyDialogData, Study>(StudyDialog, { data, width: '34rem' })
       .afterClosed()
       .subscribe((study) => {
         if (!study) return;
         this.notifier.done(message(study));
-        this.reload();
+        then(study);
       });
   }
 }
