@@ -29,11 +29,7 @@ export interface BranchDialogData {
     <h2 mat-dialog-title>New branch from version {{ data.version.number }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="lam-dialog-form">
-        <p class="from">
-          Its draft starts as version {{ data.version.number }} of {{ data.version.branchName }}@if (data.version.message) {
-            (“{{ data.version.message }}”)
-          }; its own versions are numbered from 1.
-        </p>
+        <p class="from">Its draft starts as {{ origin }}; its own versions are numbered from 1.</p>
         <mat-form-field>
           <mat-label>Branch name</mat-label>
           <input matInput formControlName="name" required maxlength="80" autocomplete="off" />
@@ -73,6 +69,8 @@ export class BranchDialog {
   private readonly notifier = inject(Notifier);
   private readonly dialogRef = inject<MatDialogRef<BranchDialog, BranchOverview>>(MatDialogRef);
   protected readonly data = inject<BranchDialogData>(MAT_DIALOG_DATA);
+  /** Worded whole here: a template's line breaks around an @if leave a space before the punctuation. */
+  protected readonly origin = `version ${this.data.version.number} of ${this.data.version.branchName}${this.data.version.message ? ` (“${this.data.version.message}”)` : ''}`;
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: ['', [Validators.required, Validators.maxLength(80)]],

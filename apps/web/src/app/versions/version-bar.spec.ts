@@ -131,6 +131,8 @@ describe('VersionBar', () => {
 
     const dialog = await root.getHarness(MatDialogHarness.with({ selector: '.mat-mdc-dialog-container:has(lam-branch-dialog)' }));
     expect(await dialog.getTitleText()).toBe('New branch from version 1');
+    // One sentence, no stray space before its punctuation.
+    expect(await dialog.getContentText()).toContain('Its draft starts as version 1 of main (“Cruise baseline”); its own versions are numbered from 1.');
     await (await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName="name"]' }))).setValue('thin nose');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Create branch' }))).click();
     const create = http.expectOne({ method: 'POST', url: `/api/versions/${V1_ID}/branches` });
