@@ -52,6 +52,16 @@ describe('CommentBox', () => {
     expect(sent).toEqual(['Please check the trip, @Mara Okonkwo']);
   });
 
+  it('leaves one space after a picked mention when the person types their own', async () => {
+    const { harness, sent } = await render();
+    await harness.type('@Dev');
+    await harness.press(TestKey.ENTER);
+    await harness.type(' please check the trip');
+    expect(await harness.getText()).toBe('@Dev Arjunan please check the trip');
+    await harness.send();
+    expect(sent).toEqual(['@Dev Arjunan please check the trip']);
+  });
+
   it('moves through the suggestions with the arrow keys and closes them with Escape', async () => {
     const { harness } = await render();
     await harness.type('@');

@@ -73,8 +73,24 @@ export class CommentBox {
 
   protected onInput(event: Event): void {
     const area = event.target as HTMLTextAreaElement;
+    this.swallowSpaceAfterMention(area);
     this.text.set(area.value);
     this.track(area);
+  }
+
+  /** Where a picked mention's own trailing space ends, until the next keystroke. */
+  private afterMention: number | null = null;
+
+  /**
+   * A picked mention brings its space with it; a person who types one out of habit would leave two.
+   * The first space typed right after the mention is taken as that one.
+   */
+  private swallowSpaceAfterMention(area: HTMLTextAreaElement): void {
+    const at = this.afterMention;
+    this.afterMention = null;
+    if (at === null || area.value.length !== this.text().length + 1 || area.value.slice(at - 1, at + 1) !== '  ') return;
+    area.value = area.value.slice(0, at) + area.value.slice(at + 1);
+    area.setSelectionRange(at, at);
   }
 
   protected track(area: HTMLTextAreaElement): void {
@@ -114,12 +130,15 @@ export class CommentBox {
     if (!q) return;
     const area = this.textarea().nativeElement;
     const caret = q.start + 1 + q.query.length;
-    const inserted = `@${member.name} `;
-    const value = area.value.slice(0, q.start) + inserted + area.value.slice(caret);
+    const rest = area.value.slice(caret);
+    // No second space where the text after the mention already starts with one.
+    const inserted = /^\s/.test(rest) ? `@${member.name}` : `@${member.name} `;
+    const value = area.value.slice(0, q.start) + inserted + rest;
     area.value = value;
     this.text.set(value);
     this.query.set(null);
     const at = q.start + inserted.length;
+    this.afterMention = inserted.endsWith(' ') ? at : null;
     area.setSelectionRange(at, at);
     area.focus();
   }
