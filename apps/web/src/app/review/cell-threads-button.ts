@@ -10,6 +10,7 @@ import { ThreadStore } from './thread-store';
   selector: 'lam-cell-threads-button',
   imports: [MatButtonModule, MatIconModule, MatTooltipModule],
   template: `
+    @if (shown()) {
     <button
       mat-button
       type="button"
@@ -27,6 +28,7 @@ import { ThreadStore } from './thread-store';
         <span class="count">Comment</span>
       }
     </button>
+    }
   `,
   styles: `
     .threads-button { --mat-button-text-container-height: 32px; min-width: 0; color: var(--mat-sys-on-surface-variant); }
@@ -46,6 +48,8 @@ export class CellThreadsButton {
 
   protected readonly review = cellReviewContext({ cellId: this.cellId, studyId: this.studyId, versionId: this.versionId, branchId: this.branchId });
   protected readonly open = computed(() => this.store.openCellIds().has(this.cellId()));
+  /** Someone who may not comment sees the button only when there are comments to read. */
+  protected readonly shown = computed(() => this.review.canComment() || this.review.threads().length > 0);
   protected readonly label = computed(() => {
     const all = this.review.threads().length;
     const open = this.review.openCount();

@@ -3,7 +3,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { Me } from '@laminote/contracts';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, STUDY_ID, me, provideTestApp, signInAs, study } from '../../testing/test-app';
 import { CellThreads } from './cell-threads';
 import { CellThreadsButton } from './cell-threads-button';
@@ -23,7 +23,11 @@ describe('CellThreads', () => {
   });
   afterEach(() => http.verify());
 
-  async function render(role: 'reviewer' | 'viewer') {
+  async function render(role: 'reviewer' | 'viewer', threadList = [
+      thread({ id: 'e4f5a6b7-c8d9-4e0f-9a1b-2c3d4e5f6a7b', anchor: { surface: 'upper', x: 0.42 }, onThisView: false, cellChanged: true }),
+      thread({ id: 'f5a6b7c8-d9e0-4f1a-8b2c-3d4e5f6a7b8c', resolved: true }),
+      thread({ id: 'a6b7c8d9-e0f1-4a2b-9c3d-4e5f6a7b8c9d', cellId: 'b7c8d9e0-f1a2-4b3c-8d4e-5f6a7b8c9d0e' }),
+    ]) {
     await signInAs(as(role));
     const button = TestBed.createComponent(CellThreadsButton);
     const panel = TestBed.createComponent(CellThreads);
@@ -38,16 +42,13 @@ describe('CellThreads', () => {
     // One request for the study's threads serves every cell on the page; the study and its members once.
     const threads = http.expectOne((r) => r.url === `/api/studies/${STUDY_ID}/threads`);
     expect(threads.request.params.get('branchId')).toBe(BRANCH_ID);
-    threads.flush([
-      thread({ id: 'e4f5a6b7-c8d9-4e0f-9a1b-2c3d4e5f6a7b', anchor: { surface: 'upper', x: 0.42 }, onThisView: false, cellChanged: true }),
-      thread({ id: 'f5a6b7c8-d9e0-4f1a-8b2c-3d4e5f6a7b8c', resolved: true }),
-      thread({ id: 'a6b7c8d9-e0f1-4a2b-9c3d-4e5f6a7b8c9d', cellId: 'b7c8d9e0-f1a2-4b3c-8d4e-5f6a7b8c9d0e' }),
-    ]);
+    threads.flush(threadList);
     for (const r of http.match(`/api/studies/${STUDY_ID}`)) r.flush(study());
     for (const r of http.match(`/api/projects/${PROJECT_ID}/members`)) r.flush(MEMBERS);
     const buttonHarness = await TestbedHarnessEnvironment.harnessForFixture(button, CellThreadsButtonHarness);
     const panelHarness = await TestbedHarnessEnvironment.harnessForFixture(panel, CellThreadsHarness);
-    return { buttonHarness, panelHarness, panel };
+    button.detectChanges();
+    return { buttonHarness, panelHarness, panel, button };
   }
 
   it('opens from the cell head with this cell’s threads, open ones first, and the places they point at', async () => {
@@ -91,5 +92,32 @@ describe('CellThreads', () => {
     expect(await panelHarness.getThreads()).toHaveLength(1);
     expect(await panelHarness.getNewThreadBox()).toBeNull();
     expect(await panelHarness.getReadOnlyNote()).toBe('You read these comments as viewer.');
+  });
+
+  it('brings the opened panel into view, as it opens below a cell that may be taller than the screen', async () => {
+    const scrolled: Element[] = [];
+    const original = Element.prototype.scrollIntoView;
+    Element.prototype.scrollIntoView = vi.fn(function (this: Element) {
+      scrolled.push(this);
+    });
+    try {
+      const { buttonHarness, panel } = await render('reviewer');
+      await buttonHarness.toggle();
+      await new Promise((r) => setTimeout(r, 10));
+      expect(scrolled).toContain((panel.nativeElement as HTMLElement).querySelector('.panel'));
+    } finally {
+      Element.prototype.scrollIntoView = original;
+    }
+  });
+
+  it('offers a viewer no Comment button on a cell without comments, and the count where there are some', async () => {
+    const quiet = await render('viewer', []);
+    expect(await quiet.buttonHarness.isShown()).toBe(false);
+    TestBed.resetTestingModule();
+    TestBed.configureTestingModule({ providers: provideTestApp() });
+    http = TestBed.inject(HttpTestingController);
+    const busy = await render('viewer');
+    expect(await busy.buttonHarness.isShown()).toBe(true);
+    expect(await busy.buttonHarness.getLabel()).toBe('Show comments: 1 open of 2 threads');
   });
 });

@@ -130,6 +130,19 @@ export class CellThreads {
         }, 50);
       });
     });
+    // Opened from the cell's head, the panel appears below the cell's body: on a tall cell that is
+    // off-screen, so bring it into view (a link to a thread scrolls to the thread instead, above).
+    let wasOpen = false;
+    effect(() => {
+      const open = this.open();
+      if (open && !wasOpen) {
+        setTimeout(() => {
+          if (this.query()?.get('cell') === untracked(this.cellId)) return;
+          this.host.nativeElement.querySelector<HTMLElement>('.panel')?.scrollIntoView({ block: 'nearest', behavior: 'smooth' });
+        });
+      }
+      wasOpen = open;
+    });
     effect(() => {
       const choices = this.surfaceChoices();
       if (!choices.includes(untracked(this.anchorSurface))) this.anchorSurface.set(choices[0] ?? 'upper');

@@ -240,6 +240,12 @@ export class CellThreadsHarness extends ComponentHarness {
 export class CellThreadsButtonHarness extends ComponentHarness {
   static hostSelector = 'lam-cell-threads-button';
   private readonly button = this.locatorFor('button');
+  private readonly anyButton = this.locatorForOptional('button');
+
+  /** Whether the head offers the button at all. */
+  async isShown(): Promise<boolean> {
+    return (await this.anyButton()) !== null;
+  }
 
   async getLabel(): Promise<string> {
     return (await (await this.button()).getAttribute('aria-label')) ?? '';
