@@ -18,5 +18,7 @@ export * from './smoothing';
 export * from './squire-young';
 export * from './stagnation';
 export * from './thwaites';
+export * from './arc-position';
+export * from './cells/index';
 export { METHODS, findMethod, type MethodEntry, type MethodSymbol } from './methods';
 export { VALIDATION_SUITES, runCase, runValidation, type ValidationCaseResult, type ValidationSuite, type ValidationSuiteResult, type Tolerance } from './validation';

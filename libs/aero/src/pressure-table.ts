@@ -4,8 +4,11 @@
  * Fields are separated by tabs, commas, semicolons or spaces; `#` starts a comment to the end of the
  * line; blank lines are skipped; one header row naming the columns is allowed before the data (names
  * such as `x`, `x/c`, `y`, `z/c`, `cp`, `Cp`, `-cp`, in any order; `-cp` columns are negated).
- * Without a header, two columns are `x cp` and three are `x y cp`. Every problem names its line
- * (1-based; line 0 means the table as a whole) so the notebook can show it beside the text.
+ * Without a header, two columns are `x cp` and three are `x y cp`. A table of an axisymmetric body
+ * (`radius: true`) needs a header that also names a body-radius column (`r`, `r/c`, `rc`, `r/l` or
+ * `radius`). Every problem names its line (1-based; line 0 means the table as a whole) so the
+ * notebook can show it beside the text. This is the one reader of tables: the notebook's preview,
+ * the server and the command line all read through it.
  */
 
 export interface PressureTableRow {
@@ -15,6 +18,8 @@ export interface PressureTableRow {
   /** null when the table has no y column. */
   y: number | null;
   cp: number;
+  /** Body radius, read only when the table is read with `radius: true`. */
+  r?: number;
 }
 
 export interface PressureTableProblem {
@@ -32,7 +37,12 @@ export interface PressureTableOptions {
   maxRows?: number;
   /** Stop collecting problems after this many (default 20). */
   maxProblems?: number;
+  /** Read a body-radius column too (axisymmetric bodies); the header must name it. */
+  radius?: boolean;
 }
+
+/** Header names of a body-radius column, compared in lower case. */
+export const RADIUS_COLUMN_NAMES: readonly string[] = ['r', 'r/c', 'rc', 'r/l', 'radius'];
 
 const FIELD_SEPARATOR = /\s*[,;\t]\s*|\s+/;
 const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eEdD][+-]?\d+)?$/;
@@ -68,7 +78,7 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
   const rows: PressureTableRow[] = [];
   const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
 
-  let layout: { x: number; y: number; cp: number; cpSign: number; count: number; definedAt: number } | null = null;
+  let layout: { x: number; y: number; cp: number; cpSign: number; r: number; count: number; definedAt: number } | null = null;
   let headerLine: number | null = null;
   let names: string[] = [];
 
@@ -92,16 +102,25 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
         problems.push({ line: headerLine!, message: `header "${names.join(' ')}" does not say which columns are x and cp (name them x, y, cp)` });
         break;
       }
+      if (options.radius && headerLine === null) {
+        problems.push({ line, message: 'with a body radius the table needs a header row naming its columns, e.g. "x r cp"' });
+        break;
+      }
+      const r = options.radius ? names.findIndex((name) => RADIUS_COLUMN_NAMES.includes(name.toLowerCase())) : -1;
+      if (options.radius && r < 0) {
+        problems.push({ line: headerLine!, message: `the header "${names.join(' ')}" names no radius column (call it r)` });
+        break;
+      }
       if (fromHeader !== null) {
-        layout = { ...fromHeader, count: names.length, definedAt: headerLine! };
+        layout = { ...fromHeader, r, count: names.length, definedAt: headerLine! };
         if (fields.length !== names.length) {
           problems.push({ line, message: `${fields.length} values, but the header on line ${headerLine} names ${names.length} columns` });
           continue;
         }
       } else if (fields.length === 2) {
-        layout = { x: 0, y: -1, cp: 1, cpSign: 1, count: 2, definedAt: line };
+        layout = { x: 0, y: -1, cp: 1, cpSign: 1, r: -1, count: 2, definedAt: line };
       } else if (fields.length === 3) {
-        layout = { x: 0, y: 1, cp: 2, cpSign: 1, count: 3, definedAt: line };
+        layout = { x: 0, y: 1, cp: 2, cpSign: 1, r: -1, count: 3, definedAt: line };
       } else {
         problems.push({ line, message: `expected 2 values (x cp) or 3 values (x y cp), found ${fields.length}${decimalCommaHint(content)}` });
         break;
@@ -132,15 +151,22 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
       values.push(value);
     }
     if (bad) continue;
+    let radius: number | undefined;
+    if (layout.r >= 0) {
+      radius = parseNumber(fields[layout.r]);
+      if (!(radius >= 0) || !Number.isFinite(radius)) {
+        problems.push({ line, message: `the radius "${fields[layout.r]}" is not a non-negative number` });
+        continue;
+      }
+    }
     if (rows.length >= maxRows) {
       problems.push({ line, message: `more than ${maxRows} data rows (limit)` });
       break;
     }
-    rows.push(
-      layout.y >= 0
-        ? { line, x: values[0], y: values[1], cp: layout.cpSign * values[2] }
-        : { line, x: values[0], y: null, cp: layout.cpSign * values[1] },
-    );
+    const row: PressureTableRow =
+      layout.y >= 0 ? { line, x: values[0], y: values[1], cp: layout.cpSign * values[2] } : { line, x: values[0], y: null, cp: layout.cpSign * values[1] };
+    if (radius !== undefined) row.r = radius;
+    rows.push(row);
   }
 
   if (problems.length > 0) return { ok: false, problems };

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { TRANSITION_CRITERIA } from './cell-kinds';
 
 /**
  * The engine contract (DESIGN.md, "The engine contract"): the case the boundary-layer engine analyses
@@ -8,8 +9,7 @@ import { z } from 'zod';
  * Lengths are divided by the reference length L (usually the chord); velocities by V∞.
  */
 
-export const TRANSITION_CRITERIA = ['eN', 'michel', 'hRx', 'granville'] as const;
-export type TransitionCriterion = (typeof TRANSITION_CRITERIA)[number];
+export { TRANSITION_CRITERIA, type TransitionCriterion } from './cell-kinds';
 
 /** What set the governing transition location. */
 export const TRANSITION_CAUSES = [...TRANSITION_CRITERIA, 'trip', 'laminarSeparation'] as const;

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { branchSchema, problemSchema } from './api';
-import { cellKindSchema, cellOutputSchema, type CellKind } from './notebook';
+import type { CellKind } from './cell-kinds';
+import { cellKindSchema } from './cell-schemas';
+import { cellOutputSchema } from './notebook';
 
 /**
  * Versions, branches and comparison (DESIGN.md "Notebook model"): a branch has a working draft and a
@@ -320,89 +322,3 @@ export const COMPARISON_CAUTION =
   'Differences between engineering estimates from integral boundary-layer methods and empirical transition criteria. ' +
   'Validated tools, test data and the design and certification practice that governs your work decide.';
 
-/** What the notebook calls each input field, so a difference reads "Reynolds number 6e6 → 9e6". */
-export const FIELD_LABELS: Record<CellKind, Record<string, string>> = {
-  flow: {
-    mode: 'Flow given by',
-    altitude_m: 'Altitude (m)',
-    isaTemperatureOffset_K: 'ISA temperature offset (K)',
-    mach: 'Mach number',
-    referenceLength_m: 'Reference length (m)',
-    reynolds: 'Reynolds number',
-    turbulenceMode: 'Turbulence given by',
-    turbulenceIntensity: 'Turbulence intensity',
-    nCrit: 'N_crit',
-    sweepDeg: 'Sweep (°)',
-  },
-  pressure: {
-    text: 'Pressure table',
-    uploadId: 'Uploaded file',
-    filename: 'File name',
-    layout: 'Table layout',
-    surfaceName: 'Surface name',
-    hasRadius: 'Last column is body radius',
-  },
-  analysis: {
-    flowCellId: 'Flow cell',
-    pressureCellId: 'Pressure cell',
-    criteria: 'Transition criteria',
-    trips: 'Forced transition',
-    turbulent: 'Turbulent march',
-  },
-  sweep: {
-    analysisCellId: 'Analysis cell',
-    parameter: 'Swept parameter',
-    from: 'From',
-    to: 'To',
-    steps: 'Steps',
-  },
-  flatPlate: {
-    mode: 'Given as',
-    reynolds: 'Reynolds number',
-    length_m: 'Length (m)',
-    speed_mps: 'Speed (m/s)',
-    kinematicViscosity_m2s: 'Kinematic viscosity (m²/s)',
-    transitionMode: 'Transition given by',
-    transitionReynolds: 'Transition Reynolds number',
-    transitionLocation: 'Transition location (x/L)',
-  },
-  leadingEdge: {
-    flowCellId: 'Flow cell',
-    sweepDeg: 'Sweep (°)',
-    mode: 'Given as',
-    leadingEdgeRadius: 'Leading-edge radius (r/L)',
-    velocityGradient: 'Velocity gradient dUe/ds',
-    reynolds: 'Reynolds number',
-  },
-  note: { markdown: 'Text' },
-};
-
-/** Input fields that name another cell: shown by that cell's title. */
-export const CELL_REFERENCE_FIELDS = new Set(['flowCellId', 'pressureCellId', 'analysisCellId']);
-
-export function fieldLabel(kind: CellKind, path: string): string {
-  const [head, ...rest] = path.split('.');
-  const label = FIELD_LABELS[kind]?.[head!] ?? head!;
-  return rest.length ? `${label}: ${rest.join('.')}` : label;
-}
-
-/** How the notebook words the choices an input field holds ("closedLoop" reads "closed loop"). */
-export const VALUE_LABELS: Record<string, Record<string, string>> = {
-  mode: { altitude: 'altitude, Mach, length', reynolds: 'Reynolds number', dimensional: 'length, speed, viscosity', radius: 'leading-edge radius', gradient: 'velocity gradient' },
-  turbulenceMode: { nCrit: 'N_crit', intensity: 'turbulence level' },
-  layout: { closedLoop: 'closed loop', surface: 'one surface' },
-  criteria: { eN: 'envelope eᴺ', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
-  parameter: { reynolds: 'Reynolds number', mach: 'Mach number', nCrit: 'N_crit', sweepDeg: 'sweep' },
-  transitionMode: { reynolds: 'Reynolds number', location: 'location' },
-};
-
-export function valueLabel(field: string, value: string): string {
-  return VALUE_LABELS[field.split('.')[0]!]?.[value] ?? value;
-}
-
-/** Field names in the order the notebook shows them for a kind, then any others. */
-export function orderedFields(kind: CellKind, keys: Iterable<string>): string[] {
-  const known = Object.keys(FIELD_LABELS[kind] ?? {});
-  const all = [...keys];
-  return [...known.filter((k) => all.includes(k)), ...all.filter((k) => !known.includes(k))];
-}

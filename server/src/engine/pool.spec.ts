@@ -5,10 +5,11 @@ const pool = createEnginePool({ threads: 1 });
 afterAll(() => pool.close());
 
 describe('engine worker pool', () => {
-  it('loads the TypeScript tasks in a worker thread and computes there', async () => {
+  it('loads the engine cell computations in a worker thread and computes there', async () => {
     const out = await pool.run({
       kind: 'flatPlate',
       inputs: { mode: 'reynolds', reynolds: 1e6, length_m: 1, speed_mps: 1, kinematicViscosity_m2s: 1e-6, transitionMode: 'location', transitionLocation: 1, transitionReynolds: 1e6 },
+      upstream: {},
     });
     expect(out.status).toBe('ok');
     // Blasius: mean CF = 1.328/√Re_L for a plate laminar to its end (H. Blasius 1908).
@@ -20,8 +21,10 @@ describe('engine worker pool', () => {
     const out = await pool.run({
       kind: 'analysis',
       inputs: { flowCellId: crypto.randomUUID(), pressureCellId: crypto.randomUUID(), criteria: ['eN'], trips: {}, turbulent: true, governing: 'auto' },
-      flow: { mode: 'reynolds', reynolds: 1e6, mach: 0, altitude_m: 0, isaTemperatureOffset_K: 0, referenceLength_m: 1, turbulenceMode: 'nCrit', nCrit: 9, sweepDeg: 0 },
-      pressure: { text: 'x cp\n1 0\n0.5 zero\n0 1', uploadId: null, filename: null, layout: 'closedLoop', surfaceName: 'upper', hasRadius: false },
+      upstream: {
+        flowCellId: { kind: 'flow', inputs: { mode: 'reynolds', reynolds: 1e6, mach: 0, altitude_m: 0, isaTemperatureOffset_K: 0, referenceLength_m: 1, turbulenceMode: 'nCrit', nCrit: 9, sweepDeg: 0 }, upstream: {} },
+        pressureCellId: { kind: 'pressure', inputs: { text: 'x cp\n1 0\n0.5 zero\n0 1', uploadId: null, filename: null, layout: 'closedLoop', surfaceName: 'upper', hasRadius: false }, upstream: {} },
+      },
     });
     expect(out).toMatchObject({ status: 'error', resultJson: null, error: { field: 'pressureTable line 3', line: 3 } });
   });

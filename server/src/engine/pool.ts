@@ -1,15 +1,15 @@
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
-import type { ComputedOutput, EngineTask } from './tasks';
+import type { CellTask, ComputedOutput } from '@laminote/aero';
 
-export type { ComputedOutput, EngineTask } from './tasks';
+export type { CellTask, ComputedOutput } from '@laminote/aero';
 
 /**
- * The engine's worker-thread pool (piscina): analyses run off the event loop, so the server keeps
- * answering while they compute.
+ * The engine's worker-thread pool (piscina): each task is one cell for `computeCell` (libs/aero/src/cells),
+ * run off the event loop so the server keeps answering while it computes.
  */
 export interface EnginePool {
-  run(task: EngineTask): Promise<ComputedOutput>;
+  run(task: CellTask): Promise<ComputedOutput>;
   /** Tasks the workers have finished since the pool started (tests use it to see that a cached run computed nothing). */
   readonly completed: number;
   readonly threads: number;
@@ -33,7 +33,7 @@ export class EngineTimeoutError extends Error {}
 export function createEnginePool(options: EnginePoolOptions = {}): EnginePool {
   const threads = options.threads && options.threads > 0 ? options.threads : Math.max(1, availableParallelism());
   const timeoutMs = options.taskTimeoutMs ?? 60_000;
-  const piscina = new Piscina<EngineTask, ComputedOutput>({
+  const piscina = new Piscina<CellTask, ComputedOutput>({
     filename: new URL('./worker.mjs', import.meta.url).href,
     // The worker registers its own TypeScript loader; see worker.mjs.
     execArgv: [],

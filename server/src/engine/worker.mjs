@@ -1,10 +1,10 @@
 // Entry of an engine worker thread. Plain JavaScript on purpose: a worker thread does not inherit the
 // TypeScript loader of the process that starts it (under `npm start` that is tsx, under vitest it is
-// vite), so it registers tsx itself and then loads the TypeScript tasks. The pool starts workers with
+// vite), so it registers tsx itself and then loads the engine's cell computations. The pool starts workers with
 // an empty execArgv so that this is the only loader in play.
 import { register } from 'tsx/esm/api';
 
 register();
-const { computeOutput } = await import('./tasks.ts');
+const { computeCellOutput } = await import('../../../libs/aero/src/cells/compute.ts');
 
-export default computeOutput;
+export default computeCellOutput;

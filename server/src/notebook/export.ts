@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import { ENGINE_CAUTION } from '@laminote/aero';
+import { ENGINE_CAUTION, xAtArc } from '@laminote/aero';
 import {
   CELL_KIND_LABELS,
   type CellResults,
@@ -7,7 +7,6 @@ import {
   type DraftCell,
   type EngineResult,
 } from '@laminote/contracts';
-import { xAtArc } from '../engine/tasks';
 import { ProblemError } from '../http/problem';
 
 /**

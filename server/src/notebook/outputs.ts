@@ -2,7 +2,7 @@ import { eq, inArray, sql } from 'drizzle-orm';
 import type { CellError, CellKind, CellOutput } from '@laminote/contracts';
 import type { Tx } from '../db/client';
 import { outputs } from '../db/schema';
-import type { ComputedOutput } from '../engine/pool';
+import type { ComputedOutput } from '@laminote/aero';
 
 /**
  * Stored outputs, with an in-memory cache in front of the table. An output row never changes (its key

@@ -1,6 +1,6 @@
-import { CELL_KIND_LABELS, type CellKind, type RunState } from '@laminote/contracts';
+import { CELL_KIND_REGISTRY, newCellInputs, type CellKind, type RunState } from '@laminote/contracts';
 
-/** How each kind of cell shows itself in the stack, and what a new one starts with. */
+/** How each kind of cell shows itself in the stack (from the cell-kind registry in libs/contracts). */
 export interface CellKindInfo {
   readonly kind: CellKind;
   readonly label: string;
@@ -12,59 +12,16 @@ export interface CellKindInfo {
   readonly runs: boolean;
 }
 
-const INFO: Record<CellKind, Omit<CellKindInfo, 'kind' | 'label'>> = {
-  flow: { icon: 'air', hint: 'Altitude, Mach and length, or Reynolds; N_crit; sweep', runs: true },
-  pressure: { icon: 'ssid_chart', hint: 'Paste or upload a Cp table', runs: true },
-  analysis: { icon: 'insights', hint: 'Boundary layer and transition along each surface', runs: true },
-  flatPlate: { icon: 'straighten', hint: 'Laminar, turbulent and mixed skin friction', runs: true },
-  leadingEdge: { icon: 'change_history', hint: 'Attachment-line Reynolds number and verdict', runs: true },
-  sweep: { icon: 'tune', hint: 'Re-run an analysis over a range of one parameter', runs: true },
-  note: { icon: 'notes', hint: 'Markdown text', runs: false },
-};
-
-/** The kinds offered when adding a cell, in the order a study is usually built. */
-export const ADDABLE_KINDS: readonly CellKind[] = ['flow', 'pressure', 'analysis', 'flatPlate', 'leadingEdge', 'sweep', 'note'];
+export { ADDABLE_KINDS } from '@laminote/contracts';
 
 export function cellKindInfo(kind: CellKind): CellKindInfo {
-  return { kind, label: CELL_KIND_LABELS[kind], ...INFO[kind] };
+  const { label, icon, hint, runs } = CELL_KIND_REGISTRY[kind];
+  return { kind, label, icon, hint, runs };
 }
 
 /** Inputs of a new cell: every field filled, so nothing falls back to a default the user never saw. */
 export function defaultInputs(kind: CellKind): Record<string, unknown> {
-  switch (kind) {
-    case 'flow':
-      return {
-        mode: 'altitude',
-        altitude_m: 11000,
-        isaTemperatureOffset_K: 0,
-        mach: 0.7,
-        referenceLength_m: 2,
-        turbulenceMode: 'nCrit',
-        nCrit: 9,
-        sweepDeg: 0,
-      };
-    case 'pressure':
-      return { text: '', uploadId: null, filename: null, layout: 'closedLoop', surfaceName: 'upper', hasRadius: false };
-    case 'analysis':
-      return { flowCellId: '', pressureCellId: '', criteria: ['eN', 'michel', 'hRx', 'granville'], trips: {}, turbulent: true };
-    case 'flatPlate':
-      return {
-        mode: 'reynolds',
-        reynolds: 1e7,
-        length_m: 2,
-        speed_mps: 200,
-        kinematicViscosity_m2s: 3.9e-5,
-        transitionMode: 'reynolds',
-        transitionReynolds: 3e6,
-        transitionLocation: 0.3,
-      };
-    case 'leadingEdge':
-      return { flowCellId: null, sweepDeg: 25, mode: 'radius', leadingEdgeRadius: 0.01 };
-    case 'sweep':
-      return { analysisCellId: '', parameter: 'nCrit', from: 7, to: 12, steps: 6 };
-    case 'note':
-      return { markdown: '' };
-  }
+  return newCellInputs(kind);
 }
 
 /** Laminote's words for a cell's run state, with the symbol shown beside them. */

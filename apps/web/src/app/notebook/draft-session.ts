@@ -1,7 +1,7 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { DestroyRef, Injectable, InjectionToken, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { type CellKind, type Draft, type DraftCell, type Problem, type RunResponse, draftSchema, upstreamCellIds } from '@laminote/contracts';
+import { type CellKind, type Draft, type DraftCell, type Problem, type RunResponse, draftSchema, referenceFields, upstreamCellIds } from '@laminote/contracts';
 import {
   BehaviorSubject,
   EMPTY,
@@ -192,19 +192,15 @@ export class DraftSession {
     return cellId;
   }
 
-  /** A new cell uses the nearest cells above it of the kinds it needs, as a study is usually read. */
+  /** A new cell uses the nearest cells above it of the kinds it may name, as a study is usually read. */
   private nearestSources(kind: CellKind, index: number): Record<string, string> {
     const above = this.cellsSignal().slice(0, index).reverse();
-    const nearest = (wanted: CellKind) => above.find((c) => c.kind === wanted)?.cellId;
-    const links: Record<string, string | undefined> =
-      kind === 'analysis'
-        ? { flowCellId: nearest('flow'), pressureCellId: nearest('pressure') }
-        : kind === 'leadingEdge'
-          ? { flowCellId: nearest('flow') }
-          : kind === 'sweep'
-            ? { analysisCellId: nearest('analysis') }
-            : {};
-    return Object.fromEntries(Object.entries(links).filter((entry): entry is [string, string] => entry[1] !== undefined));
+    const links: Record<string, string> = {};
+    for (const [field, reference] of referenceFields(kind)) {
+      const nearest = above.find((c) => reference.kinds.includes(c.kind))?.cellId;
+      if (nearest !== undefined) links[field] = nearest;
+    }
+    return links;
   }
 
   /** A copy just below, with a fresh id and no result (it has not been computed as itself). */

@@ -8,7 +8,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { ENGINE_CAUTION } from '@laminote/aero';
-import { type AnalysisInputs, type DraftCell, type EngineResult, TRANSITION_CRITERIA_IDS, type TransitionCriterion } from '@laminote/contracts';
+import { type AnalysisInputs, type DraftCell, type EngineResult, TRANSITION_CRITERIA, type TransitionCriterion } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
@@ -59,7 +59,7 @@ export class AnalysisCell {
 
   readonly cell = input.required<DraftCell>();
 
-  protected readonly criteriaIds = TRANSITION_CRITERIA_IDS;
+  protected readonly criteriaIds = TRANSITION_CRITERIA;
   protected readonly criterionLabels = CRITERION_LABELS;
   protected readonly caution = ENGINE_CAUTION;
 
@@ -117,7 +117,7 @@ export class AnalysisCell {
         ...previous,
         flowCellId: value.flowCellId,
         pressureCellId: value.pressureCellId,
-        criteria: TRANSITION_CRITERIA_IDS.filter((id) => value[id]),
+        criteria: TRANSITION_CRITERIA.filter((id) => value[id]),
         trips,
         turbulent: value.turbulent,
         governing: value.governing,
@@ -142,7 +142,7 @@ export class AnalysisCell {
   protected readonly resultCriteria = computed((): TransitionCriterion[] => {
     const result = this.result();
     if (!result) return [];
-    return TRANSITION_CRITERIA_IDS.filter((id) => result.surfaces.some((s) => s.transition.criteria[id] !== undefined));
+    return TRANSITION_CRITERIA.filter((id) => result.surfaces.some((s) => s.transition.criteria[id] !== undefined));
   });
   protected readonly summary = computed(() => {
     const result = this.result();

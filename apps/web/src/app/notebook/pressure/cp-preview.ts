@@ -24,34 +24,20 @@ function stagnationTrace(x: number, cp: number): PlotTrace {
   return { x: [x], y: [cp], name: 'Stagnation point', mode: 'markers', color: PLOT_COLOURS[1], markerSize: 10, markerSymbol: 'diamond' };
 }
 
-/** Whether a header row names a radius column, which a table with a body radius needs. */
-function headerNamesRadius(text: string, headerLine: number | null): boolean {
-  if (headerLine === null) return false;
-  const line = text.split(/\r\n|\r|\n/)[headerLine - 1] ?? '';
-  return line
-    .replace(/#.*/, '')
-    .trim()
-    .split(/\s*[,;\t]\s*|\s+/)
-    .some((name) => /^r(\/c|\/l)?$/i.test(name));
-}
-
 /**
- * Reads a Cp table with the engine's own reader and, for a closed loop, finds the stagnation point with
+ * Reads a Cp table with the engine's own reader (the one the server computes with, body-radius column
+ * included) and, for a closed loop, finds the stagnation point with
  * the engine's own split (at M = 0, so before the cell runs it is an incompressible estimate).
  */
 export function previewCpTable(text: string, layout: 'closedLoop' | 'surface', surfaceName: string, hasRadius: boolean): CpPreview {
   if (text.trim() === '') return EMPTY;
-  const parsed = parsePressureTable(text);
+  const parsed = parsePressureTable(text, { radius: hasRadius });
   if (!parsed.ok) return { ...EMPTY, problems: parsed.problems };
-  const problems: PressureTableProblem[] = [];
-  if (hasRadius && !headerNamesRadius(text, parsed.headerLine)) {
-    problems.push({ line: parsed.headerLine ?? 1, message: 'a table with a body radius needs a header row naming its columns, e.g. "x r cp"' });
-  }
   const rows = parsed.rows;
   const x = rows.map((r) => r.x);
   const cp = rows.map((r) => r.cp);
   const lines = rows.map((r) => `line ${r.line}`);
-  const base = { problems, rowCount: rows.length, hasY: parsed.hasY };
+  const base = { problems: [], rowCount: rows.length, hasY: parsed.hasY };
   if (layout === 'surface') {
     return {
       ...base,

@@ -1,0 +1,100 @@
+import type { AnalysisInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs } from '@laminote/contracts';
+import { analyzeCase } from '../analyze';
+import { arcAtX } from '../arc-position';
+import { edgeVelocityRatio, stagnationPressureCoefficient } from '../compressible';
+import type { PressureTableRow } from '../pressure-table';
+import { loopArcLength, splitAtStagnation } from '../stagnation';
+import { fail, stagnationFailure } from './errors';
+import { engineFlow } from './flow';
+import { readCellTable } from './table';
+import { upstreamOf, type Upstream } from './types';
+
+interface PreparedCase {
+  engineCase: EngineCaseInput;
+  /** x per surface to put back on the stations when the case is given as surfaces. */
+  xBySurface: Map<string, number[]> | null;
+}
+
+/**
+ * The engine case of an analysis: flow from the flow cell, the table (or surfaces) from the pressure
+ * cell, criteria, trips and the turbulent march from the analysis. Trips are given at x/c; the case
+ * takes them at s on surfaces, so a table with trips is split here (with the engine's own reader and
+ * stagnation finder, at the flow's Mach number) and handed over as surfaces.
+ */
+export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInputs): PreparedCase {
+  const common = {
+    flow: engineFlow(flow),
+    criteria: a.criteria,
+    ...(a.governing === 'auto' ? {} : { governing: a.governing }),
+    turbulent: a.turbulent,
+    sweepDeg: flow.sweepDeg,
+  };
+  const trips = Object.entries(a.trips);
+  if (p.layout === 'closedLoop' && trips.length === 0 && !p.hasRadius) return { engineCase: { ...common, pressureTable: p.text }, xBySurface: null };
+
+  const table = readCellTable(p);
+  const mach = flow.mach;
+  const cp0 = stagnationPressureCoefficient(mach);
+  const speedOf = (row: PressureTableRow) => {
+    if (row.cp > cp0 + 1e-6) fail('text', `line ${row.line}: Cp ${row.cp} is above the stagnation value ${cp0.toFixed(4)} at mach ${mach}`, row.line);
+    return row.cp >= cp0 ? 0 : edgeVelocityRatio(row.cp, mach);
+  };
+  const x = table.rows.map((r) => r.x);
+  const y = table.hasY ? table.rows.map((r) => r.y!) : null;
+  let surfaces: { name: string; s: number[]; x: number[]; ue?: number[]; cp?: number[]; r?: number[] }[];
+  if (p.layout === 'closedLoop') {
+    let split;
+    try {
+      split = splitAtStagnation(x, y, table.rows.map(speedOf));
+    } catch (error) {
+      stagnationFailure(error, table.rows);
+    }
+    surfaces = (['upper', 'lower'] as const).map((name) => ({ name, s: Array.from(split[name].s), x: Array.from(split[name].x), ue: Array.from(split[name].ue) }));
+  } else {
+    let s: Float64Array;
+    try {
+      s = loopArcLength(x, y);
+    } catch (error) {
+      stagnationFailure(error, table.rows);
+    }
+    surfaces = [{ name: p.surfaceName, s: Array.from(s), x, cp: table.rows.map((r) => r.cp), ...(table.radius ? { r: table.radius } : {}) }];
+  }
+  const names = surfaces.map((surface) => surface.name);
+  for (const [name] of trips) {
+    if (!names.includes(name)) fail(`trips.${name}`, `there is no surface named "${name}" (the table gives ${names.join(' and ')})`);
+  }
+  const xBySurface = new Map(surfaces.map((surface) => [surface.name, surface.x]));
+  return {
+    engineCase: {
+      ...common,
+      surfaces: surfaces.map(({ x: xs, ...surface }) => {
+        const trip = a.trips[surface.name];
+        if (trip === undefined) return surface;
+        const s = arcAtX(surface.s, xs, trip);
+        if (s === null) fail(`trips.${surface.name}`, `x/c ${trip} is not on the ${surface.name} surface (x from ${Math.min(...xs)} to ${Math.max(...xs)})`);
+        return { ...surface, trip: s };
+      }),
+    },
+    xBySurface,
+  };
+}
+
+/** Transition analysis of the named flow and pressure cells: the engine's analyzeCase (analyze.ts). */
+export function computeAnalysis(a: AnalysisInputs, upstream: Upstream): EngineResult {
+  const flow = upstreamOf(upstream, 'flowCellId', 'flow').inputs;
+  const pressure = upstreamOf(upstream, 'pressureCellId', 'pressure').inputs;
+  return analyzeWith(a, flow, pressure);
+}
+
+/** The analysis with the flow and pressure inputs given directly (a sweep varies the flow). */
+export function analyzeWith(a: AnalysisInputs, flow: FlowInputs, pressure: PressureInputs): EngineResult {
+  const prepared = analysisCase(a, flow, pressure);
+  const result = analyzeCase(prepared.engineCase);
+  if (prepared.xBySurface) {
+    for (const surface of result.surfaces) {
+      const x = prepared.xBySurface.get(surface.name);
+      if (x && x.length === surface.stations.s.length) surface.stations.x = x;
+    }
+  }
+  return result;
+}

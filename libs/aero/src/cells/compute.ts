@@ -1,0 +1,82 @@
+import { CELL_KIND_LABELS, type CellError, type CellInputs, type CellKind, type CellResults, type ComputedKind } from '@laminote/contracts';
+import { computeAnalysis } from './analysis';
+import { toCellError } from './errors';
+import { computeFlatPlate } from './flat-plate';
+import { computeFlow } from './flow';
+import { computeLeadingEdge } from './leading-edge';
+import { computePressure } from './pressure';
+import { computeSweep } from './sweep';
+import type { Upstream } from './types';
+
+/**
+ * Every cell kind's computation, one module a kind: `computeCell(kind, inputs, upstream)` is what the
+ * server's worker threads, the job workers and the command line call, so all of them compute a cell
+ * alike. Pure and synchronous; inputs are validated by the kind's schema (defaults applied).
+ */
+
+type Compute<K extends ComputedKind> = (inputs: CellInputs[K], upstream: Upstream) => CellResults[K];
+
+/** One entry per kind that computes (the registry's `runs`); a test checks the two agree. */
+export const CELL_COMPUTE: { readonly [K in ComputedKind]: Compute<K> } = {
+  flow: (inputs) => computeFlow(inputs),
+  pressure: (inputs) => computePressure(inputs),
+  analysis: computeAnalysis,
+  sweep: computeSweep,
+  flatPlate: (inputs) => computeFlatPlate(inputs),
+  leadingEdge: computeLeadingEdge,
+};
+
+export function isComputedKind(kind: CellKind): kind is ComputedKind {
+  return Object.hasOwn(CELL_COMPUTE, kind);
+}
+
+/** Compute one cell. Throws CellInputError (or the engine's CaseError) for input the engine refuses. */
+export function computeCell<K extends ComputedKind>(kind: K, inputs: CellInputs[K], upstream: Upstream = {}): CellResults[K] {
+  return (CELL_COMPUTE[kind] as Compute<K>)(inputs, upstream);
+}
+
+/** A computation to hand to a worker: plain data, copied across threads. */
+export interface CellTask {
+  kind: ComputedKind;
+  inputs: CellInputs[ComputedKind];
+  upstream: Upstream;
+}
+
+/** A computed output with its result as JSON text, numbers kept to RESULT_DIGITS. */
+export interface ComputedOutput {
+  status: 'ok' | 'error';
+  /** JSON text of the result when status is ok. */
+  resultJson: string | null;
+  error: CellError | null;
+  durationMs: number;
+}
+
+/** Significant digits results are kept to: beyond single precision, far beyond what the methods resolve. */
+export const RESULT_DIGITS = 7;
+
+/** A JSON replacer keeping non-integer numbers to RESULT_DIGITS significant digits. */
+export function roundedNumber(_key: string, v: unknown): unknown {
+  return typeof v === 'number' && !Number.isInteger(v) && Number.isFinite(v) ? Number(v.toPrecision(RESULT_DIGITS)) : v;
+}
+
+/**
+ * Compute a cell into its stored form: the result as JSON text, or the one-line message with the
+ * field at fault. A fault that is not the input's (a defect) is thrown, not stored.
+ */
+export function computeCellOutput(task: CellTask): ComputedOutput {
+  const started = performance.now();
+  try {
+    const result = computeCell(task.kind, task.inputs, task.upstream);
+    return { status: 'ok', resultJson: JSON.stringify(result, roundedNumber), error: null, durationMs: performance.now() - started };
+  } catch (error) {
+    const cellError = toCellError(error);
+    if (!cellError) throw error;
+    return { status: 'error', resultJson: null, error: cellError, durationMs: performance.now() - started };
+  }
+}
+
+/** The error a cell stores when a cell it uses failed: named by the input that uses it. */
+export function upstreamFailedError(upstreamKind: CellKind, field: string, upstreamError: CellError | null): CellError {
+  return { message: `the ${CELL_KIND_LABELS[upstreamKind].toLowerCase()} it uses (${field}) failed: ${upstreamError?.message ?? 'see that cell'}`, field };
+}
+

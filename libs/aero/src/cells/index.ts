@@ -1,0 +1,10 @@
+/**
+ * The cells: `computeCell(kind, inputs, upstream)` and what surrounds it (see compute.ts); one module
+ * per kind beside it.
+ */
+export { CELL_COMPUTE, computeCell, computeCellOutput, isComputedKind, RESULT_DIGITS, roundedNumber, upstreamFailedError, type CellTask, type ComputedOutput } from './compute';
+export { CellInputError, toCellError } from './errors';
+export { engineFlow } from './flow';
+export { planCells, sourceOf, type CellPlan, type PlannableCell } from './plan';
+export { computeStudy } from './study';
+export type { CellSource, Upstream } from './types';

@@ -1,0 +1,71 @@
+import type { PressureInputs, PressureResult } from '@laminote/contracts';
+import { loopArcLength, splitAtStagnation } from '../stagnation';
+import { fail, stagnationFailure } from './errors';
+import { readCellTable } from './table';
+
+/**
+ * Pressure distribution: the table as read (pressure-table.ts) and, for a closed loop, split at the
+ * stagnation point into upper and lower surfaces with their arc lengths (stagnation.ts).
+ */
+export function computePressure(p: PressureInputs): PressureResult {
+  const table = readCellTable(p);
+  const { rows } = table;
+  const x = rows.map((r) => r.x);
+  const y = table.hasY ? rows.map((r) => r.y!) : null;
+  const warnings: string[] = [];
+  let cpMinIndex = 0;
+  rows.forEach((r, i) => {
+    if (r.cp < rows[cpMinIndex]!.cp) cpMinIndex = i;
+  });
+  let surfaces: PressureResult['surfaces'];
+  let stagnation: PressureResult['stagnation'] = null;
+  const nameOfRow = new Map<number, string>();
+  if (p.layout === 'closedLoop') {
+    // The stagnation point does not move with Mach number (Cp is largest there either way), so the
+    // incompressible speed locates it; the analysis splits again with the flow's Mach number.
+    const speed = rows.map((r) => Math.sqrt(Math.max(0, 1 - r.cp)));
+    let split;
+    try {
+      split = splitAtStagnation(x, y, speed);
+    } catch (error) {
+      stagnationFailure(error, rows);
+    }
+    stagnation = { x: split.stagnation.x, y: split.stagnation.y, velocityGradient: split.stagnation.velocityGradient };
+    surfaces = (['upper', 'lower'] as const).map((name) => {
+      const b = split[name];
+      const keep = [...b.source.keys()].filter((j) => b.source[j]! >= 0);
+      for (const j of keep) nameOfRow.set(b.source[j]!, name);
+      return {
+        name,
+        x: keep.map((j) => b.x[j]!),
+        y: b.y ? keep.map((j) => b.y![j]!) : null,
+        cp: keep.map((j) => rows[b.source[j]!]!.cp),
+        s: keep.map((j) => b.s[j]!),
+        r: null,
+        line: keep.map((j) => rows[b.source[j]!]!.line),
+      };
+    });
+    if (!table.hasY) warnings.push('no y column: arc length is taken from x alone, which understates it round the leading edge; the first part of the loop is named upper');
+  } else {
+    let s: Float64Array;
+    try {
+      s = loopArcLength(x, y);
+    } catch (error) {
+      stagnationFailure(error, rows);
+    }
+    surfaces = [{ name: p.surfaceName, x, y, cp: rows.map((r) => r.cp), s: Array.from(s), r: table.radius, line: rows.map((r) => r.line) }];
+    for (let i = 0; i < rows.length; i++) nameOfRow.set(i, p.surfaceName);
+    if (rows.length < 3) fail('text', 'a surface needs at least 3 rows');
+  }
+  const minRow = rows[cpMinIndex]!;
+  return {
+    layout: p.layout,
+    rowCount: rows.length,
+    hasY: table.hasY,
+    headerLine: table.headerLine,
+    surfaces,
+    stagnation,
+    cpMin: { x: minRow.x, cp: minRow.cp, surface: nameOfRow.get(cpMinIndex) ?? surfaces[0]!.name },
+    warnings,
+  };
+}
