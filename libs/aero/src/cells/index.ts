@@ -7,4 +7,5 @@ export { CellInputError, toCellError } from './errors';
 export { engineFlow } from './flow';
 export { planCells, sourceOf, type CellPlan, type PlannableCell } from './plan';
 export { computeStudy } from './study';
+export { assembleSweep, computeSweepCase, sweepCaseCount, sweepValues, type SweepCase } from './sweep';
 export type { CellSource, Upstream } from './types';

@@ -27,22 +27,39 @@ function analyzeStep(a: AnalysisInputs, flow: FlowInputs, pressure: Parameters<t
   }
 }
 
+/** One case of a sweep: its step of the result and the analysis's warnings. */
+export interface SweepCase {
+  step: SweepResult['steps'][number];
+  warnings: string[];
+}
+
+/** The values a sweep runs over: `steps` evenly spaced from `from` to `to`. */
+export function sweepValues(sw: SweepInputs): number[] {
+  return Array.from({ length: sw.steps }, (_, i) => sw.from + ((sw.to - sw.from) * i) / (sw.steps - 1));
+}
+
+/** How many cases a sweep has. */
+export function sweepCaseCount(sw: SweepInputs): number {
+  return sw.steps;
+}
+
 /**
- * Parameter sweep: the named analysis re-run over `steps` evenly spaced values of one parameter of its
- * flow cell; a step that fails keeps its message and the others go on.
+ * One case of a sweep, on its own: the named analysis at the case's value. A long sweep is computed a
+ * chunk of cases at a time (by the job workers) and put together by assembleSweep, exactly as
+ * computeSweep would give it whole.
  */
-export function computeSweep(sw: SweepInputs, upstream: Upstream): SweepResult {
+export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: number): SweepCase {
   const analysis = upstreamOf(upstream, 'analysisCellId', 'analysis');
   const flow = upstreamOf(analysis.upstream, 'flowCellId', 'flow').inputs;
   const pressure = upstreamOf(analysis.upstream, 'pressureCellId', 'pressure').inputs;
-  const values = Array.from({ length: sw.steps }, (_, i) => sw.from + ((sw.to - sw.from) * i) / (sw.steps - 1));
-  const warnings = new Set<string>();
-  const steps = values.map((value): SweepResult['steps'][number] => {
-    const outcome = analyzeStep(analysis.inputs, sweptFlow(flow, sw.parameter, value), pressure);
-    if ('error' in outcome) return { value, status: 'error', error: outcome.error, reynolds: null, cd: null, surfaces: [], attachmentLine: null };
-    const r = outcome.result;
-    for (const w of r.warnings) warnings.add(w);
-    return {
+  if (!(Number.isInteger(index) && index >= 0 && index < sweepCaseCount(sw))) throw new RangeError(`the sweep has no case ${index}`);
+  // As sweepValues has it, so a case computed alone has exactly the value of the whole sweep's.
+  const value = sw.from + ((sw.to - sw.from) * index) / (sw.steps - 1);
+  const outcome = analyzeStep(analysis.inputs, sweptFlow(flow, sw.parameter, value), pressure);
+  if ('error' in outcome) return { step: { value, status: 'error', error: outcome.error, reynolds: null, cd: null, surfaces: [], attachmentLine: null }, warnings: [] };
+  const r = outcome.result;
+  return {
+    step: {
       value,
       status: 'ok',
       error: null,
@@ -57,11 +74,30 @@ export function computeSweep(sw: SweepInputs, upstream: Upstream): SweepResult {
         cd: surface.cd,
       })),
       attachmentLine: r.attachmentLine ? { reBar: r.attachmentLine.reBar, verdict: r.attachmentLine.verdict } : null,
-    };
-  });
+    },
+    warnings: r.warnings,
+  };
+}
+
+/** A sweep's result from all its cases in order; every case failing is the sweep failing, named by the first. */
+export function assembleSweep(sw: SweepInputs, cases: readonly SweepCase[]): SweepResult {
+  const values = sweepValues(sw);
+  if (cases.length !== values.length) throw new RangeError(`the sweep has ${values.length} cases, ${cases.length} were given`);
+  const steps = cases.map((c) => c.step);
   if (steps.every((step) => step.status === 'error')) {
     const first = steps[0]!.error!;
     throw new CellInputError(first.field ?? 'analysisCellId', `every step failed; at ${sw.parameter} = ${values[0]}: ${first.message}`, first.line);
   }
-  return { parameter: sw.parameter, values, steps, warnings: [...warnings] };
+  return { parameter: sw.parameter, values, steps, warnings: [...new Set(cases.flatMap((c) => c.warnings))] };
+}
+
+/**
+ * Parameter sweep: the named analysis re-run over `steps` evenly spaced values of one parameter of its
+ * flow cell; a step that fails keeps its message and the others go on.
+ */
+export function computeSweep(sw: SweepInputs, upstream: Upstream): SweepResult {
+  return assembleSweep(
+    sw,
+    Array.from({ length: sweepCaseCount(sw) }, (_, index) => computeSweepCase(sw, upstream, index)),
+  );
 }
