@@ -12,7 +12,9 @@
  * Transition where N reaches N_crit. Critical N from the free-stream turbulence intensity Tu (as a
  * fraction) by L. M. Mack, "Transition prediction and linear stability theory", AGARD CP-224 (1977):
  *   N_crit = −8.43 − 2.4 ln Tu,
- * fitted to wind-tunnel data for roughly 0.1 % < Tu < 3 % (from memory).
+ * usually quoted as valid for 0.07 % ≤ Tu ≤ 2.98 % (range from memory, as the relation is commonly
+ * cited after Mack), which is exactly where it gives N_crit from 9.0 down to 0: the everyday
+ * N_crit = 9 sits at the low end of the range, not outside it.
  */
 
 /** Re_θ at which Tollmien–Schlichting waves start to grow (neutral point), for shape factor H. */
@@ -36,7 +38,8 @@ export function envelopeGrowthRate(shapeFactor: number, theta: number): number {
   return (envelopeSlope(h) * 0.5 * (mEll + ell)) / theta;
 }
 
-export const MACK_TURBULENCE_RANGE = [0.001, 0.03] as const;
+/** Turbulence levels (fractions) over which Mack's relation is usually quoted as valid: N_crit 9 to 0. */
+export const MACK_TURBULENCE_RANGE = [0.0007, 0.0298] as const;
 
 /** Mack's critical N-factor for turbulence intensity Tu (fraction), never below zero. */
 export function mackCriticalN(turbulenceIntensity: number): number {

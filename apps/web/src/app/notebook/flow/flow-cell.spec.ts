@@ -73,6 +73,20 @@ describe('FlowCell', () => {
     expect(session.cell(FLOW_ID)?.inputs).toMatchObject({ turbulenceMode: 'intensity', turbulenceIntensity: 0.002 });
   });
 
+  it('gives the usual N_crit 9 at a turbulence level of 0.07 % without calling it out of range', async () => {
+    const { loader, field, flow } = await render();
+    await (await loader.getHarness(MatButtonToggleHarness.with({ text: 'Turbulence level' }))).check();
+    await (await field('turbulencePercent')).setValue('0.07');
+    // Mack's relation at Tu = 0.0007: −8.43 − 2.4 ln 0.0007 = 9.00 (arithmetic); the relation is
+    // usually quoted for 0.07 % to 2.98 %, i.e. N_crit 9 down to 0 (range from memory).
+    expect(await flow.getImpliedNCrit()).toBe('9.00');
+    expect(await flow.getImpliedNote()).toBeNull();
+    await (await field('turbulencePercent')).setValue('0.05');
+    expect(await flow.getImpliedNote()).toBe(
+      'Outside 0.07 % to 2.98 %, the turbulence levels Mack’s relation is quoted for (N_crit 9 down to 0): the value is extrapolated.',
+    );
+  });
+
   it('takes a Reynolds number directly and then shows no dimensional quantities', async () => {
     const { loader, field, flow } = await render();
     await (await loader.getHarness(MatButtonToggleHarness.with({ text: 'Reynolds number' }))).check();

@@ -152,7 +152,7 @@ export class FlowCell {
     const [low, high] = MACK_TURBULENCE_RANGE;
     const note =
       tu < low || tu > high
-        ? `Outside the ${low * 100} % to ${high * 100} % that Mack’s relation was fitted to: the value is extrapolated.`
+        ? `Outside ${percent(low)} % to ${percent(high)} %, the turbulence levels Mack’s relation is quoted for (N_crit 9 down to 0): the value is extrapolated.`
         : null;
     return { value: fixed(mackCriticalN(tu), 2), note };
   });
@@ -167,4 +167,9 @@ export class FlowCell {
     if (control === 'turbulencePercent' && /fraction/.test(message)) return 'At most 5 %';
     return message;
   }
+}
+
+/** A fraction as a percentage, without the binary fraction's trailing digits (0.0007 → 0.07). */
+function percent(fraction: number): string {
+  return String(Number((fraction * 100).toPrecision(6)));
 }

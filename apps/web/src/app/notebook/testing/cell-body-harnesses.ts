@@ -7,6 +7,7 @@ export class FlowCellHarness extends ComponentHarness {
   private readonly quantities = this.locatorForAll('.quantity');
   private readonly values = this.locatorForAll('.quantity dd');
   private readonly implied = this.locatorForOptional('.implied-value');
+  private readonly impliedNote = this.locatorForOptional('.implied .note');
   private readonly waiting = this.locatorForOptional('.waiting');
 
   /** Derived values by symbol (Re, ν∞, V∞, q∞, …), each as shown with its unit. */
@@ -24,6 +25,12 @@ export class FlowCellHarness extends ComponentHarness {
   async getWaitingReason(): Promise<string | null> {
     const waiting = await this.waiting();
     return waiting ? waiting.text() : null;
+  }
+
+  /** The note beside the implied N_crit (a turbulence level outside Mack's range), if any. */
+  async getImpliedNote(): Promise<string | null> {
+    const note = await this.impliedNote();
+    return note ? note.text() : null;
   }
 
   /** The N_crit a turbulence level implies, or null when N_crit is given directly. */
