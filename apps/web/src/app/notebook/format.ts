@@ -18,3 +18,23 @@ export function sci(value: number | null | undefined, digits = 3): string {
 export function fixed(value: number | null | undefined, decimals: number): string {
   return value === null || value === undefined || !Number.isFinite(value) ? '—' : value.toFixed(decimals);
 }
+
+/**
+ * A bound as a hint shows it: large and small numbers as a power of ten with the shortest mantissa
+ * (1 × 10⁴, 2.5 × 10⁶), others plain (0.95, 70).
+ */
+export function bound(value: number): string {
+  const magnitude = Math.abs(value);
+  if (magnitude === 0 || (magnitude >= 0.01 && magnitude < 1e4)) return String(value);
+  const [mantissa, exponent] = value.toExponential().split('e');
+  const power = String(Number(exponent))
+    .split('')
+    .map((c) => SUPERSCRIPT[c] ?? c)
+    .join('');
+  return `${mantissa} × 10${power}`;
+}
+
+/** A range as a hint says it: "1 × 10⁴ to 1 × 10¹⁰". */
+export function rangeText(min: number, max: number): string {
+  return `${bound(min)} to ${bound(max)}`;
+}

@@ -10,7 +10,7 @@ import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../draft-session';
 import { CAUSE_LABELS } from '../analysis/analysis-summary';
-import { sci } from '../format';
+import { rangeText, sci } from '../format';
 
 type Parameter = SweepInputs['parameter'];
 
@@ -46,6 +46,7 @@ export class SweepCell {
   protected readonly labels = PARAMETER_LABELS;
   protected readonly ranges = SWEEP_RANGES;
   protected readonly caution = ENGINE_CAUTION;
+  protected readonly rangeText = rangeText;
 
   protected readonly form = new FormGroup({
     analysisCellId: new FormControl('', { nonNullable: true }),
