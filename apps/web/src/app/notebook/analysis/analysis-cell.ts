@@ -10,6 +10,7 @@ import { MatTableModule } from '@angular/material/table';
 import { ENGINE_CAUTION } from '@laminote/aero';
 import { type AnalysisInputs, type DraftCell, type EngineResult, TRANSITION_CRITERIA, type TransitionCriterion } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
+import { ScrollCue } from '../../shared/scroll-cue';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../draft-session';
@@ -49,6 +50,7 @@ type Governing = AnalysisInputs['governing'];
     MatTableModule,
     Plot,
     ReactiveFormsModule,
+    ScrollCue,
   ],
   templateUrl: './analysis-cell.html',
   styleUrl: './analysis-cell.scss',
