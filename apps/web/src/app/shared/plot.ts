@@ -1,5 +1,20 @@
 import { NgComponentOutlet } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, InjectionToken, type Type, afterNextRender, computed, inject, input, signal } from '@angular/core';
+import {
+  ApplicationRef,
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  ElementRef,
+  InjectionToken,
+  type Type,
+  afterNextRender,
+  computed,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { MatIconModule } from '@angular/material/icon';
+import { MatTooltipModule } from '@angular/material/tooltip';
 
 /** One line or set of markers on a plot. `y` may hold nulls where a quantity is undefined. */
 export interface PlotTrace {
@@ -50,11 +65,32 @@ export const PLOT_RENDERER = new InjectionToken<() => Promise<Type<unknown>>>('P
   factory: () => loadPlotly,
 });
 
+/** What the plot's own toolbar asks of the plotting library, on the drawn plot's element. */
+export interface PlotLibrary {
+  downloadImage(element: HTMLElement, options: { format: 'png' | 'svg'; filename: string; width?: number; height?: number; scale?: number }): Promise<unknown>;
+  relayout(element: HTMLElement, update: Record<string, unknown>): Promise<unknown>;
+}
+
+/** Loads the plotting library itself, for the toolbar's export and reset. A token for the same reason. */
+export const PLOT_LIBRARY = new InjectionToken<() => Promise<PlotLibrary>>('PLOT_LIBRARY', {
+  factory: () => loadLibrary,
+});
+
 let plotly: Promise<Type<unknown>> | null = null;
+let library: Promise<PlotLibrary> | null = null;
+
+function loadLibrary(): Promise<PlotLibrary> {
+  library ??= import('plotly.js-dist-min').then((m) => m.default as unknown as PlotLibrary);
+  return library;
+}
+
+/** The drawing component once any plot loaded it (the print handler draws every other plot with it). */
+let drawnComponent: Type<unknown> | null = null;
 
 function loadPlotly(): Promise<Type<unknown>> {
-  plotly ??= Promise.all([import('angular-plotly.js'), import('plotly.js-dist-min')]).then(([binding, library]) => {
-    binding.PlotlyService.setPlotly(library.default);
+  plotly ??= Promise.all([import('angular-plotly.js'), loadLibrary()]).then(([binding, lib]) => {
+    binding.PlotlyService.setPlotly(lib);
+    drawnComponent = binding.PlotlyComponent;
     return binding.PlotlyComponent;
   });
   return plotly;
@@ -80,6 +116,29 @@ function axisLayout(axis: PlotAxis): Record<string, unknown> {
     showline: true,
     automargin: true,
   };
+}
+
+/** The axis settings that put a plot back to the view it was drawn with (after zooming or panning). */
+export function resetViewUpdate(figure: PlotFigure): Record<string, unknown> {
+  const update: Record<string, unknown> = {};
+  for (const [name, axis] of [['xaxis', figure.x], ['yaxis', figure.y]] as const) {
+    const layout = axisLayout(axis);
+    update[`${name}.autorange`] = layout['autorange'];
+    if (layout['range']) update[`${name}.range`] = layout['range'];
+  }
+  return update;
+}
+
+/** A file name from what the plot shows: "pressure-coefficient-cp-along-x-c". */
+export function plotFileName(label: string): string {
+  return (
+    label
+      .toLowerCase()
+      .normalize('NFKD')
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-+|-+$/g, '')
+      .slice(0, 60) || 'plot'
+  );
 }
 
 /** The library's figure for a Laminote plot: its fonts, colours and compact margins. */
@@ -137,11 +196,12 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
       annotations,
     },
     config: {
+      // The library's own hover toolbar is not shown: the plot has a small toolbar of Laminote's own.
+      displayModeBar: false,
       displaylogo: false,
       responsive: true,
       scrollZoom: false,
-      modeBarButtonsToRemove: ['select2d', 'lasso2d', 'autoScale2d', 'toggleSpikelines'],
-      toImageButtonOptions: { format: 'svg' },
+      doubleClick: 'reset',
     },
   };
 }
@@ -153,9 +213,20 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
  */
 @Component({
   selector: 'lam-plot',
-  imports: [NgComponentOutlet],
+  imports: [MatIconModule, MatTooltipModule, NgComponentOutlet],
   template: `
     @if (renderer(); as renderer) {
+      <div class="tools" role="toolbar" [attr.aria-label]="'Plot tools: ' + label()">
+        <button type="button" class="tool" (click)="exportImage('png')" matTooltip="Save the plot as a PNG image" aria-label="Export PNG">
+          <mat-icon aria-hidden="true">image</mat-icon>PNG
+        </button>
+        <button type="button" class="tool" (click)="exportImage('svg')" matTooltip="Save the plot as an SVG drawing" aria-label="Export SVG">
+          <mat-icon aria-hidden="true">draw</mat-icon>SVG
+        </button>
+        <button type="button" class="tool" (click)="resetView()" matTooltip="Back to the full view after zooming (drag to zoom; double-click also resets)" aria-label="Reset view">
+          <mat-icon aria-hidden="true">fit_screen</mat-icon>
+        </button>
+      </div>
       <ng-container *ngComponentOutlet="renderer; inputs: plotInputs()" />
     } @else if (failed()) {
       <p class="placeholder" role="alert">The plot could not be drawn: {{ failed() }}</p>
@@ -166,7 +237,53 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
   styles: `
     :host {
       display: block;
+      position: relative;
       min-width: 0;
+    }
+    .tools {
+      position: absolute;
+      top: 2px;
+      right: 4px;
+      z-index: 1;
+      display: flex;
+      gap: 2px;
+      padding: 2px;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 6px;
+      background: var(--mat-sys-surface);
+      opacity: 0;
+      transition: opacity 120ms;
+    }
+    :host(:hover) .tools,
+    .tools:focus-within {
+      opacity: 1;
+    }
+    .tool {
+      display: inline-flex;
+      align-items: center;
+      gap: 2px;
+      height: 22px;
+      padding: 0 6px;
+      border: 0;
+      border-radius: 4px;
+      background: none;
+      color: var(--mat-sys-primary);
+      font: 700 10px/1 var(--lam-mono);
+      letter-spacing: 0.02em;
+      cursor: pointer;
+    }
+    .tool:hover {
+      background: var(--mat-sys-primary-container);
+    }
+    .tool mat-icon {
+      font-size: 14px;
+      width: 14px;
+      height: 14px;
+    }
+    @media print {
+      .tools {
+        display: none;
+      }
     }
     .placeholder {
       display: flex;
@@ -197,11 +314,28 @@ export class Plot {
   });
 
   private readonly load = inject(PLOT_RENDERER);
+  private readonly library = inject(PLOT_LIBRARY);
+  private readonly appRef = inject(ApplicationRef);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
+  /** The drawing component once loaded, so a print can draw every plot at once. */
+  private loaded: Type<unknown> | null = null;
 
   constructor() {
-    const host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
+    const host = this.host;
     const destroyRef = inject(DestroyRef);
     afterNextRender(() => {
+      // A print (or a capture in print media) shows every plot, not the placeholders of plots
+      // nobody scrolled to: draw them all first.
+      const drawForPrint = () => this.drawNow();
+      window.addEventListener('beforeprint', drawForPrint);
+      const printMedia = typeof window.matchMedia === 'function' ? window.matchMedia('print') : null;
+      const onMedia = (event: MediaQueryListEvent) => event.matches && drawForPrint();
+      printMedia?.addEventListener?.('change', onMedia);
+      destroyRef.onDestroy(() => {
+        window.removeEventListener('beforeprint', drawForPrint);
+        printMedia?.removeEventListener?.('change', onMedia);
+      });
+
       if (typeof IntersectionObserver === 'undefined') {
         this.draw();
         return;
@@ -225,7 +359,40 @@ export class Plot {
 
   private draw(): void {
     this.load()
-      .then((component) => this.renderer.set(component))
+      .then((component) => {
+        this.loaded = component;
+        this.renderer.set(component);
+      })
       .catch((error: unknown) => this.failed.set(error instanceof Error ? error.message : String(error)));
+  }
+
+  /** Draws at once: synchronously when the library is already loaded (a print cannot wait). */
+  private drawNow(): void {
+    if (this.renderer()) return;
+    const ready = this.loaded ?? drawnComponent;
+    if (ready) {
+      this.renderer.set(ready);
+      this.appRef.tick();
+    } else {
+      this.draw();
+    }
+  }
+
+  /** The element the library drew into. */
+  private graph(): HTMLElement | null {
+    return this.host.querySelector<HTMLElement>('.js-plotly-plot');
+  }
+
+  protected exportImage(format: 'png' | 'svg'): void {
+    const graph = this.graph();
+    if (!graph) return;
+    const width = Math.max(480, Math.round(graph.getBoundingClientRect().width));
+    void this.library().then((lib) => lib.downloadImage(graph, { format, filename: plotFileName(this.label()), width, height: this.height(), scale: format === 'png' ? 2 : 1 }));
+  }
+
+  protected resetView(): void {
+    const graph = this.graph();
+    if (!graph) return;
+    void this.library().then((lib) => lib.relayout(graph, resetViewUpdate(this.figure())));
   }
 }
