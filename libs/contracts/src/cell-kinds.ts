@@ -131,7 +131,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
   sweep: {
     label: 'Parameter sweep',
     icon: 'tune',
-    hint: 'Re-run an analysis over a range of one parameter',
+    hint: 'Re-run an analysis over a range of one parameter, or a grid of two',
     runs: true,
     references: { analysisCellId: { kinds: ['analysis'], required: true } },
     fields: {
@@ -140,6 +140,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
       from: 'From',
       to: 'To',
       steps: 'Steps',
+      second: 'Second parameter (grid)',
     },
     starter: { analysisCellId: '', parameter: 'nCrit', from: 7, to: 12, steps: 6 },
   },

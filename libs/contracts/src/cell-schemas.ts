@@ -81,24 +81,46 @@ export const analysisInputsSchema = z.object({
 });
 export type AnalysisInputs = z.infer<typeof analysisInputsSchema>;
 
+/** The most cases one sweep may have (a grid counts steps × steps of the second parameter). */
+export const SWEEP_CASE_LIMIT = 2000;
+
+const sweepParameterSchema = z.enum(['reynolds', 'mach', 'nCrit', 'sweepDeg']);
+const sweepSteps = (field: string) =>
+  z.number({ error: `${field} must be a number` }).int(`${field} must be a whole number`).min(2, `${field} must be at least 2`).max(SWEEP_CASE_LIMIT, `${field} must be at most ${SWEEP_CASE_LIMIT.toLocaleString('en')}`);
+
 /**
  * Parameter sweep: one analysis cell re-run over `steps` evenly spaced values of one parameter of its
- * flow cell. Mach at a fixed altitude changes the Reynolds number too (V∞ = M a∞); a Reynolds-number
- * sweep keeps Mach as the flow cell has it.
+ * flow cell, or over a grid of two (`second`: every value of the second parameter at every value of the
+ * first). Mach at a fixed altitude changes the Reynolds number too (V∞ = M a∞); a Reynolds-number
+ * sweep keeps Mach as the flow cell has it. A long sweep runs as a job, its cases shared by the workers.
  */
 export const sweepInputsSchema = z.object({
   analysisCellId: cellRef('analysisCellId'),
-  parameter: z.enum(['reynolds', 'mach', 'nCrit', 'sweepDeg']),
+  parameter: sweepParameterSchema,
   from: finite('from'),
   to: finite('to'),
-  steps: z.number().int('steps must be a whole number').min(2, 'steps must be at least 2').max(60, 'steps must be at most 60'),
+  steps: sweepSteps('steps'),
+  second: z
+    .object({ parameter: sweepParameterSchema, from: finite('second.from'), to: finite('second.to'), steps: sweepSteps('second.steps') })
+    .nullable()
+    .optional(),
 }).superRefine((sweep, ctx) => {
-  const range = SWEEP_RANGES[sweep.parameter];
-  for (const end of ['from', 'to'] as const) {
-    const v = sweep[end];
-    if (!(v >= range.min && v <= range.max)) ctx.addIssue({ code: 'custom', path: [end], message: `${sweep.parameter} must lie between ${range.min} and ${range.max}${range.note}` });
+  const check = (parameter: SweepInputs['parameter'], from: number, to: number, path: string[]) => {
+    const range = SWEEP_RANGES[parameter];
+    for (const [end, v] of [['from', from], ['to', to]] as const) {
+      if (!(v >= range.min && v <= range.max)) ctx.addIssue({ code: 'custom', path: [...path, end], message: `${parameter} must lie between ${range.min} and ${range.max}${range.note}` });
+    }
+    if (from === to) ctx.addIssue({ code: 'custom', path: [...path, 'to'], message: `${path.length ? 'second.' : ''}to must differ from ${path.length ? 'second.' : ''}from` });
+  };
+  check(sweep.parameter, sweep.from, sweep.to, []);
+  if (sweep.second) {
+    check(sweep.second.parameter, sweep.second.from, sweep.second.to, ['second']);
+    if (sweep.second.parameter === sweep.parameter) ctx.addIssue({ code: 'custom', path: ['second', 'parameter'], message: 'the second parameter must differ from the first' });
+    const cases = sweep.steps * sweep.second.steps;
+    if (cases > SWEEP_CASE_LIMIT) {
+      ctx.addIssue({ code: 'custom', path: ['second', 'steps'], message: `the grid has ${cases.toLocaleString('en')} cases (steps × second.steps); at most ${SWEEP_CASE_LIMIT.toLocaleString('en')}` });
+    }
   }
-  if (sweep.from === sweep.to) ctx.addIssue({ code: 'custom', path: ['to'], message: 'to must differ from from' });
 });
 
 /** What a sweep may vary over (the engine's own limits). */
@@ -232,11 +254,15 @@ export const analysisResultSchema = engineResultSchema;
 
 /** Parameter sweep: one row per step, the governing transition per surface and the drag. */
 export const sweepResultSchema = z.object({
-  parameter: z.enum(['reynolds', 'mach', 'nCrit', 'sweepDeg']),
+  parameter: sweepParameterSchema,
   values: z.array(z.number()),
+  /** A grid's second parameter and its values; the steps then run over it at each value of the first (row by row). */
+  second: z.object({ parameter: sweepParameterSchema, values: z.array(z.number()) }).optional(),
   steps: z.array(
     z.object({
       value: z.number(),
+      /** The second parameter's value, in a grid. */
+      value2: z.number().optional(),
       status: z.enum(['ok', 'error']),
       error: cellErrorSchema.nullable(),
       reynolds: z.number().nullable(),

@@ -34,33 +34,42 @@ export interface SweepCase {
 }
 
 /** The values a sweep runs over: `steps` evenly spaced from `from` to `to`. */
-export function sweepValues(sw: SweepInputs): number[] {
-  return Array.from({ length: sw.steps }, (_, i) => sw.from + ((sw.to - sw.from) * i) / (sw.steps - 1));
+export function sweepValues(sw: { from: number; to: number; steps: number }): number[] {
+  return Array.from({ length: sw.steps }, (_, i) => valueAt(sw, i));
 }
 
-/** How many cases a sweep has. */
+/** The i-th of `steps` evenly spaced values; sweepValues and a case computed alone agree exactly. */
+function valueAt(sw: { from: number; to: number; steps: number }, i: number): number {
+  return sw.from + ((sw.to - sw.from) * i) / (sw.steps - 1);
+}
+
+/** How many cases a sweep has: its steps, times the second parameter's in a grid. */
 export function sweepCaseCount(sw: SweepInputs): number {
-  return sw.steps;
+  return sw.steps * (sw.second ? sw.second.steps : 1);
 }
 
 /**
- * One case of a sweep, on its own: the named analysis at the case's value. A long sweep is computed a
- * chunk of cases at a time (by the job workers) and put together by assembleSweep, exactly as
- * computeSweep would give it whole.
+ * One case of a sweep, on its own: the named analysis at the case's value (in a grid, case
+ * i × second.steps + j is the i-th value of the first parameter and the j-th of the second). A long
+ * sweep is computed a chunk of cases at a time (by the job workers) and put together by assembleSweep,
+ * exactly as computeSweep gives it whole.
  */
 export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: number): SweepCase {
   const analysis = upstreamOf(upstream, 'analysisCellId', 'analysis');
   const flow = upstreamOf(analysis.upstream, 'flowCellId', 'flow').inputs;
   const pressure = upstreamOf(analysis.upstream, 'pressureCellId', 'pressure').inputs;
   if (!(Number.isInteger(index) && index >= 0 && index < sweepCaseCount(sw))) throw new RangeError(`the sweep has no case ${index}`);
-  // As sweepValues has it, so a case computed alone has exactly the value of the whole sweep's.
-  const value = sw.from + ((sw.to - sw.from) * index) / (sw.steps - 1);
-  const outcome = analyzeStep(analysis.inputs, sweptFlow(flow, sw.parameter, value), pressure);
-  if ('error' in outcome) return { step: { value, status: 'error', error: outcome.error, reynolds: null, cd: null, surfaces: [], attachmentLine: null }, warnings: [] };
+  const columns = sw.second ? sw.second.steps : 1;
+  const value = valueAt(sw, Math.floor(index / columns));
+  const value2 = sw.second ? valueAt(sw.second, index % columns) : undefined;
+  const swept = sw.second ? sweptFlow(sweptFlow(flow, sw.parameter, value), sw.second.parameter, value2!) : sweptFlow(flow, sw.parameter, value);
+  const at = value2 === undefined ? { value } : { value, value2 };
+  const outcome = analyzeStep(analysis.inputs, swept, pressure);
+  if ('error' in outcome) return { step: { ...at, status: 'error', error: outcome.error, reynolds: null, cd: null, surfaces: [], attachmentLine: null }, warnings: [] };
   const r = outcome.result;
   return {
     step: {
-      value,
+      ...at,
       status: 'ok',
       error: null,
       reynolds: r.flow.reynolds,
@@ -81,14 +90,22 @@ export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: num
 
 /** A sweep's result from all its cases in order; every case failing is the sweep failing, named by the first. */
 export function assembleSweep(sw: SweepInputs, cases: readonly SweepCase[]): SweepResult {
+  const count = sweepCaseCount(sw);
+  if (cases.length !== count) throw new RangeError(`the sweep has ${count} cases, ${cases.length} were given`);
   const values = sweepValues(sw);
-  if (cases.length !== values.length) throw new RangeError(`the sweep has ${values.length} cases, ${cases.length} were given`);
   const steps = cases.map((c) => c.step);
   if (steps.every((step) => step.status === 'error')) {
     const first = steps[0]!.error!;
-    throw new CellInputError(first.field ?? 'analysisCellId', `every step failed; at ${sw.parameter} = ${values[0]}: ${first.message}`, first.line);
+    const at = sw.second ? `${sw.parameter} = ${values[0]}, ${sw.second.parameter} = ${sw.second.from}` : `${sw.parameter} = ${values[0]}`;
+    throw new CellInputError(first.field ?? 'analysisCellId', `every step failed; at ${at}: ${first.message}`, first.line);
   }
-  return { parameter: sw.parameter, values, steps, warnings: [...new Set(cases.flatMap((c) => c.warnings))] };
+  return {
+    parameter: sw.parameter,
+    values,
+    ...(sw.second ? { second: { parameter: sw.second.parameter, values: sweepValues(sw.second) } } : {}),
+    steps,
+    warnings: [...new Set(cases.flatMap((c) => c.warnings))],
+  };
 }
 
 /**
