@@ -67,4 +67,55 @@ describe('aero command line', { timeout: 60_000 }, () => {
     expectRefusal(run(['analyze', join(tmpdir(), 'no-such-case.json')]), /no-such-case\.json: cannot read \(ENOENT\)/);
     expectRefusal(run(['solve', 'x.json']), /^usage: aero analyze/);
   });
+
+  describe('study', () => {
+    const ids = { flow: '10000000-0000-4000-8000-000000000001', pressure: '10000000-0000-4000-8000-000000000002', analysis: '10000000-0000-4000-8000-000000000003', note: '10000000-0000-4000-8000-000000000004' };
+    const plate = ['x cp', ...Array.from({ length: 101 }, (_, i) => `${i / 100} 0`)].join('\n');
+    const document = {
+      format: 'laminote.study/1',
+      study: { id: 's', title: 'Plate' },
+      source: { kind: 'draft', branchId: null, branchName: 'main', versionId: null, versionNumber: null },
+      exportedAt: '2026-01-01T00:00:00.000Z',
+      engineVersion: '0',
+      caution: '',
+      // Listed against the run order: the analysis first, the cells it uses after it.
+      cells: [
+        { cellId: ids.analysis, kind: 'analysis', title: 'Analysis', inputs: { flowCellId: ids.flow, pressureCellId: ids.pressure, criteria: ['michel'], turbulent: false }, output: null },
+        { cellId: ids.note, kind: 'note', title: 'Note', inputs: { markdown: 'invented' }, output: null },
+        { cellId: ids.flow, kind: 'flow', title: 'Flow', inputs: { mode: 'reynolds', reynolds: 1e6, mach: 0 }, output: null },
+        { cellId: ids.pressure, kind: 'pressure', title: 'Plate', inputs: { text: plate, layout: 'surface' }, output: null },
+      ],
+    };
+
+    it('computes every cell in dependency order and prints the document with its outputs', () => {
+      const result = run(['study', '-'], JSON.stringify(document));
+      expect(result.stderr).toBe('');
+      expect(result.status).toBe(0);
+      const out = JSON.parse(result.stdout);
+      expect(out.cells.map((c: { cellId: string }) => c.cellId)).toEqual(document.cells.map((c) => c.cellId));
+      const [analysis, note, flow] = out.cells;
+      expect(note.output).toBeNull();
+      expect(flow.output).toMatchObject({ status: 'ok', result: { reynolds: 1e6, nCrit: 9 } });
+      expect(analysis.output.status).toBe('ok');
+      // Thwaites (1949) on a flat plate: θ = 0.6708 s / √Re_s; at s = 0.5, Re_s = 5e5.
+      const st = analysis.output.result.surfaces[0].stations;
+      const i = st.s.indexOf(0.5);
+      expect(st.theta[i] / ((0.6708 * 0.5) / Math.sqrt(5e5))).toBeCloseTo(1, 2);
+    });
+
+    it('keeps a cell whose inputs have problems out of the run, names them, and fails the cells that use it', () => {
+      const broken = structuredClone(document);
+      broken.cells[2]!.inputs = { mode: 'reynolds', mach: 0 };
+      const out = JSON.parse(run(['study', '-'], JSON.stringify(broken)).stdout);
+      expect(out.cells[2].output).toBeNull();
+      expect(out.cells[2].problems[0]).toMatchObject({ field: 'reynolds' });
+      expect(out.cells[0].output).toBeNull();
+      expect(out.cells[0].problems[0]).toMatchObject({ field: 'flowCellId', message: 'the flow condition it uses has problems to fix first' });
+    });
+
+    it('refuses what is not a study document, naming the field', () => {
+      expectRefusal(run(['study', '-'], JSON.stringify(goodCase)), /^standard input: format: format must be "laminote\.study\/1"/);
+      expectRefusal(run(['study', '-'], JSON.stringify({ ...document, cells: [{ kind: 'flow', inputs: {} }] })), /^standard input: cells\[0\]\.cellId: /);
+    });
+  });
 });

@@ -1,16 +1,22 @@
 import { readFileSync, readSync, statSync } from 'node:fs';
+import { studyDocumentSchema } from '@laminote/contracts';
 import { analyzeCase, CaseError } from './analyze';
+import { computeStudy } from './cells/study';
 
 /**
- * Command line: `npm run --silent aero -- analyze case.json` (or `-` for standard input).
- * Prints the result JSON on standard output and exits 0. Bad input exits 2 with one plain line on
- * standard error naming the field or table line; nothing is written to standard output then.
- * An internal failure exits 1, also with one line.
+ * Command line:
+ * - `npm run --silent aero -- analyze case.json` analyses one engine case and prints the result;
+ * - `npm run --silent aero -- study study.json` computes every cell of a study document (as the
+ *   notebook exports it) from its inputs, in dependency order, and prints the document with fresh
+ *   outputs: the server's stored ones, reproduced without the server.
+ * `-` reads standard input. Output is JSON on standard output, exit 0. Bad input exits 2 with one
+ * plain line on standard error naming the field or table line; nothing is written to standard output
+ * then. An internal failure exits 1, also with one line.
  */
 
 /** Largest case accepted, in bytes. */
 const MAX_INPUT_BYTES = 32 * 1024 * 1024;
-const USAGE = 'usage: aero analyze <case.json | -> (a case of at most 32 MiB)';
+const USAGE = 'usage: aero analyze <case.json | -> | aero study <study.json | -> (at most 32 MiB)';
 
 class InputError extends Error {}
 
@@ -90,8 +96,17 @@ function parseJson(text: string, source: string): unknown {
   }
 }
 
+/** A study document, or the first problem with it named by its path (`cells[3].inputs`). */
+function readStudy(json: unknown, label: string) {
+  const parsed = studyDocumentSchema.safeParse(json);
+  if (parsed.success) return parsed.data;
+  const issue = parsed.error.issues[0]!;
+  const path = issue.path.reduce<string>((out, key) => (typeof key === 'number' ? `${out}[${key}]` : out ? `${out}.${String(key)}` : String(key)), '');
+  throw new InputError(`${label}: ${path ? `${path}: ` : ''}${issue.message} (not a Laminote study document?)`);
+}
+
 function main(args: readonly string[]): number {
-  if (args.length !== 2 || args[0] !== 'analyze') {
+  if (args.length !== 2 || (args[0] !== 'analyze' && args[0] !== 'study')) {
     process.stderr.write(`${USAGE}\n`);
     return 2;
   }
@@ -100,7 +115,8 @@ function main(args: readonly string[]): number {
   try {
     const text = readInput(source);
     if (text.trim() === '') throw new InputError(`${label}: empty input; nothing to analyse`);
-    const result = analyzeCase(parseJson(text, label));
+    const json = parseJson(text, label);
+    const result = args[0] === 'analyze' ? analyzeCase(json) : computeStudy(readStudy(json, label));
     process.stdout.write(`${JSON.stringify(result)}\n`);
     return 0;
   } catch (error) {

@@ -8,6 +8,7 @@ import { parse, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import { branchAccess, requireWritable } from './branch';
 import { exportCell } from './export';
+import { draftDocument, studyDocumentFilename } from './study-document';
 import { draftJson, draftObject, NotebookService } from './service';
 import { findUpload, receiveFile, storeUpload } from './uploads';
 
@@ -58,6 +59,13 @@ export function notebookRouter({ db, engine, logger }: { db: Db; engine: EngineP
     const body = parse(runRequestSchema, req.body ?? {});
     const { doc, ran } = await notebook.run(ctx, req.user!, body.cellIds);
     sendJson(res, draftJson(doc, { ran }));
+  });
+
+  /** The whole study of the branch's draft as one document (cells, inputs, outputs), as a download. */
+  router.get('/branches/:branchId/export', async (req, res) => {
+    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    const document = draftDocument(ctx.study, ctx.branch, draftObject(await notebook.getDraft(ctx)));
+    res.attachment(studyDocumentFilename(document)).type('application/json').send(JSON.stringify(document, null, 1));
   });
 
   router.get('/branches/:branchId/cells/:cellId/export', async (req, res) => {

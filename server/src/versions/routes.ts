@@ -14,6 +14,7 @@ import { versions } from '../db/schema';
 import type { SessionUser } from '../auth/types';
 import { requireAction, studyAccess } from '../access/access';
 import { branchAccess, requireWritable } from '../notebook/branch';
+import { studyDocumentFilename, versionDocument } from '../notebook/study-document';
 import { badRequest, notFound, parse } from '../http/problem';
 import { compareVersions, studiesOf } from './compare';
 import * as service from './service';
@@ -73,6 +74,13 @@ export function versionsRouter({ db }: { db: Db }): Router {
   router.get('/versions/:versionId', async (req, res) => {
     const { version } = await versionAccess(db, req.user!, req.params.versionId);
     res.json(await service.versionDetail(db, version.id));
+  });
+
+  /** The version as one study document (cells, inputs, the outputs it kept), as a download. */
+  router.get('/versions/:versionId/export', async (req, res) => {
+    const { version, study } = await versionAccess(db, req.user!, req.params.versionId);
+    const document = versionDocument(study, await service.versionDetail(db, version.id));
+    res.attachment(studyDocumentFilename(document)).type('application/json').send(JSON.stringify(document, null, 1));
   });
 
   router.post('/versions/:versionId/branches', async (req, res) => {
