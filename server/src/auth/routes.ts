@@ -7,6 +7,7 @@ import { ProblemError, unauthorized } from '../http/problem';
 import { newCsrfToken, setCsrfCookie } from './csrf';
 import type { OidcClient } from './oidc';
 import { SESSION_COOKIE } from './session';
+import { forgetSessionUser, sessionUserCache } from './session-cache';
 import { findSessionUser, upsertUserFromIdentity } from './users';
 
 interface AuthDeps {
@@ -105,6 +106,7 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
         name: typeof claims['name'] === 'string' ? claims['name'] : '',
       }),
     );
+    forgetSessionUser(db, user.id);
     const returnTo = pending.returnTo;
     // A fresh session id at sign-in prevents session fixation.
     await regenerate(req);
@@ -141,11 +143,16 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
 
 /** Attach the signed-in user, if any, to the request. */
 export function loadUser(db: Db): RequestHandler {
+  const recent = sessionUserCache(db);
   return async (req, _res, next) => {
     const id = req.session?.userId;
     if (id) {
-      const user = await findSessionUser(db, id);
-      if (user) req.user = user;
+      let user = recent.get(id) ?? null;
+      if (!user) {
+        user = await findSessionUser(db, id);
+        if (user) recent.set(id, user);
+      }
+      if (user) req.user = { ...user };
     }
     next();
   };

@@ -2,12 +2,14 @@ import connectPgSimple from 'connect-pg-simple';
 import session from 'express-session';
 import type pg from 'pg';
 import type { Config } from '../config';
+import { cachedSessionStore } from './session-cache';
 
 export const SESSION_COOKIE = 'laminote.sid';
 
 /** Server-side sessions in PostgreSQL; the browser holds only an httpOnly, SameSite=Lax cookie. */
 export function sessionMiddleware(config: Config, pool: pg.Pool) {
-  const PgStore = connectPgSimple(session);
+  // Reads are answered from memory for a few seconds (session-cache.ts); writes and sign-out go through.
+  const PgStore = cachedSessionStore(connectPgSimple(session));
   const secure = config.PUBLIC_URL.startsWith('https://');
   return session({
     name: SESSION_COOKIE,
