@@ -28,7 +28,7 @@ describe('analyzeCase input checks', () => {
     ['lengths', surface({ ue: [0, 1, 1] }), 'surfaces[0].ue', /3 values but s has 4/],
     ['non-number', surface({ ue: [0, 1, '1.2', 1] }), 'surfaces[0].ue[2]', /must be a number/],
     ['s not increasing', surface({ s: [0, 0.2, 0.1, 0.3] }), 'surfaces[0].s[2]', /must increase/],
-    ['negative Ue', surface({ ue: [0, 0.5, -0.1, 1] }), 'surfaces[0].ue[2]', /positive/],
+    ['negative Ue', surface({ ue: [0, 0.5, -0.1, 1] }), 'surfaces[0].ue[2]', /must not be negative/],
     ['ue and cp', surface({ cp: [1, 0.5, 0.2, 0] }), 'surfaces[0].ue', /exactly one/],
     ['trip outside', surface({ trip: 2 }), 'surfaces[0].trip', /outside the surface/],
     ['few stations', surface({ s: [0, 1], ue: [0, 1] }), 'surfaces[0].s', /at least 3/],

@@ -9,7 +9,10 @@ import {
 } from '@laminote/contracts';
 import type { z } from 'zod';
 import { attachmentLineCheck } from './attachment-line';
-import { edgeVelocityRatio, localMach, localMachFromVelocity, stagnationPressureCoefficient } from './compressible';
+import { localMach, localMachFromVelocity } from './compressible';
+import { compressibleThwaitesMarch } from './compressible-laminar';
+import { arnalC1CriticalReDelta2, crossflowState, OWEN_RANDALL_CRITICAL, type CrossflowState } from './crossflow';
+import { crossflowShapeAtLambda, emptyCrossflowShape } from './falkner-skan-cooke';
 import { criticalReTheta, envelopeGrowthRate, MACK_TURBULENCE_RANGE, mackCriticalN } from './envelope-en';
 import { deriveFlowCondition, type FlowCondition } from './flow-condition';
 import { granvilleReThetaRise } from './granville';
@@ -20,16 +23,25 @@ import { parsePressureTable } from './pressure-table';
 import { leastSquaresSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
 import { squireYoungDrag } from './squire-young';
+import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from './swept-wing';
 import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
 
 /**
  * The engine's entry point: validate a case, march the boundary layer along each surface (Thwaites,
  * then Head after transition), evaluate the transition criteria, and estimate the drag (Squire–Young).
  * The API, the worker threads, the job queue and the command line all call `analyzeCase`.
+ *
+ * With leading-edge sweep Λ the section is taken as part of an infinite swept wing (simple sweep
+ * theory, swept-wing.ts): the chordwise layer is marched on the chordwise edge velocity, and the
+ * crossflow comes from the local Falkner–Skan–Cooke profile (falkner-skan-cooke.ts, crossflow.ts). With
+ * M∞ > 0 the laminar layer is compressible (compressible-laminar.ts); the Tollmien–Schlichting envelope
+ * and Head's turbulent layer stay incompressible, which the result says. Every chosen criterion is
+ * located on the laminar solution marched on to its end (laminar separation or the last station),
+ * whatever governs; the turbulent march starts at the governing transition.
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.1.0';
+export const ENGINE_VERSION = '1.2.0';
 
 /** Shown wherever results are: what these numbers are and what decides instead. */
 export const ENGINE_CAUTION =
@@ -51,6 +63,10 @@ const DEFAULT_N_CRIT = 9;
 /** Cp may exceed the stagnation value by round-off in the input, not more. */
 const STAGNATION_CP_TOLERANCE = 1e-6;
 const SMOOTHING_HALF_WIDTH = 2;
+/** Free-stream temperature for Sutherland's law when the flow is given by Reynolds number: ISA sea level. */
+const DEFAULT_TEMPERATURE_K = 288.15;
+/** A Cp at the attachment-line (stagnation) value is accepted on the rear part of a surface only. */
+const REAR_STAGNATION_FRACTION = 0.5;
 
 interface PreparedSurface {
   name: string;
@@ -66,10 +82,14 @@ interface PreparedSurface {
 interface SurfaceContext {
   reynolds: number;
   mach: number;
+  /** Leading-edge sweep in radians. */
+  sweep: number;
+  /** Free-stream static temperature for Sutherland's law. */
+  temperature_K: number;
   nCrit: number;
   criteria: readonly TransitionCriterion[];
-  /** The criterion whose location governs, or 'earliest'. */
-  governing: TransitionCriterion | 'earliest';
+  /** The criteria whose earliest location governs. */
+  governing: readonly TransitionCriterion[];
   turbulent: boolean;
   warnings: string[];
 }
@@ -88,20 +108,33 @@ export function analyzeCase(input: unknown): EngineResult {
     throw new CaseError('flow', error instanceof Error ? error.message : String(error));
   }
   const { nCrit, nCritFrom } = criticalN(engineCase.flow, warnings);
+  const sweep = (engineCase.sweepDeg * Math.PI) / 180;
+  const compressibleLaminar = flow.mach > 0;
   if (flow.mach >= 0.3) {
-    warnings.push(`mach ${flow.mach}: the boundary-layer methods are incompressible; compressibility enters only through the Cp to Ue conversion`);
+    warnings.push(
+      `mach ${flow.mach}: the laminar layer is computed compressible; the Tollmien–Schlichting growth (e^N envelope), the single-point criteria and the turbulent layer (Head) are incompressible correlations applied to it`,
+    );
   }
 
   const surfaces =
     engineCase.pressureTable !== undefined && engineCase.pressureTable.trim() !== ''
-      ? surfacesFromTable(engineCase.pressureTable, flow.mach, warnings)
-      : engineCase.surfaces!.map((surface, index) => surfaceFromArrays(surface, index, flow.mach, warnings));
+      ? surfacesFromTable(engineCase.pressureTable, flow.mach, sweep, warnings)
+      : engineCase.surfaces!.map((surface, index) => surfaceFromArrays(surface, index, flow.mach, sweep, warnings));
 
   const criteria = [...new Set(engineCase.criteria)];
-  // The envelope e^N method is the primary criterion of laminar-flow design practice; the single-point
-  // correlations are shown beside it as cross-checks unless the case asks otherwise.
-  const governing = engineCase.governing ?? (criteria.includes('eN') ? 'eN' : 'earliest');
-  const context: SurfaceContext = { reynolds: flow.reynolds, mach: flow.mach, nCrit, criteria, governing, turbulent: engineCase.turbulent, warnings };
+  // The envelope e^N method is the primary criterion of laminar-flow design practice, and on a swept
+  // wing crossflow may end the laminar run first: by default the earlier of the two governs, and the
+  // single-point correlations are shown beside them as cross-checks.
+  const governing: TransitionCriterion[] =
+    engineCase.governing === 'earliest'
+      ? criteria
+      : engineCase.governing !== undefined
+        ? [engineCase.governing]
+        : criteria.includes('eN')
+          ? criteria.filter((c) => c === 'eN' || c === 'crossflow')
+          : criteria;
+  const temperature_K = flow.temperature_K ?? DEFAULT_TEMPERATURE_K;
+  const context: SurfaceContext = { reynolds: flow.reynolds, mach: flow.mach, sweep, temperature_K, nCrit, criteria, governing, turbulent: engineCase.turbulent, warnings };
   const gradients: number[] = [];
   const results = surfaces.map((surface) => analyzeSurface(surface, context, gradients));
 
@@ -125,7 +158,7 @@ export function analyzeCase(input: unknown): EngineResult {
 
   return {
     engineVersion: ENGINE_VERSION,
-    flow: { reynolds: flow.reynolds, mach: flow.mach, nCrit, nCritFrom },
+    flow: { reynolds: flow.reynolds, mach: flow.mach, nCrit, nCritFrom, sweepDeg: engineCase.sweepDeg, compressibleLaminar, ...(compressibleLaminar ? { temperature_K } : {}) },
     surfaces: results,
     cd,
     attachmentLine,
@@ -164,28 +197,34 @@ function caseErrorFromIssue(issue: z.core.$ZodIssue): CaseError {
   return new CaseError(field === '' ? 'case' : field, issue.message);
 }
 
-function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number], index: number, mach: number, warnings: string[]): PreparedSurface {
-  const n = surface.s.length;
+function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number], index: number, mach: number, sweep: number, warnings: string[]): PreparedSurface {
+  let n = surface.s.length;
   const s = Float64Array.from(surface.s);
   const ue = new Float64Array(n);
   const prefix = `surfaces[${index}]`;
   let maxLocalMach = 0;
   if (surface.cp !== undefined) {
-    const cp0 = stagnationPressureCoefficient(mach);
+    const cp0 = attachmentLinePressureCoefficient(mach, sweep);
+    const where = sweep === 0 ? 'stagnation' : 'attachment-line';
     for (let i = 0; i < n; i++) {
       const cp = surface.cp[i];
       if (cp > cp0 + STAGNATION_CP_TOLERANCE) {
-        throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is above the stagnation value ${cp0.toFixed(4)} at mach ${mach}`);
+        throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is above the ${where} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${round((sweep * 180) / Math.PI)}° sweep`}`);
       }
-      const u = cp >= cp0 ? 0 : edgeVelocityRatio(cp, mach);
+      const u = cp >= cp0 ? 0 : chordwiseVelocityRatio(cp, mach, sweep);
       if (Number.isNaN(u)) throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is below the vacuum limit at mach ${mach}`);
-      if (i > 0 && !(u > 0)) throw new CaseError(`${prefix}.cp[${i}]`, 'Cp reaches the stagnation value away from the first station');
       ue[i] = u;
       if (mach > 0) maxLocalMach = Math.max(maxLocalMach, localMach(cp, mach));
     }
   } else {
     ue.set(surface.ue!);
-    if (mach > 0) for (let i = 0; i < n; i++) maxLocalMach = Math.max(maxLocalMach, localMachFromVelocity(ue[i], mach));
+    if (mach > 0) for (let i = 0; i < n; i++) maxLocalMach = Math.max(maxLocalMach, localMachFromVelocity(Math.hypot(ue[i], Math.sin(sweep)), mach));
+  }
+  const end = rearStagnation(s, ue);
+  if (end.zeroAt > 0) {
+    if (!end.rear) throw new CaseError(`${prefix}.${surface.cp !== undefined ? 'cp' : 'ue'}[${end.zeroAt}]`, 'the edge velocity falls to zero (stagnation) ahead of the rear half of the surface');
+    warnings.push(`${surface.name}: rear stagnation point at s = ${round(s[end.zeroAt])}; the march ends at the station before it`);
+    n = end.zeroAt;
   }
   if (maxLocalMach > 1) {
     warnings.push(`${surface.name}: local Mach number up to ${maxLocalMach.toFixed(2)} (supersonic pocket); the methods assume subsonic attached flow, results there are doubtful`);
@@ -195,16 +234,32 @@ function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number],
   }
   return {
     name: surface.name,
-    s,
-    ue,
+    s: s.subarray(0, n),
+    ue: ue.subarray(0, n),
     x: null,
-    radius: surface.r === undefined ? null : Float64Array.from(surface.r),
-    trip: surface.trip ?? null,
+    radius: surface.r === undefined ? null : Float64Array.from(surface.r).subarray(0, n),
+    trip: surface.trip !== undefined && surface.trip <= s[n - 1] ? surface.trip : null,
     stagnationGradient: null,
   };
 }
 
-function surfacesFromTable(text: string, mach: number, warnings: string[]): PreparedSurface[] {
+/**
+ * The first station after the start where the edge velocity is zero, and whether it lies on the rear
+ * part of the surface (a rear stagnation point: the trailing edge of a closed body, a blunt trailing
+ * edge), where the march may stop ahead of it. zeroAt is −1 when there is none.
+ */
+function rearStagnation(s: ArrayLike<number>, ue: ArrayLike<number>): { zeroAt: number; rear: boolean } {
+  const n = s.length;
+  for (let i = 1; i < n; i++) {
+    if (!(ue[i] > 0)) {
+      const rear = s[i] - s[0] >= REAR_STAGNATION_FRACTION * (s[n - 1] - s[0]) && i >= 3;
+      return { zeroAt: i, rear };
+    }
+  }
+  return { zeroAt: -1, rear: false };
+}
+
+function surfacesFromTable(text: string, mach: number, sweep: number, warnings: string[]): PreparedSurface[] {
   const table = parsePressureTable(text, { maxRows: ENGINE_LIMITS.maxTableRows });
   if (!table.ok) {
     const problem = table.problems[0];
@@ -215,16 +270,17 @@ function surfacesFromTable(text: string, mach: number, warnings: string[]): Prep
   const x = new Float64Array(n);
   const y = table.hasY ? new Float64Array(n) : null;
   const speed = new Float64Array(n);
-  const cp0 = stagnationPressureCoefficient(mach);
+  const cp0 = attachmentLinePressureCoefficient(mach, sweep);
+  const where = sweep === 0 ? 'stagnation' : 'attachment-line';
   let maxLocalMach = 0;
   for (let i = 0; i < n; i++) {
     const row = rows[i];
     x[i] = row.x;
     if (y !== null) y[i] = row.y!;
     if (row.cp > cp0 + STAGNATION_CP_TOLERANCE) {
-      throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is above the stagnation value ${cp0.toFixed(4)} at mach ${mach}`);
+      throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is above the ${where} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${round((sweep * 180) / Math.PI)}° sweep`}`);
     }
-    const u = row.cp >= cp0 ? 0 : edgeVelocityRatio(row.cp, mach);
+    const u = row.cp >= cp0 ? 0 : chordwiseVelocityRatio(row.cp, mach, sweep);
     if (Number.isNaN(u)) throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is below the vacuum limit at mach ${mach}`);
     speed[i] = u;
     if (mach > 0) maxLocalMach = Math.max(maxLocalMach, localMach(row.cp, mach));
@@ -244,31 +300,41 @@ function surfacesFromTable(text: string, mach: number, warnings: string[]): Prep
   if (maxLocalMach > 1) {
     warnings.push(`pressureTable: local Mach number up to ${maxLocalMach.toFixed(2)} (supersonic pocket); the methods assume subsonic attached flow, results there are doubtful`);
   }
+  const prepared: PreparedSurface[] = [];
   for (const [name, branch] of [['upper', split.upper] as const, ['lower', split.lower] as const]) {
     if (branch.s.length < 3) {
       throw new CaseError('pressureTable', `the ${name} surface has fewer than 3 points after the stagnation point`);
     }
-    for (let i = 2; i < branch.ue.length; i++) {
-      if (!(branch.ue[i] > 0)) {
-        throw new CaseError(`pressureTable line ${rows[branch.source[i]].line}`, `Cp reaches the stagnation value on the ${name} surface away from the leading edge`);
+    let count = branch.s.length;
+    // The split's first station is the stagnation point itself; a zero just after it is round-off.
+    const end = rearStagnation(branch.s.subarray(1), branch.ue.subarray(1));
+    if (end.zeroAt > 0) {
+      const at = end.zeroAt + 1;
+      if (!end.rear) {
+        throw new CaseError(`pressureTable line ${rows[branch.source[at]].line}`, `Cp reaches the ${where} value on the ${name} surface away from the leading edge and ahead of its rear half`);
       }
+      warnings.push(`${name}: rear stagnation point at x = ${round(branch.x[at])}; the march ends at the station before it`);
+      count = at;
     }
+    prepared.push({
+      name,
+      s: branch.s.subarray(0, count),
+      ue: branch.ue.subarray(0, count),
+      x: branch.x.subarray(0, count),
+      radius: null,
+      trip: null,
+      stagnationGradient: split.stagnation.velocityGradient,
+    });
   }
-  return [split.upper, split.lower].map((branch, k) => ({
-    name: k === 0 ? 'upper' : 'lower',
-    s: branch.s,
-    ue: branch.ue,
-    x: branch.x,
-    radius: null,
-    trip: null,
-    stagnationGradient: split.stagnation.velocityGradient,
-  }));
+  return prepared;
 }
 
 /** First upward crossing of g through zero between stations i−1 and i, as a fraction of the interval. */
 function crossing(gPrev: number, g: number): number {
   return Number.isFinite(gPrev) && gPrev < g ? Math.min(1, Math.max(0, gPrev / (gPrev - g))) : 1;
 }
+
+type CriterionEntry = NonNullable<EngineSurfaceResult['transition']['criteria'][TransitionCriterion]>;
 
 function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradients: number[]): EngineSurfaceResult {
   const { s, ue, radius } = surface;
@@ -284,20 +350,36 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
 
   const theta = new Float64Array(n);
   const lambda = new Float64Array(n);
+  // The kinematic shape factor, which the transition correlations take; `physicalShape` is δ*/θ.
   const shape = new Float64Array(n);
   const cf = new Float64Array(n);
   const wallShear = new Float64Array(n);
-  thwaitesMarch(s, ue, dUeds, reynolds, radius, { theta, lambda, shapeFactor: shape, skinFriction: cf, wallShear });
+  const laminar = { theta, lambda, shapeFactor: shape, skinFriction: cf, wallShear };
+  // Local unit Reynolds number over the free-stream one (ρe μ∞ / ρ∞ μe): 1 in incompressible flow.
+  let reynoldsRatio: Float64Array | null = null;
+  let physicalShape = shape;
+  if (context.mach > 0) {
+    reynoldsRatio = new Float64Array(n);
+    physicalShape = new Float64Array(n);
+    compressibleThwaitesMarch(s, ue, dUeds, reynolds, radius, { mach: context.mach, sweep: context.sweep, temperature_K: context.temperature_K }, laminar, {
+      reynoldsRatio,
+      densityRatio: new Float64Array(n),
+      shapeFactor: physicalShape,
+    });
+  } else {
+    thwaitesMarch(s, ue, dUeds, reynolds, radius, laminar);
+  }
   if (!(theta[0] >= 0)) {
     // A stagnation start without a positive velocity gradient: take the state of the next station.
     theta[0] = theta[1];
     lambda[0] = lambda[1];
     shape[0] = shape[1];
+    if (physicalShape !== shape) physicalShape[0] = physicalShape[1];
     wallShear[0] = 0;
     warnings.push(`${surface.name}: Ue rises too slowly from the stagnation point to set the start of the laminar layer; the second station's state is used`);
   }
 
-  // Laminar separation: first station where λ falls to −0.09.
+  // Laminar separation of the laminar solution: first station where λ falls to −0.09.
   let separationIndex = n;
   let laminarSeparationS: number | null = null;
   for (let i = 1; i < n; i++) {
@@ -309,42 +391,65 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     }
   }
 
-  // Transition criteria along the laminar solution, up to laminar separation.
+  // Every chosen criterion along the laminar solution, marched on to laminar separation or the end of
+  // the surface whatever governs.
+  const localRe = (i: number) => (reynoldsRatio === null ? reynolds : reynolds * reynoldsRatio[i]);
   const nFactor = new Float64Array(n);
+  const spanwise = Math.sin(Math.abs(context.sweep));
+  const swept = spanwise > 0;
+  const reCf = swept ? new Float64Array(n) : null;
   const wantEN = criteria.includes('eN');
   const wantMichel = criteria.includes('michel');
   const wantHRx = criteria.includes('hRx');
   const wantGranville = criteria.includes('granville');
-  const found: Partial<Record<TransitionCriterion, { s: number; reTheta: number; reS: number } | null>> = {};
+  const wantCrossflow = swept && criteria.includes('crossflow');
+  const wantC1 = swept && criteria.includes('crossflowC1');
+  const found: Partial<Record<TransitionCriterion, { s: number; reTheta: number; reS: number; reCf?: number; reDelta2?: number } | null>> = {};
   for (const c of criteria) found[c] = null;
-  const record = (criterion: TransitionCriterion, i: number, f: number) => {
+  const record = (criterion: TransitionCriterion, i: number, f: number, extra?: { reCf?: number; reDelta2?: number }) => {
     const si = s[i - 1] + f * (s[i] - s[i - 1]);
-    const reThetaPrev = reynolds * ue[i - 1] * theta[i - 1];
-    const reThetaHere = reynolds * ue[i] * theta[i];
+    const reThetaPrev = localRe(i - 1) * ue[i - 1] * theta[i - 1];
+    const reThetaHere = localRe(i) * ue[i] * theta[i];
     const uAt = ue[i - 1] + f * (ue[i] - ue[i - 1]);
+    const reAt = localRe(i - 1) + f * (localRe(i) - localRe(i - 1));
     if (laminarSeparationS !== null && si > laminarSeparationS) return;
-    found[criterion] = { s: si, reTheta: reThetaPrev + f * (reThetaHere - reThetaPrev), reS: reynolds * uAt * si };
+    found[criterion] = { s: si, reTheta: reThetaPrev + f * (reThetaHere - reThetaPrev), reS: reAt * uAt * si, ...extra };
   };
   let gEN = -Infinity;
   let gMichel = -Infinity;
   let gHRx = -Infinity;
   let gGranville = -Infinity;
+  let gCrossflow = -Infinity;
+  let gC1 = -Infinity;
+  let reCfPrev = 0;
+  let reDelta2Prev = 0;
   let rate = 0;
   let instabilityS = NaN;
   let instabilityReTheta = NaN;
   let lambdaIntegral = 0;
+  const fsc = emptyCrossflowShape();
+  const cross: CrossflowState = { reCf: 0, reDelta2: 0, streamwiseShapeFactor: 0 };
   // Stations are evaluated up to the first one past laminar separation; a criterion met beyond the
   // separation point is not reported (the laminar solution ends there).
   const last = Math.min(n - 1, separationIndex);
   for (let i = 0; i <= last; i++) {
-    const reTheta = reynolds * ue[i] * theta[i];
-    const reS = reynolds * ue[i] * s[i];
+    const reTheta = localRe(i) * ue[i] * theta[i];
+    const reS = localRe(i) * ue[i] * s[i];
     const h = shape[i];
     const critical = criticalReTheta(h);
     // Envelope N by the trapezoidal rule on dN/ds.
     const rateHere = reTheta > critical ? envelopeGrowthRate(h, theta[i]) : 0;
     if (i > 0) nFactor[i] = nFactor[i - 1] + 0.5 * (rate + rateHere) * (s[i] - s[i - 1]);
     rate = rateHere;
+    if (reCf !== null) {
+      if (ue[i] > 0 && theta[i] > 0) {
+        crossflowState(ue[i], spanwise, theta[i], localRe(i), crossflowShapeAtLambda(lambda[i], fsc), cross);
+      } else {
+        cross.reCf = 0;
+        cross.reDelta2 = 0;
+      }
+      reCf[i] = cross.reCf;
+    }
     if (i === 0) continue;
     if (wantEN && found.eN === null) {
       const g = nFactor[i] - nCrit;
@@ -364,7 +469,7 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     if (wantGranville && found.granville === null) {
       if (Number.isNaN(instabilityS)) {
         if (reTheta >= critical) {
-          const reThetaPrev = reynolds * ue[i - 1] * theta[i - 1];
+          const reThetaPrev = localRe(i - 1) * ue[i - 1] * theta[i - 1];
           const criticalPrev = criticalReTheta(shape[i - 1]);
           const f = crossing(reThetaPrev - criticalPrev, reTheta - critical);
           instabilityS = s[i - 1] + f * (s[i] - s[i - 1]);
@@ -382,13 +487,31 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
         gGranville = g;
       }
     }
+    if (wantCrossflow && found.crossflow === null) {
+      const g = cross.reCf - OWEN_RANDALL_CRITICAL;
+      if (g >= 0) {
+        const f = crossing(gCrossflow, g);
+        record('crossflow', i, f, { reCf: reCfPrev + f * (cross.reCf - reCfPrev) });
+      }
+      gCrossflow = g;
+    }
+    if (wantC1 && found.crossflowC1 === null) {
+      const g = cross.reDelta2 - arnalC1CriticalReDelta2(cross.streamwiseShapeFactor);
+      if (g >= 0) {
+        const f = crossing(gC1, g);
+        record('crossflowC1', i, f, { reDelta2: reDelta2Prev + f * (cross.reDelta2 - reDelta2Prev) });
+      }
+      gC1 = g;
+    }
+    reCfPrev = cross.reCf;
+    reDelta2Prev = cross.reDelta2;
   }
 
-  // The governing transition: the governing criterion (or the earliest of them), then a trip or laminar
+  // The governing transition: the earliest of the governing criteria, then a trip or laminar
   // separation ahead of it.
   let transitionS: number | null = null;
   let transitionBy: TransitionCause | null = null;
-  for (const c of context.governing === 'earliest' ? criteria : [context.governing]) {
+  for (const c of context.governing) {
     const r = found[c];
     if (r != null && (transitionS === null || r.s < transitionS)) {
       transitionS = r.s;
@@ -411,6 +534,14 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   if (found.michel != null && (found.michel.reS < 1e5 || found.michel.reS > 4e7)) {
     warnings.push(`${surface.name}: Michel's criterion is applied at Re_s = ${found.michel.reS.toExponential(2)}, outside the range it was fitted to (1e5 to 4e7)`);
   }
+  const entries: Partial<Record<TransitionCriterion, CriterionEntry>> = {};
+  for (const c of criteria) {
+    const r = found[c];
+    entries[c] =
+      r != null
+        ? r
+        : { s: null, reason: (c === 'crossflow' || c === 'crossflowC1') && !swept ? 'noSweep' : laminarSeparationS !== null ? 'afterLaminarSeparation' : 'notReached' };
+  }
 
   // Station values: laminar up to transition, then overwritten by the turbulent march.
   let turbulentSeparation: { s: number } | null = null;
@@ -424,7 +555,6 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     cd = squireYoungDrag(theta[n - 1], ue[n - 1], shape[n - 1]);
     cdFriction = integrateShear(s, wallShear, n - 1, null);
   } else {
-    markFrom(nFactor, firstTurbulent, n);
     if (!context.turbulent) {
       for (const a of [theta, shape, cf]) markFrom(a, firstTurbulent, n);
       cd = null;
@@ -462,20 +592,31 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     }
   }
 
+  // The N and crossflow curves of the laminar solution run on past the governing transition to where
+  // their own criterion is met, so each meets its critical value at its mark; nothing after the end of
+  // the laminar solution.
+  markFrom(nFactor, curveEnd(s, last, transitionS, found.eN?.s ?? null), n);
+  if (reCf !== null) markFrom(reCf, curveEnd(s, last, transitionS, found.crossflow?.s ?? null), n);
+  let outputShape = shape;
+  if (physicalShape !== shape) {
+    outputShape = Float64Array.from(shape);
+    for (let i = 0; i < Math.min(firstTurbulent, n); i++) outputShape[i] = physicalShape[i];
+  }
   const stations: EngineSurfaceResult['stations'] = {
     s: Array.from(s),
     ue: Array.from(ue),
     theta: nullable(theta, n),
-    deltaStar: product(theta, shape, n),
-    H: nullable(shape, n),
+    deltaStar: product(theta, outputShape, n),
+    H: nullable(outputShape, n),
     cf: nullable(cf, n),
     n: nullable(nFactor, n),
+    reCf: reCf === null ? new Array<null>(n).fill(null) : nullable(reCf, n),
   };
   if (surface.x !== null) stations.x = Array.from(surface.x);
   return {
     name: surface.name,
     stations,
-    transition: { s: transitionS, by: transitionBy, criteria: found },
+    transition: { s: transitionS, by: transitionBy, criteria: entries, laminarSeparationS },
     laminarSeparation,
     turbulentSeparation,
     cd,
@@ -506,6 +647,19 @@ function integrateShear(
     }
   }
   return total;
+}
+
+/**
+ * Where a laminar-solution curve ends (exclusive): after the first station at or past both the
+ * governing transition and the curve's own criterion, and never past `last`, the end of the laminar
+ * solution. Without a transition the curve runs to `last`.
+ */
+function curveEnd(s: Float64Array, last: number, transitionS: number | null, criterionS: number | null): number {
+  if (transitionS === null) return last + 1;
+  const until = Math.max(transitionS, criterionS ?? -Infinity);
+  let i = 0;
+  while (i < last && s[i] < until) i++;
+  return i + 1;
 }
 
 function markFrom(a: Float64Array, from: number, n: number): void {

@@ -9,8 +9,11 @@
 export const CELL_KINDS = ['flow', 'pressure', 'analysis', 'sweep', 'flatPlate', 'leadingEdge', 'note'] as const;
 export type CellKind = (typeof CELL_KINDS)[number];
 
-/** The transition criteria an analysis may evaluate, in the order the notebook lists them. */
-export const TRANSITION_CRITERIA = ['eN', 'michel', 'hRx', 'granville'] as const;
+/**
+ * The transition criteria an analysis may evaluate, in the order the notebook lists them. The two
+ * crossflow criteria apply to swept wings (Owen–Randall crossflow Reynolds number, Arnal's C1).
+ */
+export const TRANSITION_CRITERIA = ['eN', 'crossflow', 'crossflowC1', 'michel', 'hRx', 'granville'] as const;
 export type TransitionCriterion = (typeof TRANSITION_CRITERIA)[number];
 
 /** An input field that names another cell (its id), and the kinds it may name. */
@@ -221,8 +224,17 @@ export const VALUE_LABELS: Readonly<Record<string, Readonly<Record<string, strin
   mode: { altitude: 'altitude, Mach, length', reynolds: 'Reynolds number', dimensional: 'length, speed, viscosity', radius: 'leading-edge radius', gradient: 'velocity gradient' },
   turbulenceMode: { nCrit: 'N_crit', intensity: 'turbulence level' },
   layout: { closedLoop: 'closed loop', surface: 'one surface' },
-  criteria: { eN: 'envelope eᴺ', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
-  governing: { auto: 'eᴺ when chosen, else earliest', earliest: 'earliest', eN: 'envelope eᴺ', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
+  criteria: { eN: 'envelope eᴺ', crossflow: 'crossflow R_cf', crossflowC1: 'crossflow C1', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
+  governing: {
+    auto: 'earlier of eᴺ and crossflow',
+    earliest: 'earliest',
+    eN: 'envelope eᴺ',
+    crossflow: 'crossflow R_cf',
+    crossflowC1: 'crossflow C1',
+    michel: 'Michel',
+    hRx: 'H–Re_x',
+    granville: 'Granville',
+  },
   parameter: { reynolds: 'Reynolds number', mach: 'Mach number', nCrit: 'N_crit', sweepDeg: 'sweep' },
   transitionMode: { reynolds: 'Reynolds number', location: 'location' },
 };

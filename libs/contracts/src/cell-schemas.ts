@@ -66,7 +66,7 @@ export type PressureInputs = z.infer<typeof pressureInputsSchema>;
 export const analysisInputsSchema = z.object({
   flowCellId: cellRef('flowCellId'),
   pressureCellId: cellRef('pressureCellId'),
-  criteria: z.array(z.enum(TRANSITION_CRITERIA)).min(1, 'criteria: pick at least one transition criterion').default(['eN', 'michel', 'hRx', 'granville']),
+  criteria: z.array(z.enum(TRANSITION_CRITERIA)).min(1, 'criteria: pick at least one transition criterion').default([...TRANSITION_CRITERIA]),
   /**
    * Forced transition per surface name (`upper`, `lower`, or a single surface's name) at this x/c of
    * the table; absent means free transition.
@@ -74,8 +74,9 @@ export const analysisInputsSchema = z.object({
   trips: z.record(z.string(), finite('trip').min(0, 'a trip location must not be negative')).default({}),
   turbulent: z.boolean().default(true),
   /**
-   * Which criterion sets the governing transition: `auto` is e^N when chosen (the others are
-   * cross-checks), else the earliest; `earliest` takes the shortest laminar run of the chosen ones.
+   * Which criterion sets the governing transition: `auto` is the earlier of e^N and the crossflow
+   * Reynolds number when e^N is chosen (the others are cross-checks), else the earliest; `earliest`
+   * takes the shortest laminar run of the chosen ones.
    */
   governing: z.enum(['auto', 'earliest', ...TRANSITION_CRITERIA]).default('auto'),
 });

@@ -93,9 +93,12 @@ const surfaceSchema = z
     name: z.string().trim().min(1, { error: 'name must not be empty' }).max(64),
     /** Arc length from the attachment line, strictly increasing. */
     s: stationArray(3),
-    /** Ue / V∞ (one of ue or cp). */
+    /** Ue / V∞ (one of ue or cp); with sweep, the chordwise component (normal to the leading edge). */
     ue: stationArray().optional(),
-    /** Pressure coefficient, converted to Ue / V∞ with the free-stream Mach number (one of ue or cp). */
+    /**
+     * Pressure coefficient on the free stream, converted to Ue / V∞ with the free-stream Mach number and,
+     * with sweep, simple sweep theory (one of ue or cp).
+     */
     cp: stationArray().optional(),
     /** Body radius; present means axisymmetric (Mangler transformation). */
     r: stationArray().optional(),
@@ -128,13 +131,11 @@ const surfaceSchema = z
     }
     const ue = surface.ue;
     if (ue !== undefined) {
-      if (ue[0] < 0) {
-        ctx.addIssue({ code: 'custom', path: ['ue', 0], message: `Ue/V∞ must not be negative (${ue[0]})` });
-        return;
-      }
-      for (let i = 1; i < n; i++) {
-        if (!(ue[i] > 0)) {
-          ctx.addIssue({ code: 'custom', path: ['ue', i], message: `Ue/V∞ must be positive after the first station (${ue[i]})` });
+      // Zero is allowed after the first station for a rear stagnation point; the engine accepts it on
+      // the rear half of the surface only.
+      for (let i = 0; i < n; i++) {
+        if (!(ue[i] >= 0)) {
+          ctx.addIssue({ code: 'custom', path: ['ue', i], message: `Ue/V∞ must not be negative (${ue[i]})` });
           return;
         }
       }
@@ -162,10 +163,14 @@ export const engineCaseSchema = z
     criteria: z.array(z.enum(TRANSITION_CRITERIA)).default([...TRANSITION_CRITERIA]),
     /**
      * Which criterion sets the governing transition: one of the chosen criteria, or `earliest` (the
-     * shortest laminar run any of them predicts). Absent: e^N when it is chosen, else the earliest.
+     * shortest laminar run any of them predicts). Absent: the earlier of e^N and crossflow (those of
+     * them chosen) when e^N is chosen, else the earliest.
      */
     governing: z.enum(['earliest', ...TRANSITION_CRITERIA]).optional(),
-    /** Leading-edge sweep in degrees, for the attachment-line check. */
+    /**
+     * Leading-edge sweep in degrees: the section is marched as part of an infinite swept wing (simple
+     * sweep theory, crossflow) and the attachment line is checked.
+     */
     sweepDeg: z.number().gt(-90, { error: 'sweepDeg must lie between -90 and 90' }).lt(90, { error: 'sweepDeg must lie between -90 and 90' }).default(0),
     /** Leading-edge radius normal to the leading edge (divided by L), for the attachment-line check. */
     leadingEdgeRadius: positive().optional(),
@@ -196,14 +201,31 @@ export type EngineCase = z.infer<typeof engineCaseSchema>;
 /** A case as a client writes it (defaults may be left out). */
 export type EngineCaseInput = z.input<typeof engineCaseSchema>;
 
+/** Why a chosen criterion has no location. */
+export const CRITERION_MISSING_REASONS = ['notReached', 'afterLaminarSeparation', 'noSweep'] as const;
+export type CriterionMissingReason = (typeof CRITERION_MISSING_REASONS)[number];
+
+/**
+ * One criterion's answer: a location on the laminar solution (which runs on past the governing
+ * transition), or no location with the reason: `notReached` (the laminar layer reaches the end of the
+ * surface first), `afterLaminarSeparation` (it separates first), `noSweep` (a crossflow criterion on an
+ * unswept section). null only in results of engines before 1.2.0.
+ */
 const criterionResultSchema = z
-  .object({
-    s: z.number(),
-    /** Momentum-thickness Reynolds number Ue θ / ν at the predicted location. */
-    reTheta: z.number(),
-    /** Ue s / ν at the predicted location. */
-    reS: z.number(),
-  })
+  .union([
+    z.object({
+      s: z.number(),
+      /** Momentum-thickness Reynolds number Ue θ / ν (local ν) at the predicted location. */
+      reTheta: z.number(),
+      /** Ue s / ν at the predicted location. */
+      reS: z.number(),
+      /** Crossflow Reynolds number there (crossflow). */
+      reCf: z.number().optional(),
+      /** Crossflow displacement-thickness Reynolds number there (crossflowC1). */
+      reDelta2: z.number().optional(),
+    }),
+    z.object({ s: z.null(), reason: z.enum(CRITERION_MISSING_REASONS) }),
+  ])
   .nullable();
 
 const nullableStations = z.array(z.number().nullable());
@@ -221,8 +243,16 @@ const surfaceResultSchema = z.object({
     H: nullableStations,
     /** Skin friction τw / (½ ρ Ue²) on the local edge velocity; null where undefined (Ue = 0, θ = 0). */
     cf: nullableStations,
-    /** Envelope N-factor in the laminar part, null after transition. */
+    /**
+     * Envelope N-factor of the laminar solution; it runs on past the governing transition to where N
+     * reaches N_crit (so the curve meets N_crit at the e^N location), null after that.
+     */
     n: nullableStations,
+    /**
+     * Owen–Randall crossflow Reynolds number of the laminar solution (swept sections), run on like n to
+     * the crossflow location; null where not computed (no sweep, engines before 1.2.0).
+     */
+    reCf: nullableStations.optional(),
   }),
   transition: z.object({
     s: z.number().nullable(),
@@ -232,7 +262,11 @@ const surfaceResultSchema = z.object({
       michel: criterionResultSchema.optional(),
       hRx: criterionResultSchema.optional(),
       granville: criterionResultSchema.optional(),
+      crossflow: criterionResultSchema.optional(),
+      crossflowC1: criterionResultSchema.optional(),
     }),
+    /** Where the laminar solution, marched on, separates (null: it stays attached to the end). */
+    laminarSeparationS: z.number().nullable().optional(),
   }),
   laminarSeparation: z.object({ s: z.number() }).nullable(),
   turbulentSeparation: z.object({ s: z.number() }).nullable(),
@@ -251,6 +285,12 @@ export const engineResultSchema = z.object({
     mach: z.number(),
     nCrit: z.number(),
     nCritFrom: z.enum(['given', 'turbulenceIntensity', 'default']),
+    /** Leading-edge sweep the layer was marched with (engines from 1.2.0). */
+    sweepDeg: z.number().optional(),
+    /** Whether the laminar layer was computed compressible (M∞ > 0; engines from 1.2.0). */
+    compressibleLaminar: z.boolean().optional(),
+    /** Free-stream static temperature taken for Sutherland's law in the compressible layer. */
+    temperature_K: z.number().optional(),
   }),
   surfaces: z.array(surfaceResultSchema),
   cd: z.number().nullable(),
@@ -267,3 +307,13 @@ export const engineResultSchema = z.object({
 export type EngineResult = z.infer<typeof engineResultSchema>;
 export type EngineSurfaceResult = z.infer<typeof surfaceResultSchema>;
 export type AttachmentLineVerdict = (typeof ATTACHMENT_LINE_VERDICTS)[number];
+
+/** One criterion's entry in a surface result. */
+export type CriterionResult = z.infer<typeof criterionResultSchema>;
+/** An entry with a location. */
+export type LocatedCriterion = Extract<NonNullable<CriterionResult>, { s: number }>;
+
+/** The entry when it has a location, else null (no location, a reason, or not evaluated). */
+export function locatedCriterion(entry: CriterionResult | undefined): LocatedCriterion | null {
+  return entry != null && entry.s !== null ? (entry as LocatedCriterion) : null;
+}

@@ -1,9 +1,9 @@
 import type { AnalysisInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs } from '@laminote/contracts';
 import { analyzeCase } from '../analyze';
 import { arcAtX } from '../arc-position';
-import { edgeVelocityRatio, stagnationPressureCoefficient } from '../compressible';
 import type { PressureTableRow } from '../pressure-table';
 import { loopArcLength, splitAtStagnation } from '../stagnation';
+import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from '../swept-wing';
 import { fail, stagnationFailure } from './errors';
 import { engineFlow } from './flow';
 import { readCellTable } from './table';
@@ -34,10 +34,14 @@ export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInp
 
   const table = readCellTable(p);
   const mach = flow.mach;
-  const cp0 = stagnationPressureCoefficient(mach);
+  // The chordwise edge velocity of the infinite swept wing (the engine's own conversion, swept-wing.ts).
+  const sweep = (flow.sweepDeg * Math.PI) / 180;
+  const cp0 = attachmentLinePressureCoefficient(mach, sweep);
   const speedOf = (row: PressureTableRow) => {
-    if (row.cp > cp0 + 1e-6) fail('text', `line ${row.line}: Cp ${row.cp} is above the stagnation value ${cp0.toFixed(4)} at mach ${mach}`, row.line);
-    return row.cp >= cp0 ? 0 : edgeVelocityRatio(row.cp, mach);
+    if (row.cp > cp0 + 1e-6) {
+      fail('text', `line ${row.line}: Cp ${row.cp} is above the ${sweep === 0 ? 'stagnation' : 'attachment-line'} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${flow.sweepDeg}° sweep`}`, row.line);
+    }
+    return row.cp >= cp0 ? 0 : chordwiseVelocityRatio(row.cp, mach, sweep);
   };
   const x = table.rows.map((r) => r.x);
   const y = table.hasY ? table.rows.map((r) => r.y!) : null;
@@ -93,7 +97,8 @@ export function analyzeWith(a: AnalysisInputs, flow: FlowInputs, pressure: Press
   if (prepared.xBySurface) {
     for (const surface of result.surfaces) {
       const x = prepared.xBySurface.get(surface.name);
-      if (x && x.length === surface.stations.s.length) surface.stations.x = x;
+      // A surface that ends at a rear stagnation point is marched to the station before it.
+      if (x && x.length >= surface.stations.s.length) surface.stations.x = x.slice(0, surface.stations.s.length);
     }
   }
   return result;

@@ -1,3 +1,4 @@
+import { locatedCriterion } from '@laminote/contracts';
 import { analyzeCase } from '../analyze';
 import { mackCriticalN } from '../envelope-en';
 import { digits, once, relativeWithin, type ValidationSuite } from './case';
@@ -37,7 +38,7 @@ export const flatPlateTransition: ValidationSuite = {
       const s = stations(3001, 0, 1, 1);
       return analyzeCase({ flow: { reynolds: 5e6 }, turbulent: false, surfaces: [{ name: 'plate', s, ue: s.map(() => 1) }] }).surfaces[0];
     });
-    const reS = (c: 'eN' | 'michel' | 'hRx' | 'granville') => plate().transition.criteria[c]!.reS;
+    const reS = (c: 'eN' | 'michel' | 'hRx' | 'granville') => locatedCriterion(plate().transition.criteria[c])!.reS;
     return [
       { id: 'transition.eN.drela-giles', title: 'envelope e^N at N = 9', quantity: 'Re_x,tr (–)', tolerance: relativeWithin(0.005), source: 'M. Drela & M. B. Giles, AIAA J. 25 (1987) 1347, approximate envelope (eqs. for Re_θ0, dN/dRe_θ, ℓ, m)', measure: () => ({ value: reS('eN'), reference: drelaGilesPlate(9) }) },
       // |Re/3e6 − 1| < 1/3 is the open interval 2e6 < Re < 4e6.

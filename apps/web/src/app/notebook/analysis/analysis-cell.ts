@@ -21,6 +21,8 @@ interface AnalysisFormValue {
   flowCellId: string;
   pressureCellId: string;
   eN: boolean;
+  crossflow: boolean;
+  crossflowC1: boolean;
   michel: boolean;
   hRx: boolean;
   granville: boolean;
@@ -69,6 +71,8 @@ export class AnalysisCell {
     flowCellId: new FormControl('', { nonNullable: true }),
     pressureCellId: new FormControl('', { nonNullable: true }),
     eN: new FormControl(true, { nonNullable: true }),
+    crossflow: new FormControl(true, { nonNullable: true }),
+    crossflowC1: new FormControl(true, { nonNullable: true }),
     michel: new FormControl(true, { nonNullable: true }),
     hRx: new FormControl(true, { nonNullable: true }),
     granville: new FormControl(true, { nonNullable: true }),
@@ -99,6 +103,8 @@ export class AnalysisCell {
         flowCellId: String(inputs['flowCellId'] ?? ''),
         pressureCellId: String(inputs['pressureCellId'] ?? ''),
         eN: criteria.includes('eN'),
+        crossflow: criteria.includes('crossflow'),
+        crossflowC1: criteria.includes('crossflowC1'),
         michel: criteria.includes('michel'),
         hRx: criteria.includes('hRx'),
         granville: criteria.includes('granville'),

@@ -4,6 +4,8 @@ import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from '
 
 export const CRITERION_LABELS: Record<TransitionCriterion, string> = {
   eN: 'Envelope eᴺ',
+  crossflow: 'Crossflow R_cf',
+  crossflowC1: 'Crossflow C1',
   michel: 'Michel',
   hRx: 'H–Re_x',
   granville: 'Granville',
