@@ -71,7 +71,7 @@ describe('aero command line', { timeout: 60_000 }, () => {
   describe('study', () => {
     const ids = { flow: '10000000-0000-4000-8000-000000000001', pressure: '10000000-0000-4000-8000-000000000002', analysis: '10000000-0000-4000-8000-000000000003', note: '10000000-0000-4000-8000-000000000004' };
     const plate = ['x cp', ...Array.from({ length: 101 }, (_, i) => `${i / 100} 0`)].join('\n');
-    const document = {
+    const document: { cells: { cellId: string; kind: string; title: string; inputs: Record<string, unknown>; output: null }[] } & Record<string, unknown> = {
       format: 'laminote.study/1',
       study: { id: 's', title: 'Plate' },
       source: { kind: 'draft', branchId: null, branchName: 'main', versionId: null, versionNumber: null },
