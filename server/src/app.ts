@@ -104,6 +104,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(reviewRouter({ db, config }));
   api.use(devMailRouter({ config }));
   api.use(methodsRouter());
+  api.use(reportsRouter({ db }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -58,4 +58,9 @@ export class VersionApi {
   compare(a: string, b: string): Observable<Comparison> {
     return this.http.get<Comparison>(`${this.base}/compare`, { params: { a, b } });
   }
+
+  /** Where a version's report is: opened by the browser itself (a file to keep or send, not JSON). */
+  reportUrl(versionId: string, format: 'html' | 'pdf', download = false): string {
+    return `${this.base}/versions/${encodeURIComponent(versionId)}/report.${format}${download ? '?download=1' : ''}`;
+  }
 }

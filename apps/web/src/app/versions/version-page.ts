@@ -99,6 +99,9 @@ export class VersionPage {
   });
 
   protected readonly fixed = fixed;
+  protected reportUrl(versionId: string, format: 'html' | 'pdf', download = false): string {
+    return this.api.reportUrl(versionId, format, download);
+  }
   protected readonly sci = sci;
 
   constructor() {
