@@ -44,4 +44,9 @@ export class NotebookApi {
   exportUrl(branchId: string, cellId: string, format: ExportFormat): string {
     return `${this.branch(branchId)}/cells/${encodeURIComponent(cellId)}/export?format=${format}`;
   }
+
+  /** Where the whole study of a branch's draft downloads from: one document that `aero study` recomputes. */
+  studyExportUrl(branchId: string): string {
+    return `${this.branch(branchId)}/export`;
+  }
 }

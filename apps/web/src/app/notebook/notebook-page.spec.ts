@@ -183,6 +183,15 @@ describe('NotebookPage', () => {
     expect(await flow.getRunState()).toBe('Up to date');
   });
 
+  it('offers the whole study as one download, to a viewer too', async () => {
+    const { loader } = await open(asRole('viewer'));
+    const link = await loader.getHarness(MatButtonHarness.with({ selector: 'a.download-study' }));
+    const host = await link.host();
+    expect(await host.getAttribute('href')).toBe(`/api/branches/${BRANCH_ID}/export`);
+    expect(await host.getAttribute('download')).not.toBeNull();
+    expect(await host.getAttribute('aria-label')).toBe('Download the study');
+  });
+
   it('saves a waiting edit before it runs, so the run computes what is on screen', async () => {
     const { fixture, loader } = await open(asRole('engineer'));
     const flow = await loader.getHarness(CellFrameHarness.with({ title: 'Cruise, M 0.78' }));

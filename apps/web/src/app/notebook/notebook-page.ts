@@ -145,6 +145,10 @@ export class NotebookPage {
   protected readonly state = this.opening.state;
   protected readonly notFound = computed(() => this.state().problem?.status === 404 && !this.state().value);
   protected readonly opened = computed(() => this.state().value ?? null);
+  protected readonly studyExportUrl = computed(() => {
+    const opened = this.opened();
+    return opened ? this.api.studyExportUrl(opened.branch.id) : null;
+  });
 
   protected readonly access = computed((): ProjectAccess | null => {
     const opened = this.opened();
