@@ -3,3 +3,4 @@ export * from './projects';
 export * from './studies';
 export * from './review';
 export * from './jobs';
+export * from './tokens';
