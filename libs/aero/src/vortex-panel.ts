@@ -150,7 +150,7 @@ export function vortexPanelSolver(x: ArrayLike<number>, y: ArrayLike<number>): V
     system.set(n + 1, 1, -(1 + ru));
     system.set(n + 1, 2, ru);
     system.set(n + 1, n, -1);
-    system.set(n + 1, n - 1, (1 + rl));
+    system.set(n + 1, n - 1, 1 + rl);
     system.set(n + 1, n - 2, -rl);
   }
   const rhsX = new Matrix(rows, 2);
@@ -168,15 +168,27 @@ export function vortexPanelSolver(x: ArrayLike<number>, y: ArrayLike<number>): V
   }
   const gammaX = Float64Array.from({ length: n + 1 }, (_, j) => gamma.get(j, 0));
   const gammaY = Float64Array.from({ length: n + 1 }, (_, j) => gamma.get(j, 1));
-  const speedX = new Float64Array(n);
-  const speedY = new Float64Array(n);
   let circulationX = 0;
   let circulationY = 0;
   for (let i = 0; i < n; i++) {
+    circulationX += 0.5 * (gammaX[i] + gammaX[i + 1]) * length[i];
+    circulationY += 0.5 * (gammaY[i] + gammaY[i + 1]) * length[i];
+  }
+  if (!closedTrailingEdge) {
+    // A thin open trailing edge (the NACA formulas leave 0.2 % of t) keeps the square system, whose
+    // circulation is right, but its two end strengths still carry a spike of the nearly singular mode
+    // above; the surface speed on the two end panels takes each end strength by linear extrapolation
+    // from its own side instead (the circulation keeps the solved values).
+    for (const g of [gammaX, gammaY]) {
+      g[0] = g[1] + ((g[1] - g[2]) * length[0]) / length[1];
+      g[n] = g[n - 1] + ((g[n - 1] - g[n - 2]) * length[n - 1]) / length[n - 2];
+    }
+  }
+  const speedX = new Float64Array(n);
+  const speedY = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
     speedX[i] = -0.5 * (gammaX[i] + gammaX[i + 1]);
     speedY[i] = -0.5 * (gammaY[i] + gammaY[i + 1]);
-    circulationX -= speedX[i] * length[i];
-    circulationY -= speedY[i] * length[i];
   }
   return { panels: n, xm, ym, length, nx, ny, speedX, speedY, gammaX, gammaY, circulationX, circulationY };
 }

@@ -8,3 +8,4 @@ export * from './versions';
 export * from './review';
 export * from './study-document';
 export * from './methods';
+export * from './section';

@@ -1,0 +1,170 @@
+import type { BodyInviscid, BodySpec, SectionInviscid, SectionSpec } from '@laminote/contracts';
+import { axisymmetricPanels, BodyGeometryError } from './axisymmetric-panel';
+import { criticalPressureCoefficient } from './compressible';
+import { criticalMachKarmanTsien, karmanTsien, prandtlGlauert } from './compressibility-correction';
+import { nacaSection, NacaDesignationError } from './naca-sections';
+import { normalizeSection, parseSectionCoordinates } from './section-coordinates';
+import { repanelSection, sectionGeometry, type SectionGeometry } from './section-geometry';
+import { PanelGeometryError, vortexPanelAt, vortexPanelAtLift, vortexPanelSolver, type VortexPanelSolver } from './vortex-panel';
+
+/**
+ * From a section's shape to its pressures: read or generate the shape, re-panel it, factorise the vortex
+ * panel system once, and solve at an incidence or a lift coefficient with the Kármán–Tsien rule
+ * (Prandtl–Glauert beside it). The engine case (`section`, `body`), the section cell and the polar cell
+ * all go through here. Bad input throws ShapeInputError naming the field (and line) at fault.
+ */
+
+export class ShapeInputError extends Error {
+  constructor(
+    readonly field: string,
+    message: string,
+    readonly line?: number,
+  ) {
+    super(message);
+    this.name = 'ShapeInputError';
+  }
+}
+
+export interface PreparedSection {
+  /** Unit-chord loop as given (or generated). */
+  outline: { x: number[]; y: number[] };
+  title: string | null;
+  geometry: SectionGeometry;
+  solver: VortexPanelSolver;
+  warnings: string[];
+}
+
+export function prepareSection(spec: Pick<SectionSpec, 'coordinates' | 'naca' | 'panels'>): PreparedSection {
+  const warnings: string[] = [];
+  let outline: { x: number[]; y: number[] };
+  let title: string | null = null;
+  let panelled: { x: number[]; y: number[] };
+  if (spec.naca !== undefined && spec.naca.trim() !== '') {
+    try {
+      const generated = nacaSection(spec.naca, Math.round(spec.panels / 2));
+      title = generated.designation;
+      outline = { x: generated.x, y: generated.y };
+      panelled = outline;
+    } catch (error) {
+      if (error instanceof NacaDesignationError) throw new ShapeInputError('naca', error.message);
+      throw error;
+    }
+  } else {
+    const parsed = parseSectionCoordinates(spec.coordinates ?? '');
+    if (!parsed.ok) {
+      const problem = parsed.problems[0];
+      throw new ShapeInputError('coordinates', problem.line > 0 ? `line ${problem.line}: ${problem.message}` : problem.message, problem.line || undefined);
+    }
+    warnings.push(...parsed.warnings);
+    title = parsed.title;
+    const unit = normalizeSection(parsed.x, parsed.y);
+    if (Math.abs(unit.chord - 1) > 1e-3) warnings.push(`the coordinates have a chord of ${unit.chord.toPrecision(4)}; they are scaled to unit chord`);
+    if (Math.abs(unit.twistDeg) > 0.01) warnings.push(`the chord line is inclined ${(-unit.twistDeg).toFixed(2)}° in the coordinates; incidence is measured from the chord line`);
+    outline = { x: unit.x, y: unit.y };
+    panelled = repanelSection(unit.x, unit.y, spec.panels);
+  }
+  const geometry = sectionGeometry(outline.x, outline.y);
+  let solver: VortexPanelSolver;
+  try {
+    solver = vortexPanelSolver(panelled.x, panelled.y);
+  } catch (error) {
+    if (error instanceof PanelGeometryError) throw new ShapeInputError(spec.naca ? 'naca' : 'coordinates', error.message);
+    throw error;
+  }
+  return { outline, title, geometry, solver, warnings };
+}
+
+/** The solution at an incidence (degrees) or a target lift coefficient, at free-stream Mach `mach`. */
+export function sectionAt(prepared: PreparedSection, at: { alphaDeg?: number; cl?: number }, mach: number): SectionInviscid {
+  const correct = mach > 0 ? (cp0: number) => karmanTsien(cp0, mach) : undefined;
+  let solution;
+  if (at.cl !== undefined) {
+    try {
+      solution = vortexPanelAtLift(prepared.solver, at.cl, correct);
+    } catch (error) {
+      if (error instanceof PanelGeometryError) throw new ShapeInputError('cl', error.message);
+      throw error;
+    }
+  } else {
+    solution = vortexPanelAt(prepared.solver, ((at.alphaDeg ?? 0) * Math.PI) / 180, correct);
+  }
+  const { solver } = prepared;
+  const n = solver.panels;
+  let cpMin0 = Infinity;
+  for (let i = 0; i < n; i++) cpMin0 = Math.min(cpMin0, 1 - solution.speed[i] * solution.speed[i]);
+  return {
+    kind: 'section',
+    cl: solution.cl,
+    cm: solution.cm,
+    alphaDeg: (solution.alphaRad * 180) / Math.PI,
+    mach,
+    x: Array.from(solver.xm),
+    y: Array.from(solver.ym),
+    cp: Array.from(solution.cp),
+    cpPrandtlGlauert: mach > 0 ? Array.from(solution.speed, (q) => prandtlGlauert(1 - q * q, mach)) : null,
+    criticalCp: mach > 0 ? criticalPressureCoefficient(mach) : null,
+    criticalMach: criticalMachKarmanTsien(cpMin0),
+    panels: n,
+  };
+}
+
+/** Read a meridian `x r` from the nose to the tail; the same reader rules as section coordinates. */
+export function readBodyMeridian(text: string): { x: number[]; r: number[] } {
+  const x: number[] = [];
+  const r: number[] = [];
+  const lines = text.split(/\r\n|\n|\r/);
+  let title = false;
+  for (let i = 0; i < lines.length; i++) {
+    const content = lines[i].replace(/#.*$/, '').trim();
+    if (content === '') continue;
+    const fields = content.replace(/[,;]$/, '').split(/\s*[,;\t]\s*|\s+/);
+    const values = fields.map((f) => (/^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/.test(f) ? Number(f) : NaN));
+    if (!values.every(Number.isFinite)) {
+      if (x.length === 0 && !title) {
+        title = true;
+        continue;
+      }
+      throw new ShapeInputError('coordinates', `line ${i + 1}: "${fields.find((_, k) => !Number.isFinite(values[k]))!.slice(0, 40)}" is not a number`, i + 1);
+    }
+    if (fields.length !== 2) throw new ShapeInputError('coordinates', `line ${i + 1}: expected two numbers, x and r, found ${fields.length}`, i + 1);
+    if (values[1] < 0) throw new ShapeInputError('coordinates', `line ${i + 1}: body radius must not be negative`, i + 1);
+    if (x.length > 0 && !(values[0] > x[x.length - 1])) throw new ShapeInputError('coordinates', `line ${i + 1}: x must increase from the nose to the tail (${values[0]} after ${x[x.length - 1]})`, i + 1);
+    x.push(values[0]);
+    r.push(values[1]);
+  }
+  if (x.length < 5) throw new ShapeInputError('coordinates', `needs at least 5 points from the nose to the tail, found ${x.length}`);
+  if (r[0] !== 0 || r[r.length - 1] !== 0) throw new ShapeInputError('coordinates', 'the meridian must start and end on the axis (r = 0 at the nose and the tail)');
+  return { x, r };
+}
+
+/** The body's surface flow at zero incidence, re-panelled with `panels` panels (cosine in arc length). */
+export function bodyAt(spec: Pick<BodySpec, 'coordinates' | 'panels'>): BodyInviscid & { s: number[]; speed: number[] } {
+  const meridian = readBodyMeridian(spec.coordinates);
+  const length = meridian.x[meridian.x.length - 1] - meridian.x[0];
+  // Lengths are divided by the body length, nose at x = 0.
+  const x = meridian.x.map((v) => (v - meridian.x[0]) / length);
+  const r = meridian.r.map((v) => v / length);
+  // Re-panel as a closed loop would be: reflect, re-panel, keep the upper half.
+  const loopX = [...x.slice().reverse(), ...x.slice(1)];
+  const loopY = [...r.slice().reverse(), ...r.slice(1).map((v) => -v)];
+  const panelled = repanelSection(loopX, loopY, 2 * spec.panels);
+  const half = Math.round(spec.panels);
+  const nodesX = panelled.x.slice(0, half + 1).reverse();
+  const nodesR = panelled.y.slice(0, half + 1).reverse().map((v, i, all) => (i === 0 || i === all.length - 1 ? 0 : Math.max(0, v)));
+  let solution;
+  try {
+    solution = axisymmetricPanels(nodesX, nodesR);
+  } catch (error) {
+    if (error instanceof BodyGeometryError) throw new ShapeInputError('coordinates', error.message);
+    throw error;
+  }
+  return {
+    kind: 'body',
+    x: Array.from(solution.x),
+    r: Array.from(solution.r),
+    cp: Array.from(solution.cp),
+    panels: solution.x.length,
+    s: Array.from(solution.s),
+    speed: Array.from(solution.speed),
+  };
+}
