@@ -12,6 +12,7 @@ import type { OidcClient } from './auth/oidc';
 import { authRouter, loadUser, requireUser } from './auth/routes';
 import { sessionMiddleware } from './auth/session';
 import { databaseUnavailable, errorHandler, notFoundHandler } from './http/problem';
+import { checkPathParams, inputGuard } from './http/edge';
 import type { EnginePool } from './engine/pool';
 import { draftBodyParser, notebookRouter } from './notebook/routes';
 import { projectsRouter } from './projects/routes';
@@ -94,6 +95,9 @@ export function createApp(deps: AppDeps): Express {
   // Anonymous calls answer 401 before anything else is looked at; then anti-forgery.
   app.use('/api', requireUser, csrfProtection());
   app.use('/auth/logout', csrfProtection());
+  // Hostile input (NUL, broken Unicode, deep nesting, non-finite numbers, unknown cell inputs) answers
+  // 400 here, for every route, before any handler or the database sees it.
+  app.use(inputGuard);
   app.use(authRouter({ config, db, oidc: deps.oidc, logger }));
 
   const api = Router();
@@ -120,5 +124,7 @@ export function createApp(deps: AppDeps): Express {
 
   app.use(notFoundHandler);
   app.use(errorHandler(logger));
+  // Every path parameter of every route mounted above is checked (ids must be ids).
+  checkPathParams(app);
   return app;
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeText } from './text';
 import { projectRoleSchema, projectSettingsSchema } from './roles';
 
 /**
@@ -56,8 +57,7 @@ export const projectSchema = z.object({
 export type Project = z.infer<typeof projectSchema>;
 
 const name = (field: string, max: number) =>
-  z
-    .string({ error: `${field} is required` })
+  safeText(field)
     .trim()
     .min(1, `${field} must not be empty`)
     .max(max, `${field} must be at most ${max} characters`);
@@ -65,15 +65,15 @@ const name = (field: string, max: number) =>
 /** POST /api/projects (site admins) */
 export const createProjectSchema = z.object({
   name: name('name', 120),
-  description: z.string().max(2000, 'description must be at most 2000 characters').default(''),
-  leadEmail: z.string().trim().toLowerCase().email('leadEmail must be an e-mail address'),
+  description: safeText('description').max(2000, 'description must be at most 2000 characters').default(''),
+  leadEmail: safeText('leadEmail').trim().toLowerCase().email('leadEmail must be an e-mail address'),
 });
 export type CreateProject = z.input<typeof createProjectSchema>;
 
 /** PATCH /api/projects/:projectId (leads, site admins) */
 export const updateProjectSchema = z.object({
   name: name('name', 120).optional(),
-  description: z.string().max(2000, 'description must be at most 2000 characters').optional(),
+  description: safeText('description').max(2000, 'description must be at most 2000 characters').optional(),
   settings: projectSettingsSchema.partial().optional(),
 });
 export type UpdateProject = z.input<typeof updateProjectSchema>;
@@ -92,9 +92,9 @@ export type Member = z.infer<typeof memberSchema>;
 
 /** POST /api/projects/:projectId/members (leads) */
 export const addMemberSchema = z.object({
-  email: z.string().trim().toLowerCase().email('email must be an e-mail address'),
+  email: safeText('email').trim().toLowerCase().email('email must be an e-mail address'),
   role: projectRoleSchema,
-  name: z.string().trim().max(120).optional(),
+  name: safeText('name').trim().max(120).optional(),
 });
 export type AddMember = z.input<typeof addMemberSchema>;
 
@@ -118,7 +118,7 @@ export type Study = z.infer<typeof studySchema>;
 /** POST /api/projects/:projectId/studies (engineers, leads) */
 export const createStudySchema = z.object({
   title: name('title', 200),
-  description: z.string().max(4000, 'description must be at most 4000 characters').default(''),
+  description: safeText('description').max(4000, 'description must be at most 4000 characters').default(''),
 });
 export type CreateStudy = z.input<typeof createStudySchema>;
 
@@ -126,7 +126,7 @@ export type CreateStudy = z.input<typeof createStudySchema>;
 export const updateStudySchema = z
   .object({
     title: name('title', 200).optional(),
-    description: z.string().max(4000, 'description must be at most 4000 characters').optional(),
+    description: safeText('description').max(4000, 'description must be at most 4000 characters').optional(),
     archived: z.boolean().optional(),
   })
   .refine((v) => Object.keys(v).length > 0, { message: 'nothing to change: give title, description or archived' });

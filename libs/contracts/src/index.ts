@@ -9,3 +9,4 @@ export * from './review';
 export * from './study-document';
 export * from './methods';
 export * from './section';
+export * from './text';

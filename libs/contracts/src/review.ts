@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeText } from './text';
 
 /**
  * Review: comment threads on cells, mentions, review requests and verdicts on versions, the inbox and
@@ -23,8 +24,7 @@ export const plotAnchorSchema = z.object({
 export type PlotAnchor = z.infer<typeof plotAnchorSchema>;
 
 export const COMMENT_MAX_LENGTH = 20_000;
-export const commentBodySchema = z
-  .string({ error: 'body is required' })
+export const commentBodySchema = safeText('body')
   .trim()
   .min(1, 'body must not be empty')
   .max(COMMENT_MAX_LENGTH, `body must be at most ${COMMENT_MAX_LENGTH} characters`);
@@ -126,15 +126,14 @@ export const VERDICT_LABELS: Record<VerdictKind, string> = { approved: 'Approved
 /** POST /api/versions/:versionId/review-requests (leads, engineers) */
 export const requestReviewSchema = z.object({
   reviewerIds: z.array(id, { error: 'reviewerIds must list reviewers' }).min(1, 'reviewerIds: name at least one reviewer').max(20, 'reviewerIds: at most 20 reviewers'),
-  message: z.string().trim().max(4000, 'message must be at most 4000 characters').default(''),
+  message: safeText('message').trim().max(4000, 'message must be at most 4000 characters').default(''),
 });
 export type RequestReview = z.input<typeof requestReviewSchema>;
 
 /** POST /api/versions/:versionId/verdicts (reviewers) */
 export const giveVerdictSchema = z.object({
   verdict: verdictKindSchema,
-  summary: z
-    .string({ error: 'summary is required' })
+  summary: safeText('summary')
     .trim()
     .min(1, 'summary must not be empty: say what was checked and what was found')
     .max(8000, 'summary must be at most 8000 characters'),

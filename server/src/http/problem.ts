@@ -78,6 +78,14 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     // body-parser and multer signal bad bodies with a status of their own.
     if (e?.type === 'entity.parse.failed') return sendProblem(res, badRequest('The request body is not valid JSON.', 'body'));
     if (e?.type === 'entity.too.large') return sendProblem(res, new ProblemError(413, 'too-large', 'The request is too large', { detail: e.message ?? '' }));
+    if (err instanceof URIError || (e?.status === 400 && /^Failed to decode param/.test(e.message ?? ''))) {
+      return sendProblem(res, badRequest('The address has broken percent-encoding (a % not followed by two hexadecimal digits of valid UTF-8).', 'address'));
+    }
+    // Other client errors raised by Express's own parts (body-parser: unsupported charset or encoding,
+    // an aborted upload) keep their 4xx status.
+    if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500) {
+      return sendProblem(res, new ProblemError(e.status, 'bad-request', 'The request cannot be read', { detail: e.message ?? '' }));
+    }
     if (isDatabaseUnavailable(err)) {
       (req.log ?? logger).warn({ err: e?.message }, 'database unavailable; answered 503');
       return sendProblem(res, databaseUnavailable());

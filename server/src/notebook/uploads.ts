@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { Request, Response } from 'express';
 import multer from 'multer';
-import { UPLOAD_LIMIT_BYTES, type UploadResponse } from '@laminote/contracts';
+import { textFault, UPLOAD_LIMIT_BYTES, type UploadResponse } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
 import type { Db } from '../db/client';
@@ -57,6 +57,8 @@ export async function storeUpload(db: Db, actor: SessionUser, ids: { projectId: 
   const { text, encoding } = decode(bytes);
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const contentType = CONTENT_TYPES.has(file.mimetype) ? file.mimetype : 'application/octet-stream';
+  const nameFault = textFault(file.originalname);
+  if (nameFault) throw badRequest(`The file name ${nameFault}; rename the file and upload it again.`, 'file');
   const filename = file.originalname.replace(/[\\/]/g, '_').slice(0, 255) || 'table.txt';
   const row = await db.transaction(async (tx) => {
     const [inserted] = await tx
