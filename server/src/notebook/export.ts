@@ -1,4 +1,3 @@
-import Papa from 'papaparse';
 import { ENGINE_CAUTION, xAtArc } from '@laminote/aero';
 import {
   CELL_KIND_LABELS,
@@ -7,6 +6,7 @@ import {
   type DraftCell,
   type EngineResult,
 } from '@laminote/contracts';
+import { csvCommentLine, toCsv } from '../http/csv';
 import { ProblemError } from '../http/problem';
 
 /**
@@ -130,9 +130,9 @@ export function exportCell(draft: Draft, studyTitle: string, cellId: string, for
   }
   const { fields, rows } = table(cell.kind, output.result);
   const header = [
-    `# Laminote: ${studyTitle} / ${cell.title || CELL_KIND_LABELS[cell.kind]} (${CELL_KIND_LABELS[cell.kind]})`,
-    `# engine ${output.engineVersion}, computed ${output.computedAt}, ${state === 'current' ? 'current' : 'OUTDATED: the inputs changed since this result'}`,
-    `# ${ENGINE_CAUTION}`,
+    csvCommentLine(`Laminote: ${studyTitle} / ${cell.title || CELL_KIND_LABELS[cell.kind]} (${CELL_KIND_LABELS[cell.kind]})`),
+    csvCommentLine(`engine ${output.engineVersion}, computed ${output.computedAt}, ${state === 'current' ? 'current' : 'OUTDATED: the inputs changed since this result'}`),
+    csvCommentLine(ENGINE_CAUTION),
   ];
-  return { filename: `${name}.csv`, contentType: 'text/csv; charset=utf-8', body: `${header.join('\n')}\n${Papa.unparse({ fields, data: rows }, { newline: '\n' })}\n` };
+  return { filename: `${name}.csv`, contentType: 'text/csv; charset=utf-8', body: `${header.join('\n')}\n${toCsv(fields, rows)}\n` };
 }
