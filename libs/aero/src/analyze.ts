@@ -20,6 +20,7 @@ import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './he
 import { hRexTransitionReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
 import { parsePressureTable } from './pressure-table';
+import { bodyAt, prepareSection, sectionAt, ShapeInputError } from './section-case';
 import { leastSquaresSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
 import { squireYoungDrag } from './squire-young';
@@ -116,10 +117,20 @@ export function analyzeCase(input: unknown): EngineResult {
     );
   }
 
-  const surfaces =
-    engineCase.pressureTable !== undefined && engineCase.pressureTable.trim() !== ''
-      ? surfacesFromTable(engineCase.pressureTable, flow.mach, sweep, warnings)
-      : engineCase.surfaces!.map((surface, index) => surfaceFromArrays(surface, index, flow.mach, sweep, warnings));
+  let inviscid: EngineResult['inviscid'];
+  let leadingEdgeRadius = engineCase.leadingEdgeRadius;
+  let surfaces: PreparedSurface[];
+  if (engineCase.section !== undefined || engineCase.body !== undefined) {
+    const shape = surfacesFromShape(engineCase, flow.mach, sweep, warnings);
+    surfaces = shape.surfaces;
+    inviscid = shape.inviscid;
+    leadingEdgeRadius ??= shape.leadingEdgeRadius;
+  } else {
+    surfaces =
+      engineCase.pressureTable !== undefined && engineCase.pressureTable.trim() !== ''
+        ? surfacesFromTable(engineCase.pressureTable, flow.mach, sweep, warnings)
+        : engineCase.surfaces!.map((surface, index) => surfaceFromArrays(surface, index, flow.mach, sweep, warnings));
+  }
 
   const criteria = [...new Set(engineCase.criteria)];
   // The envelope e^N method is the primary criterion of laminar-flow design practice, and on a swept
@@ -144,7 +155,7 @@ export function analyzeCase(input: unknown): EngineResult {
   let attachmentLine: EngineResult['attachmentLine'] = null;
   if (engineCase.sweepDeg !== 0) {
     const velocityGradient = gradients.length > 0 ? gradients.reduce((a, b) => a + b, 0) / gradients.length : null;
-    attachmentLine = attachmentLineCheck({ reynolds: flow.reynolds, sweepDeg: engineCase.sweepDeg, velocityGradient, leadingEdgeRadius: engineCase.leadingEdgeRadius });
+    attachmentLine = attachmentLineCheck({ reynolds: flow.reynolds, sweepDeg: engineCase.sweepDeg, velocityGradient, leadingEdgeRadius });
     if (attachmentLine === null) {
       warnings.push('attachment line not checked: give leadingEdgeRadius, or surfaces that start at the attachment line (Ue = 0)');
     } else if (attachmentLine.verdict !== 'laminar') {
@@ -160,10 +171,43 @@ export function analyzeCase(input: unknown): EngineResult {
     engineVersion: ENGINE_VERSION,
     flow: { reynolds: flow.reynolds, mach: flow.mach, nCrit, nCritFrom, sweepDeg: engineCase.sweepDeg, compressibleLaminar, ...(compressibleLaminar ? { temperature_K } : {}) },
     surfaces: results,
+    ...(inviscid ? { inviscid } : {}),
     cd,
     attachmentLine,
     warnings,
   };
+}
+
+/**
+ * A section's or a body's surfaces from the panel methods (section-case.ts): the section's Cp loop is
+ * read as a pasted table would be; the body is one surface from the nose with its radius (Mangler).
+ */
+function surfacesFromShape(
+  engineCase: EngineCase,
+  mach: number,
+  sweep: number,
+  warnings: string[],
+): { surfaces: PreparedSurface[]; inviscid: NonNullable<EngineResult['inviscid']>; leadingEdgeRadius: number | undefined } {
+  const key = engineCase.section !== undefined ? 'section' : 'body';
+  try {
+    if (engineCase.section !== undefined) {
+      const prepared = prepareSection(engineCase.section);
+      warnings.push(...prepared.warnings.map((w) => `section: ${w}`));
+      const inviscid = sectionAt(prepared, engineCase.section, mach);
+      const table = inviscid.x.map((x, i) => `${x} ${inviscid.y[i]} ${inviscid.cp[i]}`).join('\n');
+      const radius = prepared.geometry.leadingEdgeRadius;
+      return { surfaces: surfacesFromTable(table, mach, sweep, warnings), inviscid, leadingEdgeRadius: Number.isFinite(radius) && radius > 0 ? radius : undefined };
+    }
+    const body = bodyAt(engineCase.body!);
+    if (mach > 0) warnings.push(`body: the surface speeds are incompressible; mach ${mach} enters only through the boundary layer`);
+    const surface = surfaceFromArrays({ name: 'body', s: [0, ...body.s], ue: [0, ...body.speed.map(Math.abs)], r: [0, ...body.r] }, 0, mach, sweep, warnings);
+    surface.x = Float64Array.from([0, ...body.x]);
+    const { s: _s, speed: _speed, ...inviscid } = body;
+    return { surfaces: [surface], inviscid, leadingEdgeRadius: undefined };
+  } catch (error) {
+    if (error instanceof ShapeInputError) throw new CaseError(`${key}.${error.field}${error.line ? ` line ${error.line}` : ''}`, error.message.replace(/^line \d+: /, ''));
+    throw error;
+  }
 }
 
 function criticalN(flow: EngineCase['flow'], warnings: string[]): { nCrit: number; nCritFrom: EngineResult['flow']['nCritFrom'] } {

@@ -67,3 +67,41 @@ describe('polar', () => {
     expect(points[6].surfaces.find((s) => s.name === 'upper')!.transitionX!).toBeLessThan(zero.surfaces.find((s) => s.name === 'upper')!.transitionX!);
   });
 });
+
+describe('engine case with a section or a body', () => {
+  it('analyses a NACA section at a target lift and returns its inviscid solution', async () => {
+    const { analyzeCase } = await import('./analyze');
+    const result = analyzeCase({ flow: { reynolds: 6e6, mach: 0.3, nCrit: 9 }, section: { naca: '2412', cl: 0.5, panels: 160 } });
+    expect(result.inviscid?.kind).toBe('section');
+    if (result.inviscid?.kind !== 'section') return;
+    expect(result.inviscid.cl).toBeCloseTo(0.5, 6);
+    expect(result.inviscid.criticalCp).toBeLessThan(-5);
+    expect(result.surfaces.map((s) => s.name)).toEqual(['upper', 'lower']);
+    expect(result.cd).toBeGreaterThan(0.004);
+  });
+
+  it('analyses a body of revolution along its meridian with the Mangler transformation', async () => {
+    const { analyzeCase } = await import('./analyze');
+    // A 6:1 ellipsoid of revolution, invented for the check.
+    const text = Array.from({ length: 81 }, (_, k) => {
+      const t = Math.PI - (Math.PI * k) / 80;
+      return `${3 + 3 * Math.cos(t)} ${k === 0 || k === 80 ? 0 : 0.5 * Math.sin(t)}`;
+    }).join('\n');
+    const result = analyzeCase({ flow: { reynolds: 2e7, mach: 0, nCrit: 9 }, body: { coordinates: text } });
+    expect(result.inviscid?.kind).toBe('body');
+    expect(result.surfaces[0].name).toBe('body');
+    expect(result.surfaces[0].transition.s).not.toBeNull();
+  });
+
+  it('names the field and line of bad shape input', async () => {
+    const { analyzeCase, CaseError } = await import('./analyze');
+    expect(() => analyzeCase({ flow: { reynolds: 1e6 }, section: { naca: '9999x', alphaDeg: 2 } })).toThrow(CaseError);
+    try {
+      analyzeCase({ flow: { reynolds: 1e6 }, body: { coordinates: '0 0\n0.2 0.1\n0.4 x\n0.6 0.1\n1 0' } });
+    } catch (error) {
+      expect((error as InstanceType<typeof CaseError>).field).toBe('body.coordinates line 3');
+    }
+    expect(() => analyzeCase({ flow: { reynolds: 1e6 }, section: { naca: '0012' } })).toThrow(/alphaDeg/);
+    expect(() => analyzeCase({ flow: { reynolds: 1e6 }, section: { naca: '0012', alphaDeg: 1 }, pressureTable: '1 0 0' })).toThrow(/not/);
+  });
+});

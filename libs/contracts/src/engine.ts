@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { TRANSITION_CRITERIA } from './cell-kinds';
+import { bodySpecSchema, inviscidResultSchema, sectionSpecSchema } from './section';
 
 /**
  * The engine contract (DESIGN.md, "The engine contract"): the case the boundary-layer engine analyses
@@ -160,6 +161,10 @@ export const engineCaseSchema = z
     surfaces: z.array(surfaceSchema).max(ENGINE_LIMITS.maxSurfaces, { error: `more than ${ENGINE_LIMITS.maxSurfaces} surfaces (limit)` }).optional(),
     /** Closed-loop `x [y] cp` table from the trailing edge over one side to the other. */
     pressureTable: z.string().max(ENGINE_LIMITS.maxTableCharacters, { error: `longer than ${ENGINE_LIMITS.maxTableCharacters} characters (limit)` }).optional(),
+    /** ... or a section's shape: the engine's panel method gives its Cp (section.ts). */
+    section: sectionSpecSchema.optional(),
+    /** ... or a body of revolution's meridian, at zero incidence. */
+    body: bodySpecSchema.optional(),
     criteria: z.array(z.enum(TRANSITION_CRITERIA)).default([...TRANSITION_CRITERIA]),
     /**
      * Which criterion sets the governing transition: one of the chosen criteria, or `earliest` (the
@@ -183,8 +188,12 @@ export const engineCaseSchema = z
     if (engineCase.governing && engineCase.governing !== 'earliest' && !engineCase.criteria.includes(engineCase.governing)) {
       ctx.addIssue({ code: 'custom', path: ['governing'], message: `governing criterion "${engineCase.governing}" is not among the chosen criteria` });
     }
-    if (!hasSurfaces && !hasTable) {
-      ctx.addIssue({ code: 'custom', path: ['surfaces'], message: 'nothing to analyse: give surfaces or a pressureTable' });
+    const hasShape = engineCase.section !== undefined || engineCase.body !== undefined;
+    if (hasShape) {
+      const given = [hasSurfaces && 'surfaces', hasTable && 'pressureTable', engineCase.section && 'section', engineCase.body && 'body'].filter(Boolean);
+      if (given.length > 1) ctx.addIssue({ code: 'custom', path: [String(given[1])], message: `give one of surfaces, pressureTable, section or body, not ${given.join(' and ')}` });
+    } else if (!hasSurfaces && !hasTable) {
+      ctx.addIssue({ code: 'custom', path: ['surfaces'], message: 'nothing to analyse: give surfaces, a pressureTable, a section or a body' });
     } else if (hasSurfaces && hasTable) {
       ctx.addIssue({ code: 'custom', path: ['pressureTable'], message: 'give either surfaces or a pressureTable, not both' });
     } else if (hasSurfaces) {
@@ -293,6 +302,8 @@ export const engineResultSchema = z.object({
     temperature_K: z.number().optional(),
   }),
   surfaces: z.array(surfaceResultSchema),
+  /** The panel method's solution, when the case gave a section or a body. */
+  inviscid: inviscidResultSchema.optional(),
   cd: z.number().nullable(),
   attachmentLine: z
     .object({
