@@ -257,11 +257,14 @@ describe('role matrix', () => {
       await outsider.get(`/api/comments/${thread.comments[0]!.id}/revisions`),
       await outsider.get(`/api/versions/${v1}/review`),
       await outsider.get(`/api/threads/${randomUUID()}`),
-      await outsider.get('/api/threads/not-a-uuid'),
     ]) {
       expect(res.status).toBe(404);
       expect(res.body.type).toBe('/problems/not-found');
     }
+    // A malformed id names nothing, for anyone: refused for what it is (400, naming the parameter).
+    const malformed = await outsider.get('/api/threads/not-a-uuid');
+    expect(malformed.status).toBe(400);
+    expect(malformed.body.field).toBe('threadId');
   });
 
   it('lets a viewer read threads but not reply', async () => {
