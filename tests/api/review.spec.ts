@@ -421,7 +421,7 @@ describe('review requests and verdicts', () => {
 
   it('tells the version author about a verdict', async () => {
     const inbox = (await as['engineer']!.get('/api/inbox').expect(200)).body as Inbox;
-    expect(inbox.items.some((n) => n.kind === 'verdict' && n.title.includes('approved on version 2'))).toBe(true);
+    expect(inbox.items.some((n) => n.kind === 'verdict' && n.title === 'Lotte Brandvik cleared version 2 (main)')).toBe(true);
   });
 
   it('asks for a summary with a verdict', async () => {

@@ -8,7 +8,7 @@ import { testEnv } from '../support/env';
 /**
  * The review loop in the browser, for the demo people: the reviewer comments on the demo study's
  * analysis cell mentioning the engineer; the SMTP sink receives the e-mail and its link opens the cell
- * for the engineer, who replies and resolves; the reviewer approves the version.
+ * for the engineer, who replies and resolves; the reviewer clears the version.
  */
 const reviewer = DEMO_USERS.find((u) => u.role === 'reviewer')!;
 const engineer = DEMO_USERS.find((u) => u.role === 'engineer')!;
@@ -132,7 +132,7 @@ describe('review: comment with a mention → e-mail → reply and resolve → ve
     await cell.screenshot({ path: `${shots}-resolved.png` });
   });
 
-  it('lets the reviewer approve the version, and the study header shows it', async () => {
+  it('lets the reviewer clear the version, and the study header shows it', async () => {
     // A version to review: the demo study's head, saved here through the API when there is none yet.
     const versionId = await engineerPage.evaluate(async (id) => {
       const token = decodeURIComponent(document.cookie.split('; ').find((c) => c.startsWith('XSRF-TOKEN='))?.slice('XSRF-TOKEN='.length) ?? '');
@@ -152,18 +152,18 @@ describe('review: comment with a mention → e-mail → reply and resolve → ve
     await page.goto(`${testEnv.appUrl}/studies/${studyId}/versions/${versionId}`);
     const review = page.locator('lam-version-review');
     // The verdict is one of two toggles (radio buttons).
-    await review.getByRole('radio', { name: /Approve/ }).click();
-    await review.getByRole('textbox', { name: 'Summary' }).fill(`Transition and drag consistent across the four criteria; thread on N_crit resolved (${stamp}).`);
+    await review.getByRole('radio', { name: /Clear this version/ }).click();
+    await review.getByRole('textbox', { name: 'Findings' }).fill(`Transition and drag consistent across the four criteria; thread on N_crit resolved (${stamp}).`);
     await review.getByRole('button', { name: 'Record verdict' }).click();
     await review.locator('.verdict', { hasText: stamp }).waitFor();
-    await expect(review.locator('lam-review-state .state').textContent()).resolves.toContain('Approved');
+    await expect(review.locator('lam-review-state .state').textContent()).resolves.toContain('Cleared');
     await page.screenshot({ path: `${shots}-verdict.png` });
 
     await page.goto(`${testEnv.appUrl}/studies/${studyId}`);
     const header = page.locator('lam-study-review-state a');
     await header.waitFor();
     await expect(header.getAttribute('aria-label')).resolves.toMatch(/^Review of version \d+$/);
-    await expect(header.locator('.state').textContent()).resolves.toContain('Approved');
+    await expect(header.locator('.state').textContent()).resolves.toContain('Cleared');
     await page.screenshot({ path: `${shots}-header.png` });
   });
 

@@ -2,7 +2,6 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import {
   can,
-  VERDICT_LABELS,
   type ProjectAccess,
   type ReviewRequest,
   type ReviewState,
@@ -295,7 +294,7 @@ export async function giveVerdict(
     actor,
     projectId: study.projectId,
     study,
-    title: `${actor.name}: ${VERDICT_LABELS[input.verdict].toLowerCase()} on version ${version.number} (${version.branchName})`,
+    title: verdictTitle(actor.name, input.verdict, `version ${version.number} (${version.branchName})`),
     excerpt: excerpt(input.summary),
     link: versionLink(study.id, versionId),
     refs: { versionId, versionNumber: version.number, verdict: input.verdict },
@@ -307,4 +306,9 @@ export async function giveVerdict(
 export async function versionStudy(tx: Tx, versionId: string): Promise<{ studyId: string } | null> {
   const [row] = await tx.select({ studyId: versions.studyId }).from(versions).where(eq(versions.id, versionId));
   return row ?? null;
+}
+
+/** The inbox and e-mail line of a verdict, in Laminote's review words (the web app's verdict-words). */
+function verdictTitle(reviewer: string, verdict: VerdictKind, version: string): string {
+  return verdict === 'approved' ? `${reviewer} cleared ${version}` : `${reviewer} sent ${version} back for rework`;
 }

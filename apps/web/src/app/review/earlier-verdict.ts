@@ -1,9 +1,10 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatIconModule } from '@angular/material/icon';
-import { REVIEW_STATE_LABELS, type StudyReview } from '@laminote/contracts';
+import type { StudyReview } from '@laminote/contracts';
 import { catchError, of, switchMap } from 'rxjs';
 import { ThreadStore } from './thread-store';
+import { verdictPast } from './verdict-words';
 
 /**
  * For a version in the history with no verdict of its own: the nearest earlier version's verdict, said
@@ -16,7 +17,7 @@ import { ThreadStore } from './thread-store';
     @if (earlier(); as e) {
       <span class="earlier" [attr.data-state]="e.state" [attr.title]="'The verdict was given on version ' + e.versionNumber + ', an older version; this one has none yet'">
         <mat-icon aria-hidden="true">subdirectory_arrow_right</mat-icon>v{{ e.versionNumber }}{{ e.branchName !== branchName() ? ' (' + e.branchName + ')' : '' }}
-        {{ labels[e.state].toLowerCase() }} · not this version
+        {{ past(e.state) }} · not this version
       </span>
     }
   `,
@@ -33,7 +34,7 @@ export class EarlierVerdict {
   readonly versionId = input.required<string>();
   readonly branchName = input<string | null>(null);
 
-  protected readonly labels = REVIEW_STATE_LABELS;
+  protected readonly past = verdictPast;
   private readonly review = toSignal(
     toObservable(this.studyId).pipe(switchMap((id) => this.store.studyReview(id).pipe(catchError(() => of(null as StudyReview | null))))),
     { initialValue: null },

@@ -33,9 +33,11 @@ export class StudyReviewState {
   readonly branchId = input.required<string>();
   /** Changes when a version is saved, so the line is asked again. */
   readonly headVersionId = input<string | null>(null);
+  /** Changes when the head was sent for review from the page, so the line is asked again. */
+  readonly refresh = input(0);
 
   private readonly load = loader(
-    () => ({ studyId: this.studyId(), head: this.headVersionId() }),
+    () => ({ studyId: this.studyId(), head: this.headVersionId(), refresh: this.refresh() }),
     ({ studyId }) => this.api.studyReview(studyId),
   );
   protected readonly head = computed(() => {

@@ -1,16 +1,14 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSelectModule } from '@angular/material/select';
-import { REVIEW_STATE_LABELS, VERDICT_LABELS, type Member, type VerdictKind, type VersionReviewDetail } from '@laminote/contracts';
-import { catchError, of, switchMap } from 'rxjs';
+import { VERDICTS, type VerdictKind, type VersionReviewDetail } from '@laminote/contracts';
 import { Notifier } from '../core/notifier';
 import { UnreadCount } from '../inbox/unread-count';
 import { loader } from '../shared/load-state';
@@ -18,7 +16,9 @@ import { ProblemBanner } from '../shared/problem-banner';
 import { CommentBody } from './comment-body';
 import { ReviewApi } from './review-api';
 import { ReviewStateTag } from './review-state';
+import { SendForReviewDialog, type SendForReviewData } from './send-for-review-dialog';
 import { ThreadStore } from './thread-store';
+import { VERDICT_WORDS, verdictPast } from './verdict-words';
 
 /**
  * The review of one version: its state, who was asked and who answered, every verdict (the newest of
@@ -36,7 +36,6 @@ import { ThreadStore } from './thread-store';
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
-    MatSelectModule,
     ProblemBanner,
     ReviewStateTag,
   ],
@@ -49,6 +48,7 @@ export class VersionReview {
   private readonly store = inject(ThreadStore);
   private readonly notifier = inject(Notifier);
   private readonly unread = inject(UnreadCount);
+  private readonly dialog = inject(MatDialog);
 
   readonly versionId = input.required<string>();
   readonly studyId = input.required<string>();
@@ -63,18 +63,10 @@ export class VersionReview {
     const mine = this.answered();
     return mine && mine.summary.versionId === this.versionId() ? mine : (loaded ?? null);
   });
-  protected readonly stateLabels = REVIEW_STATE_LABELS;
-  protected readonly verdictLabels = VERDICT_LABELS;
+  protected readonly past = verdictPast;
+  protected readonly verdictWords = VERDICT_WORDS;
+  protected readonly verdictKinds = VERDICTS;
 
-  private readonly members = toSignal(
-    toObservable(this.studyId).pipe(switchMap((id) => this.store.members(id).pipe(catchError(() => of([] as Member[]))))),
-    { initialValue: [] as Member[] },
-  );
-  protected readonly reviewers = computed(() => this.members().filter((m) => m.role === 'reviewer'));
-
-  protected readonly asking = signal(false);
-  protected readonly chosenReviewers = signal<string[]>([]);
-  protected readonly requestMessage = signal('');
   protected readonly verdict = signal<VerdictKind | null>(null);
   protected readonly summaryText = signal('');
   protected readonly busy = signal(false);
@@ -98,22 +90,15 @@ export class VersionReview {
     this.notifier.done(message);
   }
 
-  protected requestReview(): void {
-    const reviewerIds = this.chosenReviewers();
-    if (reviewerIds.length === 0) return;
-    this.busy.set(true);
-    this.api.requestReview(this.versionId(), { reviewerIds, message: this.requestMessage() }).subscribe({
-      next: (review) => {
-        this.done(review, reviewerIds.length === 1 ? 'Review requested; the reviewer was notified' : 'Review requested; the reviewers were notified');
-        this.asking.set(false);
-        this.chosenReviewers.set([]);
-        this.requestMessage.set('');
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        this.notifier.problem(error);
-      },
-    });
+  /** Sends the version for review from the dialog the version bar and the save step use too. */
+  protected sendForReview(review: VersionReviewDetail): void {
+    const data: SendForReviewData = { studyId: this.studyId(), versionId: this.versionId(), versionNumber: review.summary.versionNumber, branchName: this.branchName() ?? '' };
+    this.dialog
+      .open<SendForReviewDialog, SendForReviewData, VersionReviewDetail>(SendForReviewDialog, { data, width: '34rem', maxWidth: '94vw' })
+      .afterClosed()
+      .subscribe((answer) => {
+        if (answer) this.answered.set(answer);
+      });
   }
 
   protected giveVerdict(): void {
@@ -122,7 +107,7 @@ export class VersionReview {
     this.busy.set(true);
     this.api.giveVerdict(this.versionId(), { verdict, summary: this.summaryText() }).subscribe({
       next: (review) => {
-        this.done(review, `Verdict recorded: ${VERDICT_LABELS[verdict].toLowerCase()}`);
+        this.done(review, `Verdict recorded: ${VERDICT_WORDS[verdict].past}`);
         this.verdict.set(null);
         this.summaryText.set('');
       },

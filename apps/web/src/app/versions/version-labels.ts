@@ -1,8 +1,4 @@
-import type { VersionReview } from '@laminote/contracts';
+import { HISTORY_REVIEW_WORDS } from '../review/verdict-words';
 
-/** How a version's review state reads in the history. */
-export const REVIEW_LABELS: Record<VersionReview['state'], { readonly label: string; readonly icon: string }> = {
-  requested: { label: 'Review requested', icon: 'rate_review' },
-  approved: { label: 'Approved', icon: 'verified' },
-  changesRequested: { label: 'Changes requested', icon: 'report' },
-};
+/** How a version's review state reads in the history and on the version page. */
+export const REVIEW_LABELS = HISTORY_REVIEW_WORDS;
