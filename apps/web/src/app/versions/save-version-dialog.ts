@@ -4,6 +4,7 @@ import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angula
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
@@ -24,6 +25,14 @@ export interface SaveVersionData {
   readonly head: VersionRef | null;
   /** The notebook's draft session, when the dialog opens over the notebook: flushed before saving. */
   readonly session: DraftSession | null;
+  /** Whether the person may send versions for review: then the dialog offers to, right after saving. */
+  readonly mayRequestReview?: boolean;
+}
+
+/** The saved version, and whether the person asked to send it for review next. */
+export interface SavedVersion {
+  readonly version: VersionSummary;
+  readonly sendForReview: boolean;
 }
 
 function isSaveConflict(body: unknown): body is SaveConflict {
@@ -37,7 +46,7 @@ function isSaveConflict(body: unknown): body is SaveConflict {
  */
 @Component({
   selector: 'lam-save-version-dialog',
-  imports: [CellDiffList, DatePipe, MatButtonModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule, RouterLink],
+  imports: [CellDiffList, DatePipe, MatButtonModule, MatCheckboxModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule, RouterLink],
   templateUrl: './save-version-dialog.html',
   styleUrl: './save-version-dialog.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -45,11 +54,12 @@ function isSaveConflict(body: unknown): body is SaveConflict {
 export class SaveVersionDialog {
   private readonly api = inject(VersionApi);
   private readonly notifier = inject(Notifier);
-  private readonly dialogRef = inject<MatDialogRef<SaveVersionDialog, VersionSummary>>(MatDialogRef);
+  private readonly dialogRef = inject<MatDialogRef<SaveVersionDialog, SavedVersion>>(MatDialogRef);
   protected readonly data = inject<SaveVersionData>(MAT_DIALOG_DATA);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     message: ['', [Validators.required, Validators.maxLength(2000)]],
+    sendForReview: [false],
   });
   protected readonly saving = signal(false);
   /** The head the next save expects: the one shown, or the newer one after a conflict was seen. */
@@ -82,7 +92,7 @@ export class SaveVersionDialog {
         ...(session ? { draftRevision: session.revision() } : {}),
       })
       .subscribe({
-        next: (version) => this.dialogRef.close(version),
+        next: (version) => this.dialogRef.close({ version, sendForReview: this.form.getRawValue().sendForReview }),
         error: (error: unknown) => {
           this.saving.set(false);
           const body = (error as { error?: unknown }).error;

@@ -9,7 +9,9 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { Router } from '@angular/router';
 import type { ProjectAccess, SaveConflict } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { problemResponse, provideTestApp } from '../../testing/test-app';
+import { PROJECT_ID, problemResponse, provideTestApp, study } from '../../testing/test-app';
+import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
+import { MEMBERS, REVIEWER_ID } from '../review/testing/review-fixtures';
 import { DraftSession } from '../notebook/draft-session';
 import { cell, draft } from '../notebook/testing/notebook-fixtures';
 import { CellDiffListHarness } from './testing/version-harnesses';
@@ -176,5 +178,52 @@ describe('VersionBar', () => {
     await select.clickOptions({ text: /thin nose/ });
     await new Promise((r) => setTimeout(r, 0));
     expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID], { queryParams: { branch: VARIANT_ID } });
+  });
+
+  /** Answers the send-for-review dialog's look-up of the project's reviewers, then picks Lotte and sends. */
+  async function sendToLotte(root: ReturnType<typeof TestbedHarnessEnvironment.documentRootLoader>, versionId: string) {
+    for (const r of http.match(`/api/studies/${STUDY_ID}`)) r.flush(study({ id: STUDY_ID }));
+    for (const r of http.match(`/api/projects/${PROJECT_ID}/members`)) r.flush(MEMBERS);
+    const dialog = await root.getHarness(MatDialogHarness.with({ selector: '.mat-mdc-dialog-container:has(lam-send-for-review-dialog)' }));
+    const reviewers = await dialog.getHarness(MatSelectHarness);
+    await reviewers.open();
+    expect(await Promise.all((await reviewers.getOptions()).map((o) => o.getText()))).toEqual(['Lotte Brandvik']);
+    await reviewers.clickOptions({ text: 'Lotte Brandvik' });
+    await (await dialog.getHarness(MatInputHarness)).setValue('Cruise case, please check N_crit');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send for review' }))).click();
+    const sent = http.expectOne({ method: 'POST', url: `/api/versions/${versionId}/review-requests` });
+    expect(sent.request.body).toEqual({ reviewerIds: [REVIEWER_ID], message: 'Cruise case, please check N_crit' });
+    return { dialog, sent };
+  }
+
+  it('sends the head for review from the version bar', async () => {
+    const { fixture, loader, root } = await render(lead);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Send for review/ }))).click();
+    await fixture.whenStable();
+    const { sent } = await sendToLotte(root, V2_ID);
+    sent.flush({ summary: { versionId: V2_ID }, requests: [], verdicts: [], canRequest: true, canGiveVerdict: false });
+    await fixture.whenStable();
+    expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
+  });
+
+  it('offers to send a version for review as it is saved, and does so once it is', async () => {
+    const { fixture, loader, root } = await render(lead);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Save version/ }))).click();
+    const save = await root.getHarness(MatDialogHarness);
+    await (await save.getHarness(MatInputHarness)).setValue('Thinner nose, Re 8 million');
+    await (await save.getHarness(MatCheckboxHarness.with({ label: 'Send it for review once saved' }))).check();
+    await (await save.getHarness(MatButtonHarness.with({ text: 'Save version' }))).click();
+    http
+      .expectOne({ method: 'POST', url: `/api/branches/${MAIN_ID}/versions` })
+      .flush(summary({ id: V3_ID, number: 3, message: 'Thinner nose, Re 8 million', parentVersionId: V2_ID }), { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    const { dialog, sent } = await sendToLotte(root, V3_ID);
+    expect(await dialog.getTitleText()).toBe('Send version 3 of main for review');
+    sent.flush({ summary: { versionId: V3_ID }, requests: [], verdicts: [], canRequest: true, canGiveVerdict: false });
+  });
+
+  it('offers a viewer no way to send for review', async () => {
+    const { loader } = await render(viewer);
+    expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Send for review/ }))).toHaveLength(0);
   });
 });

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -14,9 +14,10 @@ import { NotebookApi } from '../notebook/notebook-api';
 import { DraftSession } from '../notebook/draft-session';
 import { BranchDialog, type BranchDialogData, type VersionRef } from './branch-dialog';
 import { type HistoryChoice, HistoryDrawer, type HistoryDrawerData } from './history-drawer';
-import { SaveVersionDialog, type SaveVersionData } from './save-version-dialog';
+import { SaveVersionDialog, type SaveVersionData, type SavedVersion } from './save-version-dialog';
 import { VersionApi } from './version-api';
 import { StudyReviewState } from '../review/study-review-state';
+import { SendForReviewDialog, type SendForReviewData } from '../review/send-for-review-dialog';
 
 /**
  * The notebook header's version bar: which branch this is (and a switch to the others), its head
@@ -60,12 +61,15 @@ export class VersionBar {
   protected readonly headNumberOf = (b: Branch) => this.heads().get(b.id)?.number ?? null;
 
   private readonly writable = computed(() => !this.studyArchived() && !this.branch()?.archived);
-  private may(action: 'saveVersion' | 'branch'): boolean {
+  private may(action: 'saveVersion' | 'branch' | 'requestReview'): boolean {
     const access = this.access();
     return access !== null && can(access, action);
   }
   protected readonly maySave = computed(() => this.writable() && this.may('saveVersion'));
   protected readonly mayBranch = computed(() => !this.studyArchived() && this.may('branch'));
+  protected readonly mayRequestReview = computed(() => this.may('requestReview'));
+  /** Counts the reviews sent from here, so the head's review state is asked again. */
+  protected readonly reviewsSent = signal(0);
 
   private headRef(): VersionRef | null {
     const head = this.head();
@@ -82,14 +86,38 @@ export class VersionBar {
   protected saveVersion(): void {
     const branch = this.branch();
     if (!branch) return;
-    const data: SaveVersionData = { studyId: this.studyId(), branchId: branch.id, branchName: branch.name, head: this.headRef(), session: this.session };
+    const data: SaveVersionData = {
+      studyId: this.studyId(),
+      branchId: branch.id,
+      branchName: branch.name,
+      head: this.headRef(),
+      session: this.session,
+      mayRequestReview: this.mayRequestReview(),
+    };
     this.dialog
-      .open<SaveVersionDialog, SaveVersionData, VersionSummary>(SaveVersionDialog, { data, width: '44rem', maxWidth: '94vw' })
+      .open<SaveVersionDialog, SaveVersionData, SavedVersion>(SaveVersionDialog, { data, width: '44rem', maxWidth: '94vw' })
       .afterClosed()
-      .subscribe((version) => {
-        if (!version) return;
+      .subscribe((saved) => {
+        if (!saved) return;
+        const { version } = saved;
         this.heads.update((heads) => new Map(heads).set(version.branchId, { id: version.id, number: version.number }));
         this.notifier.done(`Saved version ${version.number} of ${version.branchName}.`);
+        if (saved.sendForReview) this.sendForReview({ id: version.id, number: version.number, branchName: version.branchName });
+      });
+  }
+
+  protected sendHeadForReview(): void {
+    const head = this.headRef();
+    if (head) this.sendForReview(head);
+  }
+
+  private sendForReview(version: VersionRef): void {
+    const data: SendForReviewData = { studyId: this.studyId(), versionId: version.id, versionNumber: version.number, branchName: version.branchName };
+    this.dialog
+      .open<SendForReviewDialog, SendForReviewData, unknown>(SendForReviewDialog, { data, width: '34rem', maxWidth: '94vw' })
+      .afterClosed()
+      .subscribe((review) => {
+        if (review) this.reviewsSent.update((n) => n + 1);
       });
   }
 
