@@ -21,6 +21,9 @@ import { versionsRouter } from './versions/routes';
 import { reviewRouter } from './review/routes';
 import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
+import { reportsRouter } from './reports/routes';
+import { bearerAuth } from './tokens/bearer';
+import { tokensRouter } from './tokens/routes';
 
 export interface AppDeps {
   config: Config;

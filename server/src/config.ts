@@ -27,6 +27,8 @@ const configSchema = z
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
     /** Engine worker threads; 0 picks from the number of cores. */
     ENGINE_THREADS: z.coerce.number().int().min(0).max(64).default(0),
+    /** Requests a minute that one personal API token may make. */
+    API_TOKEN_RATE_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(300),
   })
   .transform((env) => ({ ...env, PUBLIC_URL: (env.PUBLIC_URL ?? `http://${env.HOST}:${env.PORT}`).replace(/\/$/, '') }))
   .superRefine((env, ctx) => {

@@ -8,5 +8,6 @@ export * from './versions';
 export * from './review';
 export * from './study-document';
 export * from './methods';
+export * from './tokens';
 export * from './section';
 export * from './text';
