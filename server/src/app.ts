@@ -95,6 +95,8 @@ export function createApp(deps: AppDeps): Express {
   app.use(express.json({ limit: '2mb' }));
   app.use(sessionMiddleware(config, database.pool));
   app.use(loadUser(db));
+  // A personal API token (Authorization: Bearer) stands in for the session on /api.
+  app.use('/api', ...bearerAuth({ db, logger, perMinute: config.API_TOKEN_RATE_PER_MINUTE }));
   // Anonymous calls answer 401 before anything else is looked at; then anti-forgery.
   app.use('/api', requireUser, csrfProtection());
   app.use('/auth/logout', csrfProtection());
@@ -112,6 +114,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(devMailRouter({ config }));
   api.use(methodsRouter());
   api.use(reportsRouter({ db }));
+  api.use(tokensRouter({ db }));
   api.use(notFoundHandler);
   app.use('/api', api);
 
