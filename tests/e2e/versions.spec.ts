@@ -1,4 +1,5 @@
 import { analyzeCase, inventedDemoSections } from '@laminote/aero';
+import { locatedCriterion } from '@laminote/contracts';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
@@ -124,7 +125,7 @@ describe('versions, branches and comparison', () => {
     const direct = (chord: number) => {
       const r = analyzeCase({ flow: { altitude_m: section.flow.altitude_m, mach: section.flow.mach, referenceLength_m: chord, nCrit: 9 }, pressureTable: section.pressureTable, sweepDeg: 18 });
       const surface = r.surfaces.find((s) => s.name === 'upper')!;
-      const at = surface.transition.criteria.eN!.s;
+      const at = locatedCriterion(surface.transition.criteria.eN)!.s;
       const { s, x } = surface.stations;
       const k = s.findIndex((v) => v >= at);
       return x![k - 1]! + ((at - s[k - 1]!) / (s[k]! - s[k - 1]!)) * (x![k]! - x![k - 1]!);

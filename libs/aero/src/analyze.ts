@@ -169,7 +169,7 @@ export function analyzeCase(input: unknown): EngineResult {
 
   return {
     engineVersion: ENGINE_VERSION,
-    flow: { reynolds: flow.reynolds, mach: flow.mach, nCrit, nCritFrom, sweepDeg: engineCase.sweepDeg, compressibleLaminar, ...(compressibleLaminar ? { temperature_K } : {}) },
+    flow: { reynolds: flow.reynolds, mach: flow.mach, nCrit, nCritFrom, sweepDeg: engineCase.sweepDeg, compressibleLaminar, ...(compressibleLaminar ? { temperature_K } : {}), ...(sweep !== 0 ? { crossflowCritical: OWEN_RANDALL_CRITICAL } : {}) },
     surfaces: results,
     ...(inviscid ? { inviscid } : {}),
     cd,
@@ -253,7 +253,7 @@ function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number],
     for (let i = 0; i < n; i++) {
       const cp = surface.cp[i];
       if (cp > cp0 + STAGNATION_CP_TOLERANCE) {
-        throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is above the ${where} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${round((sweep * 180) / Math.PI)}° sweep`}`);
+        throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is above the ${where} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${round((sweep * 180) / Math.PI)}° sweep (Cp is taken on the free stream of a wing at this sweep)`}`);
       }
       const u = cp >= cp0 ? 0 : chordwiseVelocityRatio(cp, mach, sweep);
       if (Number.isNaN(u)) throw new CaseError(`${prefix}.cp[${i}]`, `Cp ${cp} is below the vacuum limit at mach ${mach}`);
@@ -322,7 +322,7 @@ function surfacesFromTable(text: string, mach: number, sweep: number, warnings: 
     x[i] = row.x;
     if (y !== null) y[i] = row.y!;
     if (row.cp > cp0 + STAGNATION_CP_TOLERANCE) {
-      throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is above the ${where} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${round((sweep * 180) / Math.PI)}° sweep`}`);
+      throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is above the ${where} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${round((sweep * 180) / Math.PI)}° sweep (Cp is taken on the free stream of a wing at this sweep)`}`);
     }
     const u = row.cp >= cp0 ? 0 : chordwiseVelocityRatio(row.cp, mach, sweep);
     if (Number.isNaN(u)) throw new CaseError(`pressureTable line ${row.line}`, `Cp ${row.cp} is below the vacuum limit at mach ${mach}`);

@@ -24,5 +24,6 @@ export function chordwiseVelocityRatio(cp: number, mach: number, sweep: number):
   if (sweep === 0) return q;
   const spanwise = Math.sin(sweep);
   const u2 = q * q - spanwise * spanwise;
-  return u2 >= 0 ? Math.sqrt(u2) : NaN;
+  // Round-off at the attachment line may leave u2 a hair below zero.
+  return u2 >= 0 ? Math.sqrt(u2) : u2 > -1e-12 ? 0 : NaN;
 }

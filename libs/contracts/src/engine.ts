@@ -300,6 +300,8 @@ export const engineResultSchema = z.object({
     compressibleLaminar: z.boolean().optional(),
     /** Free-stream static temperature taken for Sutherland's law in the compressible layer. */
     temperature_K: z.number().optional(),
+    /** Critical Owen–Randall crossflow Reynolds number the crossflow criterion used (swept sections). */
+    crossflowCritical: z.number().optional(),
   }),
   surfaces: z.array(surfaceResultSchema),
   /** The panel method's solution, when the case gave a section or a body. */

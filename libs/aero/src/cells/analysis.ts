@@ -39,7 +39,7 @@ export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInp
   const cp0 = attachmentLinePressureCoefficient(mach, sweep);
   const speedOf = (row: PressureTableRow) => {
     if (row.cp > cp0 + 1e-6) {
-      fail('text', `line ${row.line}: Cp ${row.cp} is above the ${sweep === 0 ? 'stagnation' : 'attachment-line'} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${flow.sweepDeg}° sweep`}`, row.line);
+      fail('text', `line ${row.line}: Cp ${row.cp} is above the ${sweep === 0 ? 'stagnation' : 'attachment-line'} value ${cp0.toFixed(4)} at mach ${mach}${sweep === 0 ? '' : ` and ${flow.sweepDeg}° sweep (Cp is taken on the free stream of a wing at this sweep)`}`, row.line);
     }
     return row.cp >= cp0 ? 0 : chordwiseVelocityRatio(row.cp, mach, sweep);
   };
