@@ -149,7 +149,7 @@ async function main(): Promise<void> {
     await waitForPort(HOST, port, 60_000, service.current().child);
   };
   await launch('identity', 'oidc-fake/src/main.ts', OIDC_PORT);
-  if (existsSync(path.join(ROOT, 'server/src/mail/sink-main.ts'))) await launch('smtp-sink', 'server/src/mail/sink-main.ts', SMTP_PORT);
+  await launch('smtp-sink', 'server/src/mail/sink-main.ts', SMTP_PORT);
   await launch('server', 'server/src/main.ts', PORT);
 
   const width = Math.max(...DEMO_USERS.map((u) => u.name.length));

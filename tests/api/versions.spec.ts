@@ -347,7 +347,7 @@ describe('compare', () => {
     expect(cmp.summary).toEqual({ added: 1, removed: 1, changed: 3, moved: 1, unchanged: 0 });
 
     const flowDiff = byId.get(f)!;
-    expect(flowDiff.fields).toEqual([expect.objectContaining({ path: 'reynolds', old: 6e6, new: 9e6, oldText: '6e6', newText: '9e6', relative: 0.5 })]);
+    expect(flowDiff.fields).toEqual([expect.objectContaining({ path: 'reynolds', old: 6e6, new: 9e6, oldText: '6 × 10⁶', newText: '9 × 10⁶', relative: 0.5 })]);
 
     // The table difference is numbers: exact arithmetic on the rows written above.
     const table = byId.get(p)!.table!;

@@ -7,6 +7,7 @@ export * from './notebook';
 export * from './versions';
 export * from './review';
 export * from './study-document';
+export * from './values';
 export * from './methods';
 export * from './tokens';
 export * from './section';

@@ -62,12 +62,15 @@ export const draftCellSchema = draftCellInputSchema.extend({
 });
 export type DraftCell = z.infer<typeof draftCellSchema>;
 
+/** How many deleted cells a draft keeps to bring back ("Recently removed"), newest first. */
+export const TRASH_LIMIT = 30;
+
 export const draftSchema = z.object({
   branchId: z.string().uuid(),
   studyId: z.string().uuid(),
   revision: z.number().int(),
   cells: z.array(draftCellSchema),
-  /** Recently deleted cells, newest first (the last 30); saving one back into `cells` restores it with its outputs. */
+  /** Recently deleted cells, newest first (the last TRASH_LIMIT); saving one back into `cells` restores it with its outputs. */
   trash: z.array(draftCellInputSchema.extend({ deletedAt: z.string(), deletedBy: z.string().nullable(), deletedByName: z.string().nullable().optional() })),
   basedOnVersionId: z.string().uuid().nullable(),
   updatedAt: z.string(),

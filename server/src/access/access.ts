@@ -1,11 +1,9 @@
 import { and, eq } from 'drizzle-orm';
-import { can, DEFAULT_PROJECT_SETTINGS, type ProjectAccess, type ProjectAction } from '@laminote/contracts';
+import { can, DEFAULT_PROJECT_SETTINGS, type ProjectAccess, type ProjectAction, isUuid } from '@laminote/contracts';
 import type { Tx } from '../db/client';
 import { memberships, projects, studies } from '../db/schema';
 import type { SessionUser } from '../auth/types';
 import { forbidden, notFound } from '../http/problem';
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export interface ProjectContext {
   projectId: string;
@@ -31,7 +29,7 @@ const ACTION_WORDS: Record<ProjectAction, string> = {
  * it answers 404, exactly as a project that does not exist. Site admins see every project.
  */
 export async function projectAccess(tx: Tx, user: SessionUser, projectId: string): Promise<ProjectContext> {
-  if (!UUID.test(projectId)) throw notFound('project');
+  if (!isUuid(projectId)) throw notFound('project');
   const [row] = await tx
     .select({ id: projects.id, settings: projects.settings, role: memberships.role })
     .from(projects)
@@ -42,7 +40,7 @@ export async function projectAccess(tx: Tx, user: SessionUser, projectId: string
 }
 
 export async function studyAccess(tx: Tx, user: SessionUser, studyId: string) {
-  if (!UUID.test(studyId)) throw notFound('study');
+  if (!isUuid(studyId)) throw notFound('study');
   const [row] = await tx.select().from(studies).where(eq(studies.id, studyId));
   if (!row) throw notFound('study');
   const context = await projectAccess(tx, user, row.projectId).catch(() => {

@@ -3,6 +3,7 @@ import { ENGINE_VERSION, upstreamFailedError } from '@laminote/aero';
 import {
   CELL_KIND_LABELS,
   RUN_RANK,
+  TRASH_LIMIT,
   type CellKind,
   type CellOutput,
   type CellRunReport,
@@ -26,9 +27,6 @@ import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from
 
 /** The places in a run, first to last: the cells of one place run together, after those before it. */
 const RUN_RANKS = [...new Set(Object.values(RUN_RANK))].sort((a, b) => a - b);
-
-/** Deleted cells kept in a draft's trash, newest first. */
-export const TRASH_LIMIT = 30;
 
 type DraftRow = typeof drafts.$inferSelect;
 type TrashEntry = DraftRow['trash'][number] & { lastGoodOutputKey?: string | null };

@@ -1,4 +1,5 @@
 import { Router, type Request, type Response } from 'express';
+import { isUuid } from '@laminote/contracts';
 import { studyAccess } from '../access/access';
 import type { Db } from '../db/client';
 import { notFound } from '../http/problem';
@@ -7,8 +8,6 @@ import { versionReview, versionStudy } from '../review/verdicts';
 import { buildVersionReport, reportFileName, type VersionReportModel } from './model';
 import { renderReportHtml } from './html';
 import { renderReportPdf } from './pdf';
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /**
  * A saved version as a report to send on: GET /api/versions/:versionId/report.html (one
@@ -19,7 +18,7 @@ export function reportsRouter({ db }: { db: Db }): Router {
   const router = Router();
 
   async function model(req: Request, versionId: string): Promise<VersionReportModel> {
-    if (!UUID.test(versionId)) throw notFound('version');
+    if (!isUuid(versionId)) throw notFound('version');
     const found = await versionStudy(db, versionId);
     if (!found) throw notFound('version');
     const context = await studyAccess(db, req.user!, found.studyId).catch(() => {

@@ -8,6 +8,7 @@ import {
   requestReviewSchema,
   threadQuerySchema,
   updateNotificationPrefsSchema,
+  isUuid,
 } from '@laminote/contracts';
 import { requireAction, studyAccess } from '../access/access';
 import type { Config } from '../config';
@@ -17,8 +18,6 @@ import * as inbox from './inbox';
 import * as threads from './threads';
 import * as review from './verdicts';
 import { resolveView } from './views';
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /**
  * Review routes: threads and comments on cells, review requests and verdicts on versions, the inbox
@@ -38,7 +37,7 @@ export function reviewRouter({ db, config }: { db: Db; config: Pick<Config, 'PUB
 
   /** The study of a thread, comment or version, as 404 when it does not exist or is not the caller's. */
   async function owning(tx: Tx, req: Request, what: 'thread' | 'comment' | 'version', id: string) {
-    if (!UUID.test(id)) throw notFound(what);
+    if (!isUuid(id)) throw notFound(what);
     const found = what === 'thread' ? await threads.threadStudy(tx, id) : what === 'comment' ? await threads.commentStudy(tx, id) : await review.versionStudy(tx, id);
     if (!found) throw notFound(what);
     return study(tx, req, found.studyId).catch(() => {
@@ -162,7 +161,7 @@ export function reviewRouter({ db, config }: { db: Db; config: Pick<Config, 'PUB
   });
 
   router.post('/inbox/:notificationId/read', async (req, res) => {
-    if (!UUID.test(req.params.notificationId)) throw notFound('inbox entry');
+    if (!isUuid(req.params.notificationId)) throw notFound('inbox entry');
     await inbox.markRead(db, req.user!, req.params.notificationId);
     res.json({ unreadCount: await inbox.unreadCount(db, req.user!) });
   });

@@ -1,4 +1,4 @@
-import { CELL_INPUT_SCHEMAS, CELL_REFERENCE_FIELDS, fieldLabel, orderedFields, valueLabel, type CellDiff, type CellKind, type FieldChange, type TextDiff } from '@laminote/contracts';
+import { CELL_INPUT_SCHEMAS, CELL_REFERENCE_FIELDS, fieldLabel, orderedFields, sameJson, sci, valueLabel, type CellDiff, type CellKind, type FieldChange, type TextDiff } from '@laminote/contracts';
 import { diffPressureTables, tableRowCount, type TableInputs } from './table-diff';
 
 /** A cell as a version (or a draft) holds it, enough to compare. */
@@ -21,30 +21,9 @@ function normalised(kind: CellKind, inputs: Record<string, unknown>): Record<str
   return parsed?.success ? (parsed.data as Record<string, unknown>) : inputs;
 }
 
-function sameJson(a: Json, b: Json): boolean {
-  if (Object.is(a, b)) return true;
-  if (Array.isArray(a) && Array.isArray(b)) return a.length === b.length && a.every((v, i) => sameJson(v, b[i]));
-  if (isPlainObject(a) && isPlainObject(b)) {
-    const keys = new Set([...Object.keys(a), ...Object.keys(b)]);
-    for (const k of keys) if (!sameJson(a[k], b[k])) return false;
-    return true;
-  }
-  return false;
-}
-
-/** A number as an engineer reads it: 6e6, 0.72, 9. */
-export function formatNumber(v: number): string {
-  if (!Number.isFinite(v)) return String(v);
-  if (v !== 0 && (Math.abs(v) >= 1e5 || Math.abs(v) < 1e-3)) {
-    const [mantissa, exponent] = v.toExponential(4).split('e');
-    return `${String(Number(mantissa))}e${Number(exponent)}`;
-  }
-  return String(Number(v.toPrecision(6)));
-}
-
 function display(value: Json, titles: Map<string, string>, reference: boolean, field: string): string {
   if (value === undefined || value === null) return '—';
-  if (typeof value === 'number') return formatNumber(value);
+  if (typeof value === 'number') return sci(value, 6, true);
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (typeof value === 'string') {
     if (reference) return titles.get(value) ?? `a cell no longer in the study (${value.slice(0, 8)})`;

@@ -1,4 +1,4 @@
-import { pressureCoefficientFromVelocity } from '@laminote/aero';
+import { pressureCoefficientFromVelocity, xAtArc } from '@laminote/aero';
 import {
   engineResultSchema,
   type AnalysisComparison,
@@ -38,17 +38,8 @@ export function sideOf(present: boolean, output: StoredOutput | null): Side {
   if (!present) return { state: 'absent' };
   if (!output) return { state: 'notRun' };
   if (output.status === 'error') return { state: 'error', message: output.error?.message ?? 'the run failed' };
-  const parsed = engineResultSchema.safeParse(analysisResultOf(output.result));
+  const parsed = engineResultSchema.safeParse(output.result);
   return parsed.success ? { state: 'ok', result: parsed.data } : { state: 'error', message: 'the stored output is not an analysis result' };
-}
-
-/** The engine result inside a stored analysis output (the notebook may wrap it with metadata). */
-function analysisResultOf(result: unknown): unknown {
-  if (result && typeof result === 'object' && !Array.isArray(result)) {
-    const r = result as Record<string, unknown>;
-    if (!('surfaces' in r)) for (const k of ['engine', 'analysis', 'result']) if (r[k] && typeof r[k] === 'object') return r[k];
-  }
-  return result;
 }
 
 function effectOf(delta: number | null, tolerance: number, goodWhen: 'up' | 'down' | 'neither'): Effect {
@@ -63,26 +54,11 @@ function delta(a: number | null | undefined, b: number | null | undefined, toler
   return { a: x, b: y, delta: d, effect: effectOf(d, tolerance, goodWhen) };
 }
 
-/** Linear interpolation of x at arc length s along the stations. */
-function xAt(surface: EngineSurfaceResult, s: number): number | null {
-  const ss = surface.stations.s;
-  const xs = surface.stations.x;
-  if (!xs || xs.length !== ss.length || ss.length === 0) return null;
-  if (s <= ss[0]!) return xs[0]!;
-  for (let i = 1; i < ss.length; i++) {
-    if (s <= ss[i]!) {
-      const t = (s - ss[i - 1]!) / (ss[i]! - ss[i - 1]!);
-      return xs[i - 1]! + t * (xs[i]! - xs[i - 1]!);
-    }
-  }
-  return xs[xs.length - 1]!;
-}
-
 type Coordinate = 'x' | 's';
 
 function locate(surface: EngineSurfaceResult | undefined, s: number | null | undefined, coordinate: Coordinate): number | null {
   if (!surface || s === null || s === undefined) return null;
-  return coordinate === 'x' ? xAt(surface, s) : s;
+  return coordinate === 'x' ? xAtArc(surface.stations.s, surface.stations.x, s) : s;
 }
 
 /**

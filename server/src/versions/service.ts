@@ -2,6 +2,7 @@ import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import {
   can,
   CELL_KINDS,
+  TRASH_LIMIT,
   type ProjectAccess,
   cellKindSchema,
   type BranchOverview,
@@ -390,9 +391,6 @@ export async function saveVersion(tx: Tx, actor: SessionUser, place: Place, bran
 function snapshotToDraftCell(c: VersionCell): DraftCell {
   return { cellId: c.cellId, kind: c.kind, title: c.title, collapsed: c.collapsed, inputs: c.inputs, lastOutputKey: c.outputKey };
 }
-
-/** Trash holds the newest 30 deleted cells, as the notebook keeps it. */
-const TRASH_LIMIT = 30;
 
 /**
  * Put a version's cells into the draft as a normal draft change: the revision goes up, a stale base

@@ -1,8 +1,7 @@
 import { DestroyRef, type Signal, computed, effect, inject, untracked } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import type { FormGroup } from '@angular/forms';
-import { CELL_INPUT_SCHEMAS, type DraftCell } from '@laminote/contracts';
-import { sameJson } from './draft-diff';
+import { CELL_INPUT_SCHEMAS, sameJson, type DraftCell } from '@laminote/contracts';
 import { DraftSession } from './draft-session';
 
 const PLAIN_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;

@@ -1,4 +1,4 @@
-import type { CellKind, DraftCellInput } from '@laminote/contracts';
+import { sameJson, type CellKind, type DraftCellInput } from '@laminote/contracts';
 
 /** The parts of a cell that a save carries. */
 export interface SavedCell {
@@ -11,22 +11,6 @@ export interface SavedCell {
 
 export function toSavedCell(cell: DraftCellInput): SavedCell {
   return { cellId: cell.cellId, kind: cell.kind, title: cell.title ?? '', collapsed: cell.collapsed ?? false, inputs: cell.inputs };
-}
-
-/** Structural equality of JSON values, blind to key order (the server may store keys in another order). */
-export function sameJson(a: unknown, b: unknown): boolean {
-  if (a === b) return true;
-  if (typeof a !== typeof b || a === null || b === null || typeof a !== 'object') return false;
-  if (Array.isArray(a) !== Array.isArray(b)) return false;
-  if (Array.isArray(a)) {
-    const other = b as unknown[];
-    return a.length === other.length && a.every((item, i) => sameJson(item, other[i]));
-  }
-  const left = a as Record<string, unknown>;
-  const right = b as Record<string, unknown>;
-  const keys = new Set([...Object.keys(left), ...Object.keys(right)]);
-  for (const key of keys) if (!sameJson(left[key], right[key])) return false;
-  return true;
 }
 
 export type CellChangeKind = 'added' | 'removed' | 'edited' | 'moved';

@@ -1,7 +1,7 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { DestroyRef, Injectable, InjectionToken, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { type CellKind, type Draft, type DraftCell, type Problem, type RunResponse, draftSchema, referenceFields, upstreamCellIds } from '@laminote/contracts';
+import { type CellKind, type Draft, type DraftCell, type Problem, type RunResponse, draftSchema, referenceFields, sameJson, upstreamCellIds } from '@laminote/contracts';
 import {
   BehaviorSubject,
   EMPTY,
@@ -22,7 +22,7 @@ import {
 } from 'rxjs';
 import { toProblem } from '../core/problem';
 import { defaultInputs, cellKindInfo } from './cell-kinds';
-import { type CellChange, type SavedCell, diffStacks, sameJson, toSavedCell } from './draft-diff';
+import { type CellChange, type SavedCell, diffStacks, toSavedCell } from './draft-diff';
 import { NotebookApi } from './notebook-api';
 
 /** How long editing pauses before the draft is saved. */
