@@ -160,6 +160,7 @@ export class AnalysisCell {
     'surface',
     ...this.resultCriteria(),
     'governing',
+    'spread',
     'laminarSeparation',
     'turbulentSeparation',
     'laminarExtent',

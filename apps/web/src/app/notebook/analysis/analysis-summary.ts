@@ -1,5 +1,5 @@
 import { michelTransitionReTheta } from '@laminote/aero';
-import type { EngineResult, EngineSurfaceResult, TransitionCause, TransitionCriterion } from '@laminote/contracts';
+import type { CriterionMissingReason, EngineResult, EngineSurfaceResult, TransitionCause, TransitionCriterion } from '@laminote/contracts';
 import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from '../../shared/plot';
 
 export const CRITERION_LABELS: Record<TransitionCriterion, string> = {
@@ -17,6 +17,13 @@ export const CAUSE_LABELS: Record<TransitionCause, string> = {
   laminarSeparation: 'Laminar separation',
 };
 
+/** Why a criterion has no location, in the words of the summary table. */
+export const REASON_WORDS: Record<CriterionMissingReason, string> = {
+  notReached: 'not reached',
+  afterLaminarSeparation: 'separates first',
+  noSweep: 'no sweep',
+};
+
 /** A location along a surface, as x/c where the stations carry x, else as s/c from the attachment line. */
 export interface Location {
   readonly value: number;
@@ -27,6 +34,12 @@ export interface Location {
 export interface SurfaceSummary {
   readonly name: string;
   readonly criteria: Partial<Record<TransitionCriterion, Location | null>>;
+  /** Why a criterion has no location, in words (engines from 1.2.0 give a reason). */
+  readonly reasons: Partial<Record<TransitionCriterion, string>>;
+  /** The earliest and the latest location of the criteria that have one (null with fewer than two). */
+  readonly spread: { readonly from: Location; readonly to: Location } | null;
+  /** Where the laminar solution, marched on, would separate; `afterTransition` when past the governing transition. */
+  readonly wouldSeparate: { readonly at: Location; readonly afterTransition: boolean } | null;
   readonly governing: Location | null;
   readonly governingBy: string;
   readonly laminarSeparation: Location | null;
@@ -69,12 +82,27 @@ export function locate(surface: EngineSurfaceResult, s: number | null | undefine
 export function summarise(result: EngineResult, criteria: readonly TransitionCriterion[]): SurfaceSummary[] {
   return result.surfaces.map((surface) => {
     const byCriterion: Partial<Record<TransitionCriterion, Location | null>> = {};
-    for (const id of criteria) byCriterion[id] = locate(surface, surface.transition.criteria[id]?.s);
+    const reasons: Partial<Record<TransitionCriterion, string>> = {};
+    for (const id of criteria) {
+      const entry = surface.transition.criteria[id];
+      byCriterion[id] = locate(surface, entry?.s);
+      if (entry && entry.s === null) reasons[id] = REASON_WORDS[entry.reason];
+    }
+    const located = Object.values(byCriterion).filter((at): at is Location => at !== null);
+    const spread =
+      located.length >= 2
+        ? { from: located.reduce((a, b) => (b.value < a.value ? b : a)), to: located.reduce((a, b) => (b.value > a.value ? b : a)) }
+        : null;
     const governing = locate(surface, surface.transition.s);
+    const separationS = surface.transition.laminarSeparationS ?? surface.laminarSeparation?.s ?? null;
+    const separationAt = locate(surface, separationS);
     const end = surface.stations.s[surface.stations.s.length - 1];
     return {
       name: surface.name,
       criteria: byCriterion,
+      reasons,
+      spread,
+      wouldSeparate: separationAt && { at: separationAt, afterTransition: surface.transition.s !== null && separationS! > surface.transition.s },
       governing,
       governingBy: surface.transition.by ? CAUSE_LABELS[surface.transition.by] : 'none: laminar to the end',
       laminarSeparation: locate(surface, surface.laminarSeparation?.s),
@@ -125,7 +153,10 @@ function awayFromAttachment(result: EngineResult, pick: (surface: EngineSurfaceR
   return largest > 0 ? largest : 0.01;
 }
 
-/** The four plots of an analysis: N-factor envelope, shape factor, Re_θ with Michel's line, skin friction. */
+/**
+ * The plots of an analysis: N-factor envelope, on a swept section the crossflow Reynolds number against
+ * its critical value, shape factor, Re_θ with Michel's line, skin friction.
+ */
 export function analysisFigures(result: EngineResult): { id: string; label: string; figure: PlotFigure }[] {
   const x = { title: axisTitle(result) };
   const markers = transitionMarkers(result);
@@ -156,10 +187,25 @@ export function analysisFigures(result: EngineResult): { id: string; label: stri
     traces: stationTraces(result, (s) => s.stations.cf),
     markers,
   };
-  return [
+  const figures: { id: string; label: string; figure: PlotFigure }[] = [
     { id: 'n', label: 'N-factor envelope along the chord against N_crit', figure: nFigure },
     { id: 'h', label: 'Shape factor H along the chord', figure: hFigure },
     { id: 'retheta', label: 'Momentum-thickness Reynolds number along the chord with Michel’s transition line', figure: reThetaFigure },
     { id: 'cf', label: 'Skin-friction coefficient along the chord', figure: cfFigure },
   ];
+  const swept = result.surfaces.some((surface) => surface.stations.reCf?.some((v) => v !== null && v > 0));
+  if (swept) {
+    const critical = result.flow.crossflowCritical;
+    figures.splice(1, 0, {
+      id: 'crossflow',
+      label: 'Crossflow Reynolds number along the chord against its critical value',
+      figure: {
+        x,
+        y: { title: 'R_cf = w_max δ₁₀ / ν (crossflow)' },
+        traces: stationTraces(result, (s) => s.stations.reCf ?? []),
+        markers: critical === undefined ? markers : [...markers, { at: critical, axis: 'y', label: `R_cf critical = ${critical}`, color: '#ba1a1a', dash: 'dot' }],
+      },
+    });
+  }
+  return figures;
 }
