@@ -33,7 +33,9 @@ if (benches.length === 0) {
   process.exit(0);
 }
 const needsStack = benches.some((f) => !f.startsWith('libs/'));
-if (needsStack && !webBuildIsCurrent()) {
+// Only the browser benchmarks need the built app; the API ones run the server's own routes.
+const needsWeb = benches.some((f) => f.startsWith('apps/'));
+if (needsWeb && !webBuildIsCurrent()) {
   log('building the web app …');
   if (spawnSync(NG, ['build', 'web'], { cwd: ROOT, stdio: 'inherit' }).status !== 0) process.exit(1);
 }
