@@ -32,6 +32,30 @@ export const routes: Routes = [
     title: 'Study · Laminote',
   },
   {
+    path: 'methods/validation',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./methods/validation-page').then((m) => m.ValidationPage),
+    title: 'Validation · Laminote',
+  },
+  {
+    path: 'methods/:methodId',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./methods/methods-page').then((m) => m.MethodsPage),
+    title: 'Method · Laminote',
+  },
+  {
+    path: 'methods',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./methods/methods-page').then((m) => m.MethodsPage),
+    title: 'Methods · Laminote',
+  },
+  {
+    path: 'settings/tokens',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./settings/tokens-page').then((m) => m.TokensPage),
+    title: 'API tokens · Laminote',
+  },
+  {
     path: 'inbox',
     canActivate: [requireSignIn],
     loadComponent: () => import('./inbox/inbox-page').then((m) => m.InboxPage),

@@ -1,0 +1,120 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
+import { testEnv } from '../support/env';
+
+/**
+ * A version report taken in the browser (every cell, plots drawn), its PDF, and a personal API token
+ * made in settings, used by a script and revoked.
+ */
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+const problems: string[] = [];
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  page = await context.newPage();
+  collectPageProblems(page, problems);
+  await signInThroughProvider(page, 'lead');
+  await page.getByRole('heading', { name: 'Projects' }).waitFor();
+});
+afterAll(async () => browser?.close());
+
+/** The signed-in browser's own API session (its cookies and anti-forgery token), as the app uses it. */
+async function api(method: 'GET' | 'POST', path: string, body?: object) {
+  const xsrf = (await context.cookies()).find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
+  const res = await context.request.fetch(`${testEnv.appUrl}${path}`, { method, headers: { 'x-xsrf-token': xsrf, 'content-type': 'application/json' }, data: body ? JSON.stringify(body) : undefined });
+  return { status: res.status(), body: res.headers()['content-type']?.includes('json') ? await res.json() : await res.body() };
+}
+
+describe('a version report', () => {
+  let versionId: string;
+  let studyId: string;
+  let cellIds: string[];
+
+  it('is offered on a saved version of the demo study and shows every cell with its plots drawn', async () => {
+    const projects = (await api('GET', '/api/projects')).body as { id: string; name: string }[];
+    const project = projects.find((p) => /Larkspur T-62 wing/.test(p.name))!;
+    const studies = (await api('GET', `/api/projects/${project.id}/studies`)).body as { id: string; title: string }[];
+    studyId = studies.find((s) => /Outboard section, cruise/.test(s.title))!.id;
+    const branchId = ((await api('GET', `/api/studies/${studyId}/branches`)).body as { id: string }[])[0]!.id;
+    const run = await api('POST', `/api/branches/${branchId}/run`, {});
+    expect([200, 202]).toContain(run.status);
+    if (run.status === 202) {
+      await expect.poll(async () => ((await api('GET', `/api/jobs/${(run.body as { jobId: string }).jobId}`)).body as { state: string }).state, { timeout: 60_000 }).toBe('completed');
+    }
+    const history = (await api('GET', `/api/studies/${studyId}/versions`)).body as { branches: { id: string; headVersionId?: string | null }[]; versions: { id: string; branchId: string }[] };
+    const head = history.versions.find((v) => v.branchId === branchId)?.id ?? null;
+    const saved = await api('POST', `/api/branches/${branchId}/versions`, { message: 'Cruise as seeded, for the report (e2e)', expectedHeadVersionId: head });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(201);
+    versionId = (saved.body as { id: string }).id;
+    cellIds = ((await api('GET', `/api/versions/${versionId}`)).body as { cells: { cellId: string }[] }).cells.map((c) => c.cellId);
+
+    await page.goto(`${testEnv.appUrl}/studies/${studyId}/versions/${versionId}`);
+    const link = page.getByRole('link', { name: 'Report of this version (opens in a new tab)' });
+    await link.waitFor();
+    const [report] = await Promise.all([context.waitForEvent('page'), link.click()]);
+    collectPageProblems(report, problems, 'report');
+    await report.waitForLoadState('load');
+    await report.getByRole('heading', { level: 1 }).waitFor();
+    for (const id of cellIds) expect(await report.locator(`section.cell[data-cell-id="${id}"]`).count(), id).toBe(1);
+    const plots = report.locator('figure.plot svg');
+    expect(await plots.count()).toBe(6);
+    for (let i = 0; i < (await plots.count()); i++) {
+      const box = await plots.nth(i).boundingBox();
+      expect(box!.width).toBeGreaterThan(300);
+      expect(await plots.nth(i).locator('path').count()).toBeGreaterThan(0);
+    }
+    await report.screenshot({ path: '/tmp/laminote-e2e-report-top.png' });
+    await report.locator('section.cell[data-kind="analysis"]').scrollIntoViewIfNeeded();
+    await report.screenshot({ path: '/tmp/laminote-e2e-report-analysis.png' });
+    await report.screenshot({ path: '/tmp/laminote-e2e-report-full.png', fullPage: true });
+    await report.close();
+  });
+
+  it('comes as a PDF from the version page', async () => {
+    const pdf = await api('GET', `/api/versions/${versionId}/report.pdf`);
+    expect(pdf.status).toBe(200);
+    const bytes = pdf.body as Buffer;
+    expect(bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    const link = page.getByRole('link', { name: 'Report of this version as PDF' });
+    await expect(link.getAttribute('href')).resolves.toBe(`/api/versions/${versionId}/report.pdf?download=1`);
+  });
+});
+
+describe('personal API tokens', () => {
+  it('are made in settings, shown once, work as a bearer token, and stop when revoked', async () => {
+    await page.goto(`${testEnv.appUrl}/projects`);
+    await page.getByRole('button', { name: /Account/ }).click();
+    await page.getByRole('menuitem', { name: 'API tokens' }).click();
+    await page.getByRole('heading', { name: 'API tokens', level: 1 }).waitFor();
+    await page.getByLabel('What it is for').fill('e2e: tunnel rig upload');
+    await page.getByRole('radio', { name: 'Read and run' }).click();
+    await page.getByRole('button', { name: 'Make token' }).click();
+    const shown = page.locator('[data-token]');
+    await shown.waitFor();
+    const token = (await shown.textContent())!.trim();
+    expect(token).toMatch(/^lmn_/);
+    await page.screenshot({ path: '/tmp/laminote-e2e-tokens-made.png' });
+
+    // A script, with no cookie: Node's own fetch.
+    const asScript = (path: string) => fetch(`${testEnv.appUrl}${path}`, { headers: { authorization: `Bearer ${token}` } });
+    expect((await asScript('/api/projects')).status).toBe(200);
+
+    await page.reload();
+    const row = page.getByRole('row', { name: /e2e: tunnel rig upload/ });
+    await row.waitFor();
+    await expect(row.textContent()).resolves.toMatch(/Read and run.*Active/s);
+    expect(await page.locator('[data-token]').count()).toBe(0);
+    await row.getByRole('button', { name: /Revoke/ }).click();
+    await expect.poll(() => row.textContent()).toMatch(/Revoked/);
+    await page.screenshot({ path: '/tmp/laminote-e2e-tokens-revoked.png' });
+    expect((await asScript('/api/projects')).status).toBe(401);
+  });
+
+  it('met no script error and no content-security-policy violation', () => {
+    expect(problems).toEqual([]);
+  });
+});
