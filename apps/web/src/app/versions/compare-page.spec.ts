@@ -5,7 +5,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatTabGroupHarness } from '@angular/material/tabs/testing';
 import { Router } from '@angular/router';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { provideTestApp, study } from '../../testing/test-app';
+import { PROJECT_ID, project, provideTestApp, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
 import { ComparePage } from './compare-page';
 import { CellDiffListHarness, DeltaTableHarness } from './testing/version-harnesses';
@@ -31,6 +31,9 @@ describe('ComparePage', () => {
     fixture.detectChanges();
     http.expectOne(`/api/studies/${STUDY_ID}`).flush(study());
     http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history());
+    await fixture.whenStable();
+    // The breadcrumb's project name (not a member here: asked of the project).
+    http.expectOne(`/api/projects/${PROJECT_ID}`).flush(project());
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
   }
 
@@ -41,6 +44,8 @@ describe('ComparePage', () => {
     await fixture.whenStable();
 
     const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
+    const crumbs = (fixture.nativeElement as HTMLElement).querySelectorAll('nav.breadcrumb a');
+    expect(Array.from(crumbs).map((a) => a.textContent?.trim())).toEqual(['Projects', 'Larkspur T-62 wing', 'Cruise upper surface, M 0.78']);
     expect(text).toContain('main v1');
     expect(text).toContain('Reynolds number');
     expect(text).toMatch(/engineering estimates/);

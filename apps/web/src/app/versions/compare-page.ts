@@ -18,6 +18,7 @@ import { NotFound } from '../shared/not-found';
 import { Plot } from '../shared/plot';
 import { ProblemBanner } from '../shared/problem-banner';
 import { StudyApi } from '../shared/study-api';
+import { projectNameOf } from '../shared/study-place';
 import { CellDiffList } from './cell-diff-list';
 import { flowChanges, overlayFigures, sameResults, surfaceTable, versionLabel } from './compare-view';
 import { VersionApi } from './version-api';
@@ -71,6 +72,7 @@ export class ComparePage {
     ({ a, b }) => (a && b ? this.api.compare(a, b) : of(null)),
   );
   protected readonly study = computed(() => this.studyLoad.state().value ?? null);
+  protected readonly projectName = projectNameOf(() => this.study()?.projectId ?? null);
   protected readonly history = computed(() => this.historyLoad.state().value ?? null);
   protected readonly state = this.compareLoad.state;
   protected readonly comparison = computed((): Comparison | null => this.state().value ?? null);

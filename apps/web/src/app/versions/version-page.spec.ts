@@ -5,7 +5,7 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import type { EngineResult, VersionDetail } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { provideTestApp } from '../../testing/test-app';
+import { PROJECT_ID, project, provideTestApp, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
 import { ANALYSIS_CELL, FLOW_CELL, STUDY_ID, V1_ID, V2_ID, summary } from './testing/version-fixtures';
 import { VersionCellHarness } from './testing/version-harnesses';
@@ -43,7 +43,9 @@ function detail(): VersionDetail {
         kind: 'flow',
         title: 'Cruise flow',
         collapsed: false,
-        inputs: { nCrit: 9, mode: 'reynolds', reynolds: 8e6, mach: 0, turbulenceMode: 'nCrit' },
+        // Altitude, length and turbulence level were typed once and left aside: the flow is given by
+        // Re and N_crit, so only those show.
+        inputs: { nCrit: 9, mode: 'reynolds', reynolds: 8e6, mach: 0, turbulenceMode: 'nCrit', altitude_m: 11000, isaTemperatureOffset_K: 0, referenceLength_m: 2, turbulenceIntensity: 0.001 },
         revisionId: 'd1b2c3d4-0000-4000-8000-000000000001',
         contentHash: 'f'.repeat(64),
         outputKey: null,
@@ -87,7 +89,7 @@ describe('VersionPage', () => {
 
   afterEach(() => {
     // The review panel and comment threads on the page are the review part's to test.
-    http.match((r) => /\/(review|threads)$/.test(r.url) || r.url === `/api/studies/${STUDY_ID}`);
+    http.match((r) => /\/(review|threads|members)$/.test(r.url) || r.url === `/api/studies/${STUDY_ID}`);
     http.verify();
   });
 
@@ -102,6 +104,13 @@ describe('VersionPage', () => {
     const page = fixture.nativeElement as HTMLElement;
 
     expect(page.querySelector('h1')?.textContent).toMatch(/v2\s*Re 8 million/);
+    // The breadcrumb names the project and the study.
+    for (const r of http.match(`/api/studies/${STUDY_ID}`)) r.flush(study());
+    await fixture.whenStable();
+    http.expectOne(`/api/projects/${PROJECT_ID}`).flush(project());
+    await fixture.whenStable();
+    const crumbs = Array.from(page.querySelectorAll('nav.breadcrumb a, nav.breadcrumb span:not([aria-hidden])')).map((e) => e.textContent?.trim());
+    expect(crumbs).toEqual(['Projects', 'Larkspur T-62 wing', 'Cruise upper surface, M 0.78', 'main v2']);
     expect(page.textContent).toContain('A saved version, read-only.');
     // Nothing to type into: a version never changes.
     expect(await loader.getAllHarnesses(MatInputHarness)).toHaveLength(0);

@@ -7,6 +7,7 @@ import { DomSanitizer, type SafeHtml, Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
 import { engineResultSchema, FIELD_LABELS, CELL_REFERENCE_FIELDS, TRANSITION_CRITERIA, orderedFields, valueLabel, type VersionCell } from '@laminote/contracts';
 import { CRITERION_LABELS, analysisFigures, summarise } from '../notebook/analysis/analysis-summary';
+import { inactiveFields } from '../notebook/active-inputs';
 import { cellKindInfo } from '../notebook/cell-kinds';
 import { fixed, sci } from '../notebook/format';
 import { renderMarkdown } from '../notebook/note/note-cell';
@@ -14,6 +15,8 @@ import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { Plot } from '../shared/plot';
 import { ProblemBanner } from '../shared/problem-banner';
+import { StudyApi } from '../shared/study-api';
+import { projectNameOf } from '../shared/study-place';
 import { CellThreads } from '../review/cell-threads';
 import { CellThreadsButton } from '../review/cell-threads-button';
 import { VersionReview } from '../review/version-review';
@@ -37,8 +40,17 @@ function inputRows(cell: VersionCell, titles: Map<string, string>): { label: str
             : typeof value === 'object' && value !== null
               ? Object.entries(value as Record<string, unknown>).map(([k, v]) => `${k} ${shown(key, v)}`).join('; ') || '—'
               : valueLabel(key, String(value));
+  // Only what the cell used: not the inputs its choices leave aside (the altitude of a flow given by Re).
+  const unused = inactiveFields(cell.kind, cell.inputs);
   return orderedFields(cell.kind, Object.keys(cell.inputs))
-    .filter((key) => !(cell.kind === 'pressure' && key === 'text') && !(cell.kind === 'note' && key === 'markdown') && cell.inputs[key] !== null && cell.inputs[key] !== undefined)
+    .filter(
+      (key) =>
+        !unused.has(key) &&
+        !(cell.kind === 'pressure' && key === 'text') &&
+        !(cell.kind === 'note' && key === 'markdown') &&
+        cell.inputs[key] !== null &&
+        cell.inputs[key] !== undefined,
+    )
     .map((key) => ({ label: labels[key] ?? key, value: shown(key, cell.inputs[key]) }));
 }
 
@@ -63,6 +75,10 @@ export class VersionPage {
   readonly versionId = input.required<string>();
 
   private readonly load = loader(this.versionId, (id) => this.api.version(id));
+  private readonly studies = inject(StudyApi);
+  private readonly studyLoad = loader(this.studyId, (id) => this.studies.get(id));
+  protected readonly study = computed(() => this.studyLoad.state().value ?? null);
+  protected readonly projectName = projectNameOf(() => this.study()?.projectId ?? null);
   protected readonly state = this.load.state;
   protected readonly notFound = computed(() => this.state().problem?.status === 404);
   protected readonly reviewLabels = REVIEW_LABELS;
