@@ -21,7 +21,7 @@ import { hRexTransitionReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
 import { parsePressureTable } from './pressure-table';
 import { bodyAt, prepareSection, sectionAt, ShapeInputError } from './section-case';
-import { leastSquaresSlope } from './smoothing';
+import { automaticHalfWidth, estimateScatter, leastSquaresSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
 import { squireYoungDrag } from './squire-young';
 import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from './swept-wing';
@@ -63,7 +63,8 @@ export class CaseError extends Error {
 const DEFAULT_N_CRIT = 9;
 /** Cp may exceed the stagnation value by round-off in the input, not more. */
 const STAGNATION_CP_TOLERANCE = 1e-6;
-const SMOOTHING_HALF_WIDTH = 2;
+/** Half-width of the least-squares slope of a body radius (geometry, not measured scatter). */
+const RADIUS_SMOOTHING_HALF_WIDTH = 2;
 /** Free-stream temperature for Sutherland's law when the flow is given by Reynolds number: ISA sea level. */
 const DEFAULT_TEMPERATURE_K = 288.15;
 /** A Cp at the attachment-line (stagnation) value is accepted on the rear part of a surface only. */
@@ -89,6 +90,8 @@ interface SurfaceContext {
   temperature_K: number;
   nCrit: number;
   criteria: readonly TransitionCriterion[];
+  /** How Ue(s) is smoothed before it is differentiated. */
+  smoothing: EngineCase['smoothing'];
   /** The criteria whose earliest location governs. */
   governing: readonly TransitionCriterion[];
   turbulent: boolean;
@@ -145,7 +148,18 @@ export function analyzeCase(input: unknown): EngineResult {
           ? criteria.filter((c) => c === 'eN' || c === 'crossflow')
           : criteria;
   const temperature_K = flow.temperature_K ?? DEFAULT_TEMPERATURE_K;
-  const context: SurfaceContext = { reynolds: flow.reynolds, mach: flow.mach, sweep, temperature_K, nCrit, criteria, governing, turbulent: engineCase.turbulent, warnings };
+  const context: SurfaceContext = {
+    reynolds: flow.reynolds,
+    mach: flow.mach,
+    sweep,
+    temperature_K,
+    nCrit,
+    criteria,
+    governing,
+    turbulent: engineCase.turbulent,
+    smoothing: engineCase.smoothing,
+    warnings,
+  };
   const gradients: number[] = [];
   const results = surfaces.map((surface) => analyzeSurface(surface, context, gradients));
 
@@ -385,12 +399,16 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   const { reynolds, nCrit, criteria, warnings } = context;
   const n = s.length;
 
-  const dUeds = leastSquaresSlope(s, ue, new Float64Array(n), SMOOTHING_HALF_WIDTH);
+  const smoothing =
+    context.smoothing === 'auto'
+      ? automaticHalfWidth(s, ue)
+      : { halfWidth: context.smoothing === 'off' ? 1 : context.smoothing, scatter: estimateScatter(s, ue) };
+  const dUeds = leastSquaresSlope(s, ue, new Float64Array(n), smoothing.halfWidth);
   const stagnationStart = ue[0] === 0;
   if (stagnationStart && surface.stagnationGradient !== null) dUeds[0] = surface.stagnationGradient;
   if (stagnationStart && dUeds[0] > 0) gradients.push(dUeds[0]);
   let dRds: Float64Array | null = null;
-  if (radius !== null) dRds = leastSquaresSlope(s, radius, new Float64Array(n), SMOOTHING_HALF_WIDTH);
+  if (radius !== null) dRds = leastSquaresSlope(s, radius, new Float64Array(n), RADIUS_SMOOTHING_HALF_WIDTH);
 
   const theta = new Float64Array(n);
   const lambda = new Float64Array(n);
@@ -665,6 +683,7 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     turbulentSeparation,
     cd,
     cdFriction,
+    smoothing,
   };
 }
 

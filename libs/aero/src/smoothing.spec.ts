@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fitPolynomial, leastSquaresSlope } from './smoothing';
+import { automaticHalfWidth, estimateScatter, fitPolynomial, leastSquaresSlope, leastSquaresValue } from './smoothing';
 
 /** Deterministic pseudo-random numbers (Park–Miller), so the scatter is the same on every run. */
 function random(seed: number) {
@@ -43,5 +43,42 @@ describe('least-squares differentiation', () => {
     expect(c[1]).toBeCloseTo(-0.64, 10);
     expect(c[2]).toBeCloseTo(1.8, 10);
     expect(c[3]).toBeCloseTo(3, 10);
+  });
+
+  it('gives the smoothed value of the same fit, exact for a quadratic', () => {
+    const s = Array.from({ length: 30 }, (_, i) => (i / 29) ** 1.3);
+    const f = s.map((x) => 0.3 + 1.7 * x - 0.9 * x * x);
+    const value = leastSquaresValue(s, f, new Float64Array(s.length), 4);
+    s.forEach((_, i) => expect(value[i]).toBeCloseTo(f[i], 12));
+  });
+});
+
+describe('smoothing width from the estimated scatter', () => {
+  // Uniform scatter on [−a, a] has standard deviation a/√3 (exact, the uniform distribution).
+  const taps = (amplitude: number, seed: number) => {
+    const next = random(seed);
+    const s = Array.from({ length: 60 }, (_, i) => 0.02 + (i / 59) * 0.96);
+    return { s, ue: s.map((x) => 1 + 0.2 * Math.sin(3 * x) + amplitude * (2 * next() - 1)), exact: s.map((x) => 0.6 * Math.cos(3 * x)) };
+  };
+
+  it('estimates the scatter of tap data within 25 %', () => {
+    for (const [amplitude, seed] of [[0.002, 11], [0.01, 5], [0.004, 3]] as const) {
+      const { s, ue } = taps(amplitude, seed);
+      expect(estimateScatter(s, ue) / (amplitude / Math.sqrt(3))).toBeGreaterThan(0.75);
+      expect(estimateScatter(s, ue) / (amplitude / Math.sqrt(3))).toBeLessThan(1.25);
+    }
+  });
+
+  it('keeps the narrow window on clean data and widens it on scattered taps, where the slope improves', () => {
+    const { s, ue: clean } = taps(0, 1);
+    expect(automaticHalfWidth(s, clean.map((v) => Number(v.toFixed(5)))).halfWidth).toBe(2);
+    const { ue, exact } = taps(0.004, 11);
+    const auto = automaticHalfWidth(s, ue);
+    expect(auto.halfWidth).toBeGreaterThan(2);
+    const rms = (h: number) => {
+      const slope = leastSquaresSlope(s, ue, new Float64Array(s.length), h);
+      return Math.sqrt(exact.reduce((a, e, i) => a + (slope[i] - e) ** 2, 0) / s.length);
+    };
+    expect(rms(auto.halfWidth)).toBeLessThan(0.6 * rms(2));
   });
 });

@@ -79,3 +79,99 @@ export function fitPolynomial(t: ArrayLike<number>, f: ArrayLike<number>, degree
   for (let k = 0; k <= degree; k++) coefficients.push(solution.get(k, 0) / Math.pow(scale, k));
   return coefficients;
 }
+
+/**
+ * Smoothed value f̂(s_i) of the same local quadratic least-squares fit as `leastSquaresSlope` (its
+ * constant term a): the distribution whose slope the boundary layer is given. Writes into `out`.
+ */
+export function leastSquaresValue(s: ArrayLike<number>, f: ArrayLike<number>, out: Float64Array, halfWidth = 2): Float64Array {
+  const n = s.length;
+  const width = Math.min(n, 2 * halfWidth + 1);
+  if (width < 3) {
+    for (let i = 0; i < n; i++) out[i] = f[i];
+    return out;
+  }
+  for (let i = 0; i < n; i++) {
+    let lo = i - halfWidth;
+    if (lo < 0) lo = 0;
+    if (lo > n - width) lo = n - width;
+    const hi = lo + width - 1;
+    const scale = 0.5 * (s[hi] - s[lo]);
+    const si = s[i];
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+    for (let j = lo; j <= hi; j++) {
+      const t = (s[j] - si) / scale;
+      const tt = t * t;
+      const fj = f[j];
+      s0 += 1;
+      s1 += t;
+      s2 += tt;
+      s3 += tt * t;
+      s4 += tt * tt;
+      t0 += fj;
+      t1 += fj * t;
+      t2 += fj * tt;
+    }
+    const det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
+    const detA = t0 * (s2 * s4 - s3 * s3) - s1 * (t1 * s4 - s3 * t2) + s2 * (t1 * s3 - s2 * t2);
+    out[i] = detA / det;
+  }
+  return out;
+}
+
+/**
+ * Estimate of the scatter σ of f(s) about a smooth curve: each interior value's departure from the
+ * straight line through its neighbours, r_i = f_i − (w₋ f_{i−1} + w₊ f_{i+1}), has variance
+ * σ² (1 + w₋² + w₊²) for independent errors, so σ² is the mean of r_i² / (1 + w₋² + w₊²) (the
+ * difference-based variance estimator of J. Rice, Ann. Statist. 12 (1984) 1215–1230). Departures above
+ * three times the median one are left out, so that the curvature round a leading edge does not count
+ * as scatter (common practice).
+ */
+export function estimateScatter(s: ArrayLike<number>, f: ArrayLike<number>): number {
+  const n = s.length;
+  if (n < 3) return 0;
+  const r2 = new Float64Array(n - 2);
+  for (let i = 1; i < n - 1; i++) {
+    const span = s[i + 1] - s[i - 1];
+    const wMinus = (s[i + 1] - s[i]) / span;
+    const wPlus = (s[i] - s[i - 1]) / span;
+    const r = f[i] - wMinus * f[i - 1] - wPlus * f[i + 1];
+    r2[i - 1] = (r * r) / (1 + wMinus * wMinus + wPlus * wPlus);
+  }
+  const sorted = Float64Array.from(r2).sort();
+  const m = sorted.length;
+  const median = m % 2 ? sorted[(m - 1) >> 1] : 0.5 * (sorted[m / 2 - 1] + sorted[m / 2]);
+  let sum = 0;
+  let count = 0;
+  for (const v of r2) {
+    if (v <= 9 * median) {
+      sum += v;
+      count++;
+    }
+  }
+  return count > 0 ? Math.sqrt(sum / count) : 0;
+}
+
+/** The slope noise the automatic width aims at, in d(Ue/V∞)/d(s/L) (a few per cent of a roof-top gradient). */
+export const SMOOTHING_SLOPE_NOISE = 0.01;
+export const SMOOTHING_MIN_HALF_WIDTH = 2;
+export const SMOOTHING_MAX_HALF_WIDTH = 20;
+
+/**
+ * The half-width the automatic smoothing takes: the smallest h ≥ 2 for which the scatter σ reaches the
+ * least-squares slope as at most SMOOTHING_SLOPE_NOISE, with the slope's standard error
+ * σ / √(Σ t²) = σ / (Δs √(h (h + 1)(2h + 1)/3)) over 2h + 1 stations at the median spacing Δs (common
+ * practice for a symmetric least-squares window). Clean computed data keep h = 2.
+ */
+export function automaticHalfWidth(s: ArrayLike<number>, f: ArrayLike<number>): { halfWidth: number; scatter: number } {
+  const scatter = estimateScatter(s, f);
+  const n = s.length;
+  if (n < 3 || scatter === 0) return { halfWidth: SMOOTHING_MIN_HALF_WIDTH, scatter };
+  const steps = new Float64Array(n - 1);
+  for (let i = 1; i < n; i++) steps[i - 1] = s[i] - s[i - 1];
+  steps.sort();
+  const spacing = steps[(n - 1) >> 1];
+  let h = SMOOTHING_MIN_HALF_WIDTH;
+  while (h < SMOOTHING_MAX_HALF_WIDTH && 2 * h + 1 < n && scatter / (spacing * Math.sqrt((h * (h + 1) * (2 * h + 1)) / 3)) > SMOOTHING_SLOPE_NOISE) h++;
+  return { halfWidth: h, scatter };
+}

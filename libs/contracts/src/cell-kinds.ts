@@ -78,6 +78,8 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
       layout: 'Table layout',
       surfaceName: 'Surface name',
       hasRadius: 'Last column is body radius',
+      smoothing: 'Smoothing',
+      smoothingHalfWidth: 'Smoothing half-width (points each side)',
     },
     starter: { text: '' },
   },
@@ -224,6 +226,7 @@ export const VALUE_LABELS: Readonly<Record<string, Readonly<Record<string, strin
   mode: { altitude: 'altitude, Mach, length', reynolds: 'Reynolds number', dimensional: 'length, speed, viscosity', radius: 'leading-edge radius', gradient: 'velocity gradient' },
   turbulenceMode: { nCrit: 'N_crit', intensity: 'turbulence level' },
   layout: { closedLoop: 'closed loop', surface: 'one surface' },
+  smoothing: { off: 'off', auto: 'automatic', width: 'chosen width' },
   criteria: { eN: 'envelope eᴺ', crossflow: 'crossflow R_cf', crossflowC1: 'crossflow C1', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
   governing: {
     auto: 'earlier of eᴺ and crossflow',

@@ -57,6 +57,12 @@ export const pressureInputsSchema = z.object({
   surfaceName: z.string().max(60).default('upper'),
   /** Whether the last column is a body radius (axisymmetric bodies such as nacelles). */
   hasRadius: z.boolean().default(false),
+  /**
+   * Smoothing of Ue(s) before it is differentiated (local least-squares quadratic): `off`, `auto` (the
+   * width from the estimated scatter; absent means auto) or `width` (smoothingHalfWidth stations on each side).
+   */
+  smoothing: z.enum(['off', 'auto', 'width']).optional(),
+  smoothingHalfWidth: z.number().int('smoothingHalfWidth must be a whole number').min(1, 'smoothingHalfWidth must be at least 1').max(50, 'smoothingHalfWidth must be at most 50').optional(),
 }).superRefine((p, ctx) => {
   if (p.hasRadius && p.layout !== 'surface') ctx.addIssue({ code: 'custom', path: ['hasRadius'], message: 'a body radius is read only for a single surface (layout surface)' });
 });
@@ -237,6 +243,14 @@ export const pressureResultSchema = z.object({
       r: z.array(z.number()).nullable(),
       /** 1-based line of the table each point came from. */
       line: z.array(z.number().int()),
+      /**
+       * The smoothing the analysis differentiates Ue with, at M = 0: its half-width, the estimated
+       * scatter of Ue/V∞, Cp of the local least-squares fit, and dUe/ds of the fit beside the unsmoothed
+       * one (the parabola through each point and its neighbours), all at the points above.
+       */
+      smoothing: z
+        .object({ halfWidth: z.number().int(), scatter: z.number(), cp: z.array(z.number()), dUeds: z.array(z.number()), dUedsRaw: z.array(z.number()) })
+        .optional(),
     }),
   ),
   /**

@@ -181,6 +181,14 @@ export const engineCaseSchema = z
     leadingEdgeRadius: positive().optional(),
     /** March the turbulent boundary layer (Head) after transition; false stops at transition. */
     turbulent: z.boolean().default(true),
+    /**
+     * Smoothing of Ue(s) before it is differentiated (local least-squares quadratic over 2h + 1
+     * stations): `off` (h = 1, the parabola through each station and its neighbours), `auto` (h from the
+     * estimated scatter; 2 for clean computed data), or the half-width h itself.
+     */
+    smoothing: z
+      .union([z.enum(['off', 'auto']), z.number().int({ error: 'smoothing half-width must be a whole number' }).min(1, { error: 'smoothing half-width must be at least 1' }).max(50, { error: 'smoothing half-width must be at most 50' })])
+      .default('auto'),
   })
   .superRefine((engineCase, ctx) => {
     const hasSurfaces = engineCase.surfaces !== undefined && engineCase.surfaces.length > 0;
@@ -283,6 +291,8 @@ const surfaceResultSchema = z.object({
   cd: z.number().nullable(),
   /** Friction drag of this surface, ∫ τw ds / (½ ρ V∞² L). */
   cdFriction: z.number().nullable(),
+  /** The smoothing the slope dUe/ds was taken with: half-width h and the estimated scatter of Ue/V∞. */
+  smoothing: z.object({ halfWidth: z.number().int(), scatter: z.number() }).optional(),
 });
 
 export const ATTACHMENT_LINE_VERDICTS = ['laminar', 'contaminationRisk', 'unstable'] as const;

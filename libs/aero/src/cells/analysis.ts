@@ -28,6 +28,7 @@ export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInp
     ...(a.governing === 'auto' ? {} : { governing: a.governing }),
     turbulent: a.turbulent,
     sweepDeg: flow.sweepDeg,
+    smoothing: p.smoothing === 'off' ? ('off' as const) : p.smoothing === 'width' ? (p.smoothingHalfWidth ?? 2) : ('auto' as const),
   };
   const trips = Object.entries(a.trips);
   if (p.layout === 'closedLoop' && trips.length === 0 && !p.hasRadius) return { engineCase: { ...common, pressureTable: p.text }, xBySurface: null };

@@ -1,11 +1,14 @@
 import type { PressureInputs, PressureResult } from '@laminote/contracts';
+import { automaticHalfWidth, estimateScatter, leastSquaresSlope, leastSquaresValue } from '../smoothing';
 import { loopArcLength, splitAtStagnation } from '../stagnation';
+import { oneSurfaceWarnings } from '../surface-checks';
 import { fail, stagnationFailure } from './errors';
 import { readCellTable } from './table';
 
 /**
  * Pressure distribution: the table as read (pressure-table.ts) and, for a closed loop, split at the
- * stagnation point into upper and lower surfaces with their arc lengths (stagnation.ts).
+ * stagnation point into upper and lower surfaces with their arc lengths (stagnation.ts), with the
+ * smoothing the analysis will differentiate Ue with (smoothing.ts), shown at M = 0.
  */
 export function computePressure(p: PressureInputs): PressureResult {
   const table = readCellTable(p);
@@ -36,6 +39,7 @@ export function computePressure(p: PressureInputs): PressureResult {
       const keep = [...b.source.keys()].filter((j) => b.source[j]! >= 0);
       for (const j of keep) nameOfRow.set(b.source[j]!, name);
       return {
+        smoothing: smoothingView(p, b.s, b.ue, keep),
         name,
         x: keep.map((j) => b.x[j]!),
         y: b.y ? keep.map((j) => b.y![j]!) : null,
@@ -53,9 +57,14 @@ export function computePressure(p: PressureInputs): PressureResult {
     } catch (error) {
       stagnationFailure(error, rows);
     }
-    surfaces = [{ name: p.surfaceName, x, y, cp: rows.map((r) => r.cp), s: Array.from(s), r: table.radius, line: rows.map((r) => r.line) }];
+    const speed = Float64Array.from(rows, (r) => Math.sqrt(Math.max(0, 1 - r.cp)));
+    const all = rows.map((_, i) => i);
+    surfaces = [
+      { name: p.surfaceName, x, y, cp: rows.map((r) => r.cp), s: Array.from(s), r: table.radius, line: rows.map((r) => r.line), ...(rows.length >= 3 ? { smoothing: smoothingView(p, s, speed, all) } : {}) },
+    ];
     for (let i = 0; i < rows.length; i++) nameOfRow.set(i, p.surfaceName);
     if (rows.length < 3) fail('text', 'a surface needs at least 3 rows');
+    warnings.push(...oneSurfaceWarnings(rows));
   }
   const minRow = rows[cpMinIndex]!;
   return {
@@ -67,5 +76,27 @@ export function computePressure(p: PressureInputs): PressureResult {
     stagnation,
     cpMin: { x: minRow.x, cp: minRow.cp, surface: nameOfRow.get(cpMinIndex) ?? surfaces[0]!.name },
     warnings,
+  };
+}
+
+/**
+ * The cell's smoothing applied to the incompressible speed √(1 − Cp) along one surface: the half-width
+ * (chosen, or from the estimated scatter), the fit's Cp, and dUe/ds smoothed and unsmoothed (h = 1),
+ * at the stations `keep` (the table's points; a closed loop's split adds the stagnation point).
+ */
+function smoothingView(p: PressureInputs, s: Float64Array, ue: Float64Array, keep: number[]): NonNullable<PressureResult['surfaces'][number]['smoothing']> {
+  const n = s.length;
+  const chosen = p.smoothing ?? 'auto';
+  const { halfWidth, scatter } =
+    chosen === 'auto' ? automaticHalfWidth(s, ue) : { halfWidth: chosen === 'off' ? 1 : (p.smoothingHalfWidth ?? 2), scatter: estimateScatter(s, ue) };
+  const value = leastSquaresValue(s, ue, new Float64Array(n), halfWidth);
+  const slope = leastSquaresSlope(s, ue, new Float64Array(n), halfWidth);
+  const raw = leastSquaresSlope(s, ue, new Float64Array(n), 1);
+  return {
+    halfWidth,
+    scatter,
+    cp: keep.map((j) => 1 - value[j]! * value[j]!),
+    dUeds: keep.map((j) => slope[j]!),
+    dUedsRaw: keep.map((j) => raw[j]!),
   };
 }
