@@ -15,12 +15,27 @@ import { Matrix, solve } from 'ml-matrix';
  * each side (shifted inward at the ends). `s` must be strictly increasing. Writes into `out`.
  */
 export function leastSquaresSlope(s: ArrayLike<number>, f: ArrayLike<number>, out: Float64Array, halfWidth = 2): Float64Array {
+  localQuadraticFit(s, f, halfWidth, null, out);
+  return out;
+}
+
+/**
+ * Smoothed value f̂(s_i) of the same local quadratic least-squares fit as `leastSquaresSlope` (its
+ * constant term a): the distribution whose slope the boundary layer is given. Writes into `out`.
+ */
+export function leastSquaresValue(s: ArrayLike<number>, f: ArrayLike<number>, out: Float64Array, halfWidth = 2): Float64Array {
+  localQuadraticFit(s, f, halfWidth, out, null);
+  return out;
+}
+
+/** The local fit a + b t + c t² at every station: a into `value`, b into `slope` (either may be null). */
+function localQuadraticFit(s: ArrayLike<number>, f: ArrayLike<number>, halfWidth: number, value: Float64Array | null, slope: Float64Array | null): void {
   const n = s.length;
   const width = Math.min(n, 2 * halfWidth + 1);
   if (width < 3) {
-    const slope = n === 2 ? (f[1] - f[0]) / (s[1] - s[0]) : 0;
-    out.fill(slope, 0, n);
-    return out;
+    if (slope !== null) slope.fill(n === 2 ? (f[1] - f[0]) / (s[1] - s[0]) : 0, 0, n);
+    if (value !== null) for (let i = 0; i < n; i++) value[i] = f[i];
+    return;
   }
   for (let i = 0; i < n; i++) {
     let lo = i - halfWidth;
@@ -47,10 +62,9 @@ export function leastSquaresSlope(s: ArrayLike<number>, f: ArrayLike<number>, ou
       t2 += fj * tt;
     }
     const det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
-    const detB = s0 * (t1 * s4 - s3 * t2) - t0 * (s1 * s4 - s3 * s2) + s2 * (s1 * t2 - t1 * s2);
-    out[i] = detB / det / scale;
+    if (slope !== null) slope[i] = (s0 * (t1 * s4 - s3 * t2) - t0 * (s1 * s4 - s3 * s2) + s2 * (s1 * t2 - t1 * s2)) / det / scale;
+    if (value !== null) value[i] = (t0 * (s2 * s4 - s3 * s3) - s1 * (t1 * s4 - s3 * t2) + s2 * (t1 * s3 - s2 * t2)) / det;
   }
-  return out;
 }
 
 /**
@@ -78,45 +92,6 @@ export function fitPolynomial(t: ArrayLike<number>, f: ArrayLike<number>, degree
   const coefficients: number[] = [];
   for (let k = 0; k <= degree; k++) coefficients.push(solution.get(k, 0) / Math.pow(scale, k));
   return coefficients;
-}
-
-/**
- * Smoothed value f̂(s_i) of the same local quadratic least-squares fit as `leastSquaresSlope` (its
- * constant term a): the distribution whose slope the boundary layer is given. Writes into `out`.
- */
-export function leastSquaresValue(s: ArrayLike<number>, f: ArrayLike<number>, out: Float64Array, halfWidth = 2): Float64Array {
-  const n = s.length;
-  const width = Math.min(n, 2 * halfWidth + 1);
-  if (width < 3) {
-    for (let i = 0; i < n; i++) out[i] = f[i];
-    return out;
-  }
-  for (let i = 0; i < n; i++) {
-    let lo = i - halfWidth;
-    if (lo < 0) lo = 0;
-    if (lo > n - width) lo = n - width;
-    const hi = lo + width - 1;
-    const scale = 0.5 * (s[hi] - s[lo]);
-    const si = s[i];
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
-    for (let j = lo; j <= hi; j++) {
-      const t = (s[j] - si) / scale;
-      const tt = t * t;
-      const fj = f[j];
-      s0 += 1;
-      s1 += t;
-      s2 += tt;
-      s3 += tt * t;
-      s4 += tt * tt;
-      t0 += fj;
-      t1 += fj * t;
-      t2 += fj * tt;
-    }
-    const det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
-    const detA = t0 * (s2 * s4 - s3 * s3) - s1 * (t1 * s4 - s3 * t2) + s2 * (t1 * s3 - s2 * t2);
-    out[i] = detA / det;
-  }
-  return out;
 }
 
 /**
