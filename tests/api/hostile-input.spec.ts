@@ -3,7 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
-import { ACCESS_RULES, apiRoutes, CALLERS, expectedFor, fillPath, isStream, routeKey, sampleIds, type Caller } from '../support/routes';
+import { ACCESS_RULES, apiRoutes, CALLERS, expectedFor, fillPath, isStream, routeKey, sampleIds, sendOnce, type Caller } from '../support/routes';
 import { signIn, type SignedIn } from '../support/sign-in';
 import type { RouteEntry } from '../../server/src/http/edge';
 
@@ -44,19 +44,7 @@ async function send(route: RouteEntry, path: string, raw: string | null) {
   const method = route.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
   let req = who.agent[method](path).set('x-xsrf-token', who.csrf);
   if (raw !== null) req = req.set('content-type', 'application/json').send(raw);
-  // An event stream stays open: read an error's body, but only the status of a stream.
-  const res = isStream(route.path)
-    ? await req.buffer(false).parse((stream, done) => {
-        if ((stream as unknown as { statusCode: number }).statusCode < 400) {
-          done(null, null);
-          stream.destroy();
-          return;
-        }
-        let text = '';
-        stream.on('data', (chunk: Buffer) => (text += chunk.toString()));
-        stream.on('end', () => done(null, JSON.parse(text || 'null')));
-      })
-    : await req;
+  const res = await sendOnce(req, isStream(route.path));
   tally.tried++;
   if (res.status >= 400 && res.status < 500) tally.fourxx++;
   if (res.status >= 500) tally.fivexx++;
@@ -138,6 +126,21 @@ describe('hostile input on every write route', () => {
     }
     expect(failures).toEqual([]);
   }, 180_000);
+
+  it('answers a version of a project the caller is not in exactly as an id that names nothing', async () => {
+    const nacelle = (await as.engineer!.get('/api/projects').expect(200)).body.find((p: { id: string }) => p.id !== ids['projectId']);
+    const study = await as.engineer!.post(`/api/projects/${nacelle.id}/studies`, { title: 'Lip study (invented)' }).expect(201);
+    const branch = (await as.engineer!.get(`/api/studies/${study.body.id}/branches`).expect(200)).body[0];
+    const foreign = await as.engineer!.post(`/api/branches/${branch.id}/versions`, { message: 'first', expectedHeadVersionId: null }).expect(201);
+    // The viewer is in the wing project only.
+    const viewer = as.viewer!;
+    const seen = await viewer.get(`/api/compare?a=${foreign.body.id}&b=${ids['versionId']}`);
+    const random = await viewer.get(`/api/compare?a=${randomUUID()}&b=${ids['versionId']}`);
+    expect(seen.status).toBe(404);
+    expect(seen.body).toEqual(random.body);
+    tally.tried += 2;
+    tally.fourxx += 2;
+  });
 
   it('refuses a NUL in an uploaded file name with 400 and keeps nothing', async () => {
     const before = await t.database.pool.query('select count(*)::int as n from uploads');

@@ -2,7 +2,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
-import { ACCESS_RULES, apiRoutes, CALLERS, expectedFor, fillPath, isStream, routeKey, sampleIds, type Caller } from '../support/routes';
+import { ACCESS_RULES, apiRoutes, CALLERS, expectedFor, fillPath, isStream, routeKey, sampleIds, sendOnce, type Caller } from '../support/routes';
 import { signIn, type SignedIn } from '../support/sign-in';
 
 /**
@@ -55,13 +55,7 @@ describe('role matrix from the route table', () => {
               : method === 'delete'
                 ? who.delete(url)
                 : who[method](url, {});
-        // An event stream stays open: its status is all the matrix needs.
-        const res = isStream(route.path)
-          ? await req.buffer(false).parse((stream, done) => {
-              done(null, null);
-              stream.destroy();
-            })
-          : await req.redirects(0);
+        const res = await sendOnce(req, isStream(route.path));
         tried++;
         const expected = expectedFor(rule, caller, route.path);
         const ok = expected === 'allowed' ? passed(res.status) : res.status === expected;

@@ -1,3 +1,5 @@
+import type { IncomingMessage } from 'node:http';
+import type request from 'supertest';
 import { can, type ProjectAction, type ProjectRole } from '@laminote/contracts';
 import { routeTable, type RouteEntry } from '../../server/src/http/edge';
 import type { TestApp } from './app';
@@ -30,6 +32,9 @@ export const ACCESS_RULES: Readonly<Record<string, AccessRule>> = {
   'POST /auth/logout': 'signOut',
   'GET /api/me': 'signedIn',
   'GET /api/me/notification-prefs': 'signedIn',
+  'GET /api/me/tokens': 'signedIn',
+  'POST /api/me/tokens': 'signedIn',
+  'DELETE /api/me/tokens/:tokenId': { ownedBy: 'engineer' },
   'PUT /api/me/notification-prefs': 'signedIn',
   'GET /api/inbox': 'signedIn',
   'GET /api/inbox/unread-count': 'signedIn',
@@ -150,6 +155,9 @@ export async function sampleIds(t: TestApp, as: Partial<Record<Caller, SignedIn>
     // The engineer's: the thread above mentions them.
     notificationId: await one(`select n.id from notifications n join users u on u.id = n.user_id where u.email = $1 order by n.created_at limit 1`, [engineerEmail]),
   };
+  // The engineer's personal API token, for the routes that list and revoke them.
+  const token = await as.engineer!.post('/api/me/tokens', { name: 'Matrix script', scope: 'read', expiresInDays: 7 });
+  if (token.status === 201) ids['tokenId'] = (token.body.token?.id ?? token.body.id) as string;
   // A run is a job: one to look at and cancel.
   const run = await as.engineer!.post(`/api/branches/${branchId}/run`, {});
   if (run.status !== 202 && run.status !== 200) throw new Error(`starting a run for the matrix failed: ${run.status} ${JSON.stringify(run.body)}`);
@@ -159,6 +167,25 @@ export async function sampleIds(t: TestApp, as: Partial<Record<Caller, SignedIn>
 
 /** Routes that answer with a stream of events (server-sent events) rather than one body. */
 export const isStream = (path: string) => path.endsWith('/events');
+
+/**
+ * Sends a request; for an event stream, which stays open, takes the status (and an error's body) and
+ * closes it.
+ */
+export function sendOnce(req: request.Test, stream: boolean): Promise<request.Response> {
+  if (!stream) return req.redirects(0);
+  return req.buffer(false).parse((res, done) => {
+    const incoming = res as unknown as IncomingMessage;
+    if ((incoming.statusCode ?? 0) < 400) {
+      done(null, null);
+      incoming.destroy();
+      return;
+    }
+    let text = '';
+    incoming.on('data', (chunk: Buffer) => (text += chunk.toString()));
+    incoming.on('end', () => done(null, JSON.parse(text || 'null')));
+  });
+}
 
 /** The route's path with its parameters filled from `ids` (or `override` for one of them). */
 export function fillPath(route: RouteEntry, ids: Record<string, string>, override?: { param: string; value: string }): string {

@@ -190,7 +190,8 @@ export class NotebookService {
       if (unknown.length) for (const c of await tx.select().from(cellsTable).where(inArray(cellsTable.id, unknown))) knownById.set(c.id, c);
       body.cells.forEach((cell, i) => {
         const k = knownById.get(cell.cellId);
-        if (k && k.studyId !== ctx.study.id) throw badRequest(`cells[${i}].cellId: this id belongs to another study; give the new cell an id of its own`, `cells[${i}].cellId`);
+        // Said without telling whether the id is in use elsewhere (another project does not exist for the caller).
+        if (k && k.studyId !== ctx.study.id) throw badRequest(`cells[${i}].cellId: this id cannot be used here; give the new cell an id of its own`, `cells[${i}].cellId`);
         if (k && k.kind !== cell.kind) throw badRequest(`cells[${i}].kind: the cell is a ${CELL_KIND_LABELS[k.kind as CellKind] ?? k.kind} and keeps its kind; add a new cell instead`, `cells[${i}].kind`);
       });
 

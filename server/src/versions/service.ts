@@ -306,7 +306,7 @@ export async function saveVersion(tx: Tx, actor: SessionUser, place: Place, bran
     // Cell identities: a cell first seen in this save gets its row; a cell of another study is refused.
     const known = await tx.select({ id: cells.id, studyId: cells.studyId }).from(cells).where(inArray(cells.id, ids));
     const foreign = known.find((k) => k.studyId !== place.studyId);
-    if (foreign) throw badRequest(`cell ${foreign.id} belongs to another study`, `cells[${ids.indexOf(foreign.id)}].cellId`);
+    if (foreign) throw badRequest(`cell ${foreign.id}: this id cannot be used here; give the cell an id of its own`, `cells[${ids.indexOf(foreign.id)}].cellId`);
     const knownIds = new Set(known.map((k) => k.id));
     const fresh = draftCells.filter((c) => !knownIds.has(c.cellId));
     if (fresh.length) await tx.insert(cells).values(fresh.map((c) => ({ id: c.cellId, studyId: place.studyId, kind: c.kind, createdBy: actor.id }))).onConflictDoNothing();
