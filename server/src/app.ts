@@ -18,12 +18,15 @@ import { draftBodyParser, notebookRouter } from './notebook/routes';
 import { projectsRouter } from './projects/routes';
 import { studiesRouter } from './studies/routes';
 import { versionsRouter } from './versions/routes';
-import { reviewRouter } from './review/routes';
+import { branchesRouter } from './branches/routes';
+import { commentsRouter } from './comments/routes';
+import { compareRouter } from './compare/routes';
+import { inboxRouter } from './inbox/routes';
+import { meRouter } from './me/routes';
+import { threadsRouter } from './threads/routes';
 import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
-import { reportsRouter } from './reports/routes';
 import { bearerAuth } from './tokens/bearer';
-import { tokensRouter } from './tokens/routes';
 
 export interface AppDeps {
   config: Config;
@@ -106,15 +109,19 @@ export function createApp(deps: AppDeps): Express {
   app.use(authRouter({ config, db, oidc: deps.oidc, logger }));
 
   const api = Router();
-  api.use(projectsRouter({ db }));
-  api.use(studiesRouter({ db }));
+  // One router per resource: /api/<name> is served by server/src/<name>/routes.ts.
+  api.use('/me', meRouter({ db }));
+  api.use('/projects', projectsRouter({ db }));
+  api.use('/studies', studiesRouter({ db, config }));
+  api.use('/branches', branchesRouter({ db }));
+  api.use('/versions', versionsRouter({ db, config }));
+  api.use('/threads', threadsRouter({ db, config }));
+  api.use('/comments', commentsRouter({ db, config }));
+  api.use('/inbox', inboxRouter({ db }));
+  api.use('/compare', compareRouter({ db }));
   api.use(notebookRouter({ db, engine: deps.engine, logger }));
-  api.use(versionsRouter({ db }));
-  api.use(reviewRouter({ db, config }));
   api.use(devMailRouter({ config }));
   api.use(methodsRouter());
-  api.use(reportsRouter({ db }));
-  api.use(tokensRouter({ db }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -142,7 +142,8 @@ export function routeTable(app: Express): RouteEntry[] {
           for (const [method, on] of Object.entries(layer.route.methods)) {
             const upper = method.toUpperCase();
             if (!on || !['GET', 'POST', 'PUT', 'PATCH', 'DELETE'].includes(upper)) continue;
-            const path = `${prefix}${p}`;
+            // A resource router's own root (`router.get('/')` mounted at /api/inbox) is the prefix itself.
+            const path = p === '/' && prefix !== '' ? prefix : `${prefix}${p}`;
             routes.push({ method: upper as RouteEntry['method'], path, params: paramsOf(path) });
           }
         }

@@ -6,7 +6,7 @@ import type { EnginePool } from '../engine/pool';
 import { projectAccess, requireAction, studyAccess } from '../access/access';
 import { parse, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
-import { branchAccess, requireWritable } from './branch';
+import { branchAccess, requireWritable } from '../access/branch';
 import { exportCell } from './export';
 import { draftDocument, studyDocumentFilename } from './study-document';
 import { draftJson, draftObject, NotebookService } from './service';

@@ -21,7 +21,7 @@ import { EngineBusyError, type EnginePool } from '../engine/pool';
 import { isDatabaseUnavailable } from '../db/availability';
 import { badRequest, conflict, databaseUnavailable, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
-import type { BranchContext } from './branch';
+import type { BranchContext } from '../access/branch';
 import { OutputStore, type CachedOutput } from './outputs';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 

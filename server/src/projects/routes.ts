@@ -1,34 +1,32 @@
 import { Router } from 'express';
-import { addMemberSchema, createProjectSchema, updateMemberSchema, updateProjectSchema } from '@laminote/contracts';
+import { addMemberSchema, createProjectSchema, createStudySchema, updateMemberSchema, updateProjectSchema } from '@laminote/contracts';
 import type { Db } from '../db/client';
 import { projectAccess, requireAction } from '../access/access';
 import { forbidden, parse } from '../http/problem';
+import * as studies from '../studies/service';
 import * as service from './service';
 
+/** /api/projects: projects, their members and settings, and the studies in each. */
 export function projectsRouter({ db }: { db: Db }): Router {
   const router = Router();
 
-  router.get('/me', async (req, res) => {
-    res.json(await service.me(db, req.user!));
-  });
-
-  router.get('/projects', async (req, res) => {
+  router.get('/', async (req, res) => {
     res.json(await service.listProjects(db, req.user!));
   });
 
-  router.post('/projects', async (req, res) => {
+  router.post('/', async (req, res) => {
     if (!req.user!.siteAdmin) throw forbidden('Only site admins create projects.');
     const input = parse(createProjectSchema, req.body);
     const project = await db.transaction((tx) => service.createProject(tx, req.user!, input));
     res.status(201).json(await service.getProject(db, req.user!, project.id));
   });
 
-  router.get('/projects/:projectId', async (req, res) => {
+  router.get('/:projectId', async (req, res) => {
     const { projectId } = await projectAccess(db, req.user!, req.params.projectId);
     res.json(await service.getProject(db, req.user!, projectId));
   });
 
-  router.patch('/projects/:projectId', async (req, res) => {
+  router.patch('/:projectId', async (req, res) => {
     const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
     const input = parse(updateProjectSchema, req.body);
     requireAction(access, input.settings ? 'manageSettings' : 'manageMembers');
@@ -36,19 +34,19 @@ export function projectsRouter({ db }: { db: Db }): Router {
     res.json(await service.getProject(db, req.user!, projectId));
   });
 
-  router.get('/projects/:projectId/members', async (req, res) => {
+  router.get('/:projectId/members', async (req, res) => {
     const { projectId } = await projectAccess(db, req.user!, req.params.projectId);
     res.json(await service.listMembers(db, projectId));
   });
 
-  router.post('/projects/:projectId/members', async (req, res) => {
+  router.post('/:projectId/members', async (req, res) => {
     const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
     requireAction(access, 'manageMembers');
     const input = parse(addMemberSchema, req.body);
     res.status(201).json(await db.transaction((tx) => service.addMember(tx, req.user!, projectId, input)));
   });
 
-  router.patch('/projects/:projectId/members/:userId', async (req, res) => {
+  router.patch('/:projectId/members/:userId', async (req, res) => {
     const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
     requireAction(access, 'manageMembers');
     const { role } = parse(updateMemberSchema, req.body);
@@ -56,11 +54,24 @@ export function projectsRouter({ db }: { db: Db }): Router {
     res.json((await service.listMembers(db, projectId)).find((m) => m.userId === req.params.userId));
   });
 
-  router.delete('/projects/:projectId/members/:userId', async (req, res) => {
+  router.delete('/:projectId/members/:userId', async (req, res) => {
     const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
     requireAction(access, 'manageMembers');
     await db.transaction((tx) => service.removeMember(tx, req.user!, projectId, req.params.userId));
     res.status(204).end();
+  });
+
+  router.get('/:projectId/studies', async (req, res) => {
+    const { projectId } = await projectAccess(db, req.user!, req.params.projectId);
+    res.json(await studies.listStudies(db, projectId, req.query['archived'] === 'true'));
+  });
+
+  router.post('/:projectId/studies', async (req, res) => {
+    const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
+    requireAction(access, 'editStudy');
+    const input = parse(createStudySchema, req.body);
+    const study = await db.transaction((tx) => studies.createStudy(tx, req.user!, projectId, input));
+    res.status(201).json(await studies.getStudy(db, study.id));
   });
 
   return router;

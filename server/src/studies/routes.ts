@@ -1,42 +1,73 @@
 import { Router } from 'express';
-import { createStudySchema, updateStudySchema } from '@laminote/contracts';
+import { createThreadSchema, markBaselineSchema, updateStudySchema } from '@laminote/contracts';
+import type { Config } from '../config';
 import type { Db } from '../db/client';
-import { projectAccess, requireAction, studyAccess } from '../access/access';
+import { requireAction, studyAccess } from '../access/access';
 import { parse } from '../http/problem';
+import { reviewStudy, viewOf } from '../review/context';
+import * as threads from '../review/threads';
+import * as review from '../review/verdicts';
+import { resolveView } from '../review/views';
+import * as versions from '../versions/service';
 import * as service from './service';
 
-export function studiesRouter({ db }: { db: Db }): Router {
+/**
+ * /api/studies: a study, its branches, its history and baseline, its comment threads and review state.
+ * (Listing and making studies is under /api/projects/:projectId/studies; uploads to a study are in
+ * notebook/routes.ts.)
+ */
+export function studiesRouter({ db, config }: { db: Db; config: Pick<Config, 'PUBLIC_URL'> }): Router {
   const router = Router();
 
-  router.get('/projects/:projectId/studies', async (req, res) => {
-    const { projectId } = await projectAccess(db, req.user!, req.params.projectId);
-    res.json(await service.listStudies(db, projectId, req.query['archived'] === 'true'));
-  });
-
-  router.post('/projects/:projectId/studies', async (req, res) => {
-    const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
-    requireAction(access, 'editStudy');
-    const input = parse(createStudySchema, req.body);
-    const study = await db.transaction((tx) => service.createStudy(tx, req.user!, projectId, input));
-    res.status(201).json(await service.getStudy(db, study.id));
-  });
-
-  router.get('/studies/:studyId', async (req, res) => {
+  router.get('/:studyId', async (req, res) => {
     const { study } = await studyAccess(db, req.user!, req.params.studyId);
     res.json(await service.getStudy(db, study.id));
   });
 
-  router.get('/studies/:studyId/branches', async (req, res) => {
-    const { study } = await studyAccess(db, req.user!, req.params.studyId);
-    res.json(await service.listBranches(db, study.id));
-  });
-
-  router.patch('/studies/:studyId', async (req, res) => {
+  router.patch('/:studyId', async (req, res) => {
     const { study, access } = await studyAccess(db, req.user!, req.params.studyId);
     requireAction(access, 'editStudy');
     const input = parse(updateStudySchema, req.body);
     await db.transaction((tx) => service.updateStudy(tx, req.user!, study.projectId, study.id, input));
     res.json(await service.getStudy(db, study.id));
+  });
+
+  router.get('/:studyId/branches', async (req, res) => {
+    const { study } = await studyAccess(db, req.user!, req.params.studyId);
+    res.json(await service.listBranches(db, study.id));
+  });
+
+  router.get('/:studyId/versions', async (req, res) => {
+    const { study, access } = await studyAccess(db, req.user!, req.params.studyId);
+    res.json(await versions.studyHistory(db, study.id, access));
+  });
+
+  router.post('/:studyId/baseline', async (req, res) => {
+    const { study, access, projectId } = await studyAccess(db, req.user!, req.params.studyId);
+    requireAction(access, 'markBaseline');
+    const { versionId } = parse(markBaselineSchema, req.body);
+    await db.transaction((tx) => versions.markBaseline(tx, req.user!, { studyId: study.id, projectId }, versionId));
+    res.json(await versions.studyHistory(db, study.id, access));
+  });
+
+  router.get('/:studyId/threads', async (req, res) => {
+    const s = await reviewStudy(db, req, req.params.studyId);
+    const { q, view } = await viewOf(db, req, s.ref.id);
+    res.json(await threads.listThreads(db, s.caller, s.ref.id, view, q.cellId ? { cellId: q.cellId } : {}));
+  });
+
+  router.post('/:studyId/threads', async (req, res) => {
+    const s = await reviewStudy(db, req, req.params.studyId);
+    requireAction(s.access, 'comment');
+    const input = parse(createThreadSchema, req.body);
+    const threadId = await db.transaction((tx) => threads.createThread(tx, { publicUrl: config.PUBLIC_URL }, s.caller, s.ref, input));
+    const view = await resolveView(db, s.ref.id, { versionId: input.versionId, branchId: input.branchId });
+    res.status(201).json(await threads.getThread(db, s.caller, s.ref.id, threadId, view));
+  });
+
+  router.get('/:studyId/review', async (req, res) => {
+    const s = await reviewStudy(db, req, req.params.studyId);
+    res.json(await review.studyReview(db, s.ref.id));
   });
 
   return router;

@@ -1,12 +1,11 @@
 import { and, eq } from 'drizzle-orm';
-import { DEFAULT_PROJECT_SETTINGS } from '@laminote/contracts';
+import { DEFAULT_PROJECT_SETTINGS, isUuid } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import type { Tx } from '../db/client';
 import { branches, memberships, projects, studies } from '../db/schema';
-import type { ProjectContext } from '../access/access';
+import type { ProjectContext } from './access';
 import { notFound, ProblemError } from '../http/problem';
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export interface BranchContext extends ProjectContext {
   branch: typeof branches.$inferSelect;
@@ -19,7 +18,7 @@ export interface BranchContext extends ProjectContext {
  * notebook request starts here).
  */
 export async function branchAccess(tx: Tx, user: SessionUser, branchId: string): Promise<BranchContext> {
-  if (!UUID.test(branchId)) throw notFound('branch');
+  if (!isUuid(branchId)) throw notFound('branch');
   const [row] = await tx
     .select({ branch: branches, study: studies, settings: projects.settings, role: memberships.role })
     .from(branches)
@@ -41,4 +40,10 @@ export function requireWritable(ctx: BranchContext): void {
   if (ctx.study.archivedAt || ctx.branch.archivedAt) {
     throw new ProblemError(409, 'archived', 'This is archived', { detail: `The ${ctx.study.archivedAt ? 'study' : 'branch'} is archived; restore it to edit or run its cells.` });
   }
+}
+
+/** A branch's place for the services: its study and project. */
+export async function branchPlace(tx: Tx, user: SessionUser, branchId: string) {
+  const ctx = await branchAccess(tx, user, branchId);
+  return { ...ctx, place: { studyId: ctx.study.id, projectId: ctx.projectId } };
 }
