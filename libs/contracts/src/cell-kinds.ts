@@ -6,7 +6,7 @@
  * "How to add a cell kind".
  */
 
-export const CELL_KINDS = ['flow', 'pressure', 'analysis', 'sweep', 'flatPlate', 'leadingEdge', 'note'] as const;
+export const CELL_KINDS = ['flow', 'pressure', 'section', 'analysis', 'polar', 'sweep', 'flatPlate', 'leadingEdge', 'note'] as const;
 export type CellKind = (typeof CELL_KINDS)[number];
 
 /**
@@ -83,21 +83,57 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     },
     starter: { text: '' },
   },
+  section: {
+    label: 'Section',
+    icon: 'draw',
+    hint: 'NACA designation or pasted coordinates; its Cp by the panel method',
+    runs: true,
+    references: { flowCellId: { kinds: ['flow'], required: false } },
+    fields: {
+      source: 'Shape given by',
+      naca: 'NACA designation',
+      coordinates: 'Coordinates',
+      flowCellId: 'Mach number from',
+      at: 'Solve at',
+      alphaDeg: 'Incidence (°)',
+      cl: 'Lift coefficient',
+      panels: 'Panels',
+    },
+    starter: { source: 'naca', naca: '2412' },
+  },
   analysis: {
     label: 'Transition analysis',
     icon: 'insights',
     hint: 'Boundary layer and transition along each surface',
     runs: true,
-    references: { flowCellId: { kinds: ['flow'], required: true }, pressureCellId: { kinds: ['pressure'], required: true } },
+    references: { flowCellId: { kinds: ['flow'], required: true }, pressureCellId: { kinds: ['pressure', 'section'], required: true } },
     fields: {
       flowCellId: 'Flow cell',
-      pressureCellId: 'Pressure cell',
+      pressureCellId: 'Pressure or section cell',
       criteria: 'Transition criteria',
       governing: 'Governing criterion',
       trips: 'Forced transition',
       turbulent: 'Turbulent march',
     },
     starter: { flowCellId: '', pressureCellId: '' },
+  },
+  polar: {
+    label: 'Polar',
+    icon: 'function',
+    hint: 'Lift, drag and transition of a section over a range of incidence or lift',
+    runs: true,
+    references: { flowCellId: { kinds: ['flow'], required: true }, sectionCellId: { kinds: ['section'], required: true } },
+    fields: {
+      flowCellId: 'Flow cell',
+      sectionCellId: 'Section cell',
+      by: 'Range of',
+      from: 'From',
+      to: 'To',
+      points: 'Points',
+      criteria: 'Transition criteria',
+      governing: 'Governing criterion',
+    },
+    starter: { flowCellId: '', sectionCellId: '' },
   },
   flatPlate: {
     label: 'Flat-plate estimate',
@@ -227,6 +263,9 @@ export const VALUE_LABELS: Readonly<Record<string, Readonly<Record<string, strin
   turbulenceMode: { nCrit: 'N_crit', intensity: 'turbulence level' },
   layout: { closedLoop: 'closed loop', surface: 'one surface' },
   smoothing: { off: 'off', auto: 'automatic', width: 'chosen width' },
+  source: { naca: 'NACA designation', coordinates: 'coordinates' },
+  at: { alpha: 'incidence', cl: 'lift coefficient' },
+  by: { alpha: 'incidence', cl: 'lift coefficient' },
   criteria: { eN: 'envelope eᴺ', crossflow: 'crossflow R_cf', crossflowC1: 'crossflow C1', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },
   governing: {
     auto: 'earlier of eᴺ and crossflow',

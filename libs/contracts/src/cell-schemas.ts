@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CELL_KINDS, TRANSITION_CRITERIA, type CellKind, CELL_KIND_REGISTRY } from './cell-kinds';
 import { engineResultSchema, type EngineResult } from './engine';
+import { SECTION_LIMITS, sectionGeometrySchema, sectionInviscidSchema } from './section';
 
 /**
  * The zod half of the cell-kind registry (the plain half is cell-kinds.ts): each kind's input schema,
@@ -177,10 +178,93 @@ export type LeadingEdgeInputs = z.infer<typeof leadingEdgeInputsSchema>;
 export const noteInputsSchema = z.object({ markdown: z.string().max(200_000, 'the note is longer than 200 000 characters') });
 export type NoteInputs = z.infer<typeof noteInputsSchema>;
 
+/**
+ * Section: a NACA designation or pasted coordinates, and the panel method's solution at an incidence or
+ * a lift coefficient (Mach number from the flow cell it names, else incompressible).
+ */
+export const sectionInputsSchema = z
+  .object({
+    source: z.enum(['naca', 'coordinates']).default('naca'),
+    naca: z.string().max(24, 'naca: a NACA designation has 4 or 5 digits').default('2412'),
+    /** Kept exactly as pasted. */
+    coordinates: z.string().max(SECTION_LIMITS.maxCoordinateCharacters, `coordinates: longer than ${SECTION_LIMITS.maxCoordinateCharacters} characters (limit)`).default(''),
+    flowCellId: cellRef('flowCellId').nullable().default(null),
+    at: z.enum(['alpha', 'cl']).default('alpha'),
+    alphaDeg: finite('alphaDeg').min(-25, 'alphaDeg must lie between −25° and 25°').max(25, 'alphaDeg must lie between −25° and 25°').default(2),
+    cl: finite('cl').min(-3, 'cl must lie between −3 and 3').max(3, 'cl must lie between −3 and 3').default(0.4),
+    panels: z.number().int('panels must be a whole number').min(SECTION_LIMITS.minPanels, `panels must be at least ${SECTION_LIMITS.minPanels}`).max(SECTION_LIMITS.maxPanels, `panels must be at most ${SECTION_LIMITS.maxPanels}`).default(160),
+  })
+  .superRefine((section, ctx) => {
+    if (section.source === 'naca' && section.naca.trim() === '') ctx.addIssue({ code: 'custom', path: ['naca'], message: 'naca: give a designation such as 2412 or 23012' });
+    if (section.source === 'coordinates' && section.coordinates.trim() === '') ctx.addIssue({ code: 'custom', path: ['coordinates'], message: 'coordinates: paste x y rows' });
+  });
+export type SectionInputs = z.infer<typeof sectionInputsSchema>;
+
+export const sectionResultSchema = z.object({
+  title: z.string().nullable(),
+  /** The shape as given, on unit chord (trailing edge → upper → nose → lower → trailing edge). */
+  outline: z.object({ x: z.array(z.number()), y: z.array(z.number()) }),
+  geometry: sectionGeometrySchema,
+  inviscid: sectionInviscidSchema,
+  warnings: z.array(z.string()),
+});
+export type SectionResult = z.infer<typeof sectionResultSchema>;
+
+/** Polar: a section over a range of incidence or lift, with the boundary layer at each point. */
+export const polarInputsSchema = z
+  .object({
+    flowCellId: cellRef('flowCellId'),
+    sectionCellId: cellRef('sectionCellId'),
+    by: z.enum(['alpha', 'cl']).default('alpha'),
+    from: finite('from').min(-25, 'from must lie between −25 and 25').max(25, 'from must lie between −25 and 25').default(-4),
+    to: finite('to').min(-25, 'to must lie between −25 and 25').max(25, 'to must lie between −25 and 25').default(10),
+    points: z.number().int('points must be a whole number').min(2, 'points must be at least 2').max(SECTION_LIMITS.maxPolarPoints, `points must be at most ${SECTION_LIMITS.maxPolarPoints} (a longer polar waits for background jobs)`).default(15),
+    criteria: z.array(z.enum(TRANSITION_CRITERIA)).min(1, 'criteria: pick at least one transition criterion').default([...TRANSITION_CRITERIA]),
+    governing: z.enum(['auto', 'earliest', ...TRANSITION_CRITERIA]).default('auto'),
+  })
+  .superRefine((polar, ctx) => {
+    if (!(polar.to > polar.from)) ctx.addIssue({ code: 'custom', path: ['to'], message: 'to must be above from' });
+    if (polar.by === 'cl' && (Math.abs(polar.from) > 3 || Math.abs(polar.to) > 3)) ctx.addIssue({ code: 'custom', path: ['from'], message: 'a lift-coefficient range must lie between −3 and 3' });
+  });
+export type PolarInputs = z.infer<typeof polarInputsSchema>;
+
+const polarSurfaceSchema = z.object({
+  name: z.string(),
+  transitionX: z.number().nullable(),
+  transitionBy: z.string().nullable(),
+  criteria: z.record(z.string(), z.number().nullable()),
+  laminarSeparationX: z.number().nullable(),
+  turbulentSeparationX: z.number().nullable(),
+  cd: z.number().nullable(),
+});
+
+export const polarResultSchema = z.object({
+  reynolds: z.number(),
+  mach: z.number(),
+  nCrit: z.number(),
+  outline: z.object({ x: z.array(z.number()), y: z.array(z.number()) }),
+  points: z.array(
+    z.object({
+      /** null only at a point the engine refused (see problem). */
+      alphaDeg: z.number().nullable(),
+      cl: z.number().nullable(),
+      cm: z.number().nullable(),
+      cd: z.number().nullable(),
+      surfaces: z.array(polarSurfaceSchema),
+      /** Why the point has no result (the engine refused it), else null. */
+      problem: z.string().nullable(),
+    }),
+  ),
+  warnings: z.array(z.string()),
+});
+export type PolarResult = z.infer<typeof polarResultSchema>;
+
 export const CELL_INPUT_SCHEMAS = {
   flow: flowInputsSchema,
   pressure: pressureInputsSchema,
+  section: sectionInputsSchema,
   analysis: analysisInputsSchema,
+  polar: polarInputsSchema,
   sweep: sweepInputsSchema,
   flatPlate: flatPlateInputsSchema,
   leadingEdge: leadingEdgeInputsSchema,
@@ -343,7 +427,9 @@ export type AnalysisResult = EngineResult;
 export const CELL_SCHEMAS = {
   flow: { inputs: flowInputsSchema, result: flowResultSchema },
   pressure: { inputs: pressureInputsSchema, result: pressureResultSchema },
+  section: { inputs: sectionInputsSchema, result: sectionResultSchema },
   analysis: { inputs: analysisInputsSchema, result: analysisResultSchema },
+  polar: { inputs: polarInputsSchema, result: polarResultSchema },
   sweep: { inputs: sweepInputsSchema, result: sweepResultSchema },
   flatPlate: { inputs: flatPlateInputsSchema, result: flatPlateResultSchema },
   leadingEdge: { inputs: leadingEdgeInputsSchema, result: leadingEdgeResultSchema },

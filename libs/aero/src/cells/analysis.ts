@@ -5,6 +5,7 @@ import type { PressureTableRow } from '../pressure-table';
 import { loopArcLength, splitAtStagnation } from '../stagnation';
 import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from '../swept-wing';
 import { fail, stagnationFailure } from './errors';
+import { sectionAsPressure } from './section';
 import { engineFlow } from './flow';
 import { readCellTable } from './table';
 import { upstreamOf, type Upstream } from './types';
@@ -87,7 +88,9 @@ export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInp
 /** Transition analysis of the named flow and pressure cells: the engine's analyzeCase (analyze.ts). */
 export function computeAnalysis(a: AnalysisInputs, upstream: Upstream): EngineResult {
   const flow = upstreamOf(upstream, 'flowCellId', 'flow').inputs;
-  const pressure = upstreamOf(upstream, 'pressureCellId', 'pressure').inputs;
+  // A section cell stands in for a pressure cell: its panel solution at this flow's Mach number.
+  const named = upstream['pressureCellId'];
+  const pressure = named?.kind === 'section' ? sectionAsPressure(upstreamOf(upstream, 'pressureCellId', 'section').inputs, flow) : upstreamOf(upstream, 'pressureCellId', 'pressure').inputs;
   return analyzeWith(a, flow, pressure);
 }
 

@@ -4,7 +4,9 @@ import { toCellError } from './errors';
 import { computeFlatPlate } from './flat-plate';
 import { computeFlow } from './flow';
 import { computeLeadingEdge } from './leading-edge';
+import { computePolar } from './polar';
 import { computePressure } from './pressure';
+import { computeSection } from './section';
 import { computeSweep } from './sweep';
 import type { Upstream } from './types';
 
@@ -20,7 +22,9 @@ type Compute<K extends ComputedKind> = (inputs: CellInputs[K], upstream: Upstrea
 export const CELL_COMPUTE: { readonly [K in ComputedKind]: Compute<K> } = {
   flow: (inputs) => computeFlow(inputs),
   pressure: (inputs) => computePressure(inputs),
+  section: computeSection,
   analysis: computeAnalysis,
+  polar: computePolar,
   sweep: computeSweep,
   flatPlate: (inputs) => computeFlatPlate(inputs),
   leadingEdge: computeLeadingEdge,

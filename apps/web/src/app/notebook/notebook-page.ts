@@ -39,6 +39,8 @@ import { DraftSession } from './draft-session';
 import { FlatPlateCell } from './flat-plate/flat-plate-cell';
 import { FlowCell } from './flow/flow-cell';
 import { LeadingEdgeCell } from './leading-edge/leading-edge-cell';
+import { PolarCell } from './polar/polar-cell';
+import { SectionCell } from './section/section-cell';
 import { NotebookApi } from './notebook-api';
 import { NoteCell } from './note/note-cell';
 import { PressureCell } from './pressure/pressure-cell';
@@ -85,6 +87,8 @@ function isTextEntry(target: EventTarget | null): boolean {
     FlatPlateCell,
     FlowCell,
     LeadingEdgeCell,
+    PolarCell,
+    SectionCell,
     MatButtonModule,
     MatIconModule,
     MatProgressBarModule,

@@ -83,7 +83,7 @@ export class AnalysisCell {
   });
 
   protected readonly flowCells = computed(() => this.session.cells().filter((c) => c.kind === 'flow'));
-  protected readonly pressureCells = computed(() => this.session.cells().filter((c) => c.kind === 'pressure'));
+  protected readonly pressureCells = computed(() => this.session.cells().filter((c) => c.kind === 'pressure' || c.kind === 'section'));
 
   /** The surfaces that can be tripped: upper and lower of a closed loop, or a single surface by its name. */
   protected readonly tripSurfaces = computed((): [string, string | null] => {

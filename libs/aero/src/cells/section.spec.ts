@@ -1,0 +1,62 @@
+import { CELL_SCHEMAS, type CellInputs, type CellKind } from '@laminote/contracts';
+import { describe, expect, it } from 'vitest';
+import { computeCell, computeCellOutput } from './compute';
+import type { CellSource } from './types';
+
+function inputs<K extends CellKind>(kind: K, given: Record<string, unknown>): CellInputs[K] {
+  return CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
+}
+function source<K extends CellKind>(kind: K, given: Record<string, unknown>, upstream: CellSource['upstream'] = {}): CellSource<K> {
+  return { kind, inputs: inputs(kind, given), upstream };
+}
+const ID = '00000000-0000-4000-8000-000000000001';
+const ID2 = '00000000-0000-4000-8000-000000000002';
+const flow = source('flow', { mode: 'reynolds', reynolds: 6e6, mach: 0, nCrit: 9 });
+
+describe('computeCell: section', () => {
+  it('a NACA 0012 at zero incidence: no lift, 12 % thick, nose radius 1.1019 t² (NACA Report 460)', () => {
+    const r = computeCell('section', inputs('section', { source: 'naca', naca: '0012', alphaDeg: 0 }), {});
+    expect(CELL_SCHEMAS.section.result.safeParse(r).success).toBe(true);
+    expect(r.inviscid.cl).toBeCloseTo(0, 8);
+    expect(r.geometry.thickness).toBeCloseTo(0.12, 3);
+    expect(r.geometry.leadingEdgeRadius! / (1.1019 * 0.0144)).toBeCloseTo(1, 2);
+    expect(r.title).toBe('NACA 0012');
+  });
+
+  it('takes the Mach number from the flow cell it names and names a bad coordinate line', () => {
+    const compressible = source('flow', { mode: 'reynolds', reynolds: 6e6, mach: 0.5 });
+    const r = computeCell('section', inputs('section', { naca: '2412', at: 'cl', cl: 0.5, flowCellId: ID }), { flowCellId: compressible });
+    expect(r.inviscid.mach).toBe(0.5);
+    expect(r.inviscid.cl).toBeCloseTo(0.5, 6);
+    const bad = computeCellOutput({ kind: 'section', inputs: inputs('section', { source: 'coordinates', coordinates: '1 0\n0.5 0.06\n0 0\n0.5 -0.04x\n1 0' }), upstream: {} });
+    expect(bad.status).toBe('error');
+    expect(bad.error).toMatchObject({ field: 'coordinates', line: 4 });
+  });
+});
+
+describe('computeCell: analysis of a section cell', () => {
+  it('gives the same result as the section pasted as a pressure table', () => {
+    const section = source('section', { naca: '2412', alphaDeg: 2 });
+    const fromSection = computeCell('analysis', inputs('analysis', { flowCellId: ID, pressureCellId: ID2 }), { flowCellId: flow, pressureCellId: section });
+    const solved = computeCell('section', section.inputs, {});
+    const text = solved.inviscid.x.map((x, i) => `${x} ${solved.inviscid.y[i]} ${solved.inviscid.cp[i]}`).join('\n');
+    const fromTable = computeCell('analysis', inputs('analysis', { flowCellId: ID, pressureCellId: ID2 }), { flowCellId: flow, pressureCellId: source('pressure', { text, layout: 'closedLoop' }) });
+    expect(fromSection.cd).toBeCloseTo(fromTable.cd!, 6);
+    expect(fromSection.surfaces[0].transition.s).toBeCloseTo(fromTable.surfaces[0].transition.s!, 5);
+  });
+});
+
+describe('computeCell: polar', () => {
+  it('NACA 0012: symmetric in incidence, least drag at zero lift, upper transition moving forward with lift', () => {
+    const section = source('section', { naca: '0012' });
+    const r = computeCell('polar', inputs('polar', { flowCellId: ID, sectionCellId: ID2, from: -4, to: 4, points: 5 }), { flowCellId: flow, sectionCellId: section });
+    expect(CELL_SCHEMAS.polar.result.safeParse(r).success).toBe(true);
+    expect(r.points.map((p) => p.problem)).toEqual([null, null, null, null, null]);
+    expect(r.points[0].cl!).toBeCloseTo(-r.points[4].cl!, 6);
+    expect(r.points[0].cd!).toBeCloseTo(r.points[4].cd!, 5);
+    expect(r.points[2].cd!).toBeLessThan(r.points[4].cd!);
+    const upper = (k: number) => r.points[k].surfaces.find((s) => s.name === 'upper')!.transitionX!;
+    expect(upper(4)).toBeLessThan(upper(2));
+  });
+
+});

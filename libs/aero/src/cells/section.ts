@@ -1,0 +1,60 @@
+import { pressureInputsSchema, type FlowInputs, type PressureInputs, type SectionInputs, type SectionResult } from '@laminote/contracts';
+import { inviscidTable } from '../polar';
+import { prepareSection, sectionAt, ShapeInputError, type PreparedSection } from '../section-case';
+import { fail } from './errors';
+import { computeFlow } from './flow';
+import { optionalUpstreamOf, type Upstream } from './types';
+
+/**
+ * Section: the shape from a NACA designation (Reports 460, 537/610) or pasted coordinates, its geometry,
+ * and the linear-strength vortex panel solution at an incidence or a lift coefficient, with the
+ * Kármán–Tsien rule at the Mach number of the flow cell it names (section-case.ts).
+ */
+export function prepareSectionCell(s: SectionInputs): PreparedSection {
+  try {
+    return prepareSection(s.source === 'naca' ? { naca: s.naca, panels: s.panels } : { coordinates: s.coordinates, panels: s.panels });
+  } catch (error) {
+    if (error instanceof ShapeInputError) return fail(error.field, error.message, error.line);
+    throw error;
+  }
+}
+
+export function solveSectionCell(prepared: PreparedSection, s: SectionInputs, mach: number) {
+  try {
+    return sectionAt(prepared, s.at === 'cl' ? { cl: s.cl } : { alphaDeg: s.alphaDeg }, mach);
+  } catch (error) {
+    if (error instanceof ShapeInputError) return fail(error.field, error.message, error.line);
+    throw error;
+  }
+}
+
+export function computeSection(s: SectionInputs, upstream: Upstream): SectionResult {
+  const flow = optionalUpstreamOf(upstream, 'flowCellId', 'flow');
+  const mach = flow ? computeFlow(flow.inputs).mach : 0;
+  const prepared = prepareSectionCell(s);
+  const inviscid = solveSectionCell(prepared, s, mach);
+  const g = prepared.geometry;
+  return {
+    title: prepared.title,
+    outline: prepared.outline,
+    geometry: {
+      thickness: g.thickness,
+      thicknessAt: g.thicknessAt,
+      camber: g.camber,
+      camberAt: g.camberAt,
+      leadingEdgeRadius: Number.isFinite(g.leadingEdgeRadius) ? g.leadingEdgeRadius : null,
+      trailingEdgeGap: g.trailingEdgeGap,
+    },
+    inviscid,
+    warnings: prepared.warnings,
+  };
+}
+
+/**
+ * A section cell read as a closed-loop pressure cell, at the analysing flow's Mach number: what an
+ * analysis uses when it names a section cell instead of a pressure cell.
+ */
+export function sectionAsPressure(s: SectionInputs, flow: FlowInputs): PressureInputs {
+  const inviscid = solveSectionCell(prepareSectionCell(s), s, flow.mach);
+  return pressureInputsSchema.parse({ text: inviscidTable(inviscid), layout: 'closedLoop' });
+}
