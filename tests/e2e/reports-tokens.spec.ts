@@ -1,3 +1,8 @@
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { promisify } from 'node:util';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
@@ -29,9 +34,10 @@ async function api(method: 'GET' | 'POST', path: string, body?: object) {
   return { status: res.status(), body: res.headers()['content-type']?.includes('json') ? await res.json() : await res.body() };
 }
 
+let studyId: string;
+
 describe('a version report', () => {
   let versionId: string;
-  let studyId: string;
   let cellIds: string[];
 
   it('is offered on a saved version of the demo study and shows every cell with its plots drawn', async () => {
@@ -102,6 +108,26 @@ describe('personal API tokens', () => {
     // A script, with no cookie: Node's own fetch.
     const asScript = (path: string) => fetch(`${testEnv.appUrl}${path}`, { headers: { authorization: `Bearer ${token}` } });
     expect((await asScript('/api/projects')).status).toBe(200);
+
+    // The README's script, as printed there: put a Cp table in the demo study's draft, run, print transition.
+    const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
+    const script = /## Scripts: API tokens[\s\S]*?```js\n([\s\S]*?)```/.exec(readme)![1]!;
+    expect(script.trim().split('\n').length).toBeLessThanOrEqual(12);
+    const dir = mkdtempSync(path.join(tmpdir(), 'laminote-readme-'));
+    const branchId = ((await (await asScript(`/api/studies/${studyId}/branches`)).json()) as { id: string }[])[0]!.id;
+    const draft = (await (await asScript(`/api/branches/${branchId}/draft`)).json()) as { cells: { kind: string; inputs: { text?: string } }[] };
+    // An invented variant of the demo table: every Cp 3 % stronger, so the run has something new to compute.
+    const table = draft.cells.find((c) => c.kind === 'pressure')!.inputs.text!.replace(/^(\s*-?[\d.]+\s+-?[\d.]+\s+)(-?[\d.]+)\s*$/gm, (_m, head: string, cp: string) => `${head}${(Number(cp) * 1.03).toFixed(5)}`);
+    writeFileSync(path.join(dir, 'transition.mjs'), script);
+    writeFileSync(path.join(dir, 'cp.txt'), table);
+    const { stdout } = await promisify(execFile)(process.execPath, [path.join(dir, 'transition.mjs'), branchId, path.join(dir, 'cp.txt')], {
+      env: { ...process.env, LAMINOTE_URL: testEnv.appUrl, LAMINOTE_TOKEN: token },
+      timeout: 60_000,
+    });
+    expect(stdout).toMatch(/· upper: transition at x\/c = 0\.\d{3} \(\w+\)/);
+    expect(stdout).toMatch(/· lower: (transition at x\/c = 0\.\d{3} \(\w+\)|laminar to the end)/);
+    const after = (await (await asScript(`/api/branches/${branchId}/draft`)).json()) as { cells: { kind: string; inputs: { text?: string } }[] };
+    expect(after.cells.find((c) => c.kind === 'pressure')!.inputs.text).toBe(table);
 
     await page.reload();
     const row = page.getByRole('row', { name: /e2e: tunnel rig upload/ });

@@ -4,7 +4,7 @@ import type { MethodEntry } from './method';
 export const TRANSITION_METHODS: MethodEntry[] = [
   {
     id: 'envelope-en',
-    name: 'Envelope e^N method',
+    name: 'Envelope eᴺ method',
     purpose: 'Amplification N of the most unstable Tollmien–Schlichting wave along the laminar layer; transition where N reaches N_crit. Governs by default.',
     module: 'envelope-en.ts',
     formulas: [
@@ -25,7 +25,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
       'An envelope fit, not a stability computation: history effects of strongly varying gradients are approximate.',
       'No compressibility: at cruise Mach numbers the amplification is overestimated (conservative).',
     ],
-    usedFor: 'analysis cell: N(s) and the e^N transition location; sweep cell',
+    usedFor: 'analysis cell: N(s) and the eᴺ transition location; sweep cell',
   },
   {
     id: 'mack',

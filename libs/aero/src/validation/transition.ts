@@ -29,7 +29,7 @@ function drelaGilesPlate(nCrit: number): number {
 
 export const flatPlateTransition: ValidationSuite = {
   id: 'flat-plate-transition',
-  title: 'Flat-plate transition (envelope e^N, Michel, H–Re_x, Granville)',
+  title: 'Flat-plate transition (envelope eᴺ, Michel, H–Re_x, Granville)',
   methods: ['envelope-en', 'michel', 'h-rex', 'granville'],
   summary:
     'Each criterion in closed form on Thwaites’ plate layer (Re_θ = √(0.45 Re_x), H = 2.61) against the engine’s station-by-station march at Re = 5e6, held to 0.5 %.',
@@ -40,9 +40,9 @@ export const flatPlateTransition: ValidationSuite = {
     });
     const reS = (c: 'eN' | 'michel' | 'hRx' | 'granville') => locatedCriterion(plate().transition.criteria[c])!.reS;
     return [
-      { id: 'transition.eN.drela-giles', title: 'envelope e^N at N = 9', quantity: 'Re_x,tr (–)', tolerance: relativeWithin(0.005), source: 'M. Drela & M. B. Giles, AIAA J. 25 (1987) 1347, approximate envelope (eqs. for Re_θ0, dN/dRe_θ, ℓ, m)', measure: () => ({ value: reS('eN'), reference: drelaGilesPlate(9) }) },
+      { id: 'transition.eN.drela-giles', title: 'envelope eᴺ at N = 9', quantity: 'Re_x,tr (–)', tolerance: relativeWithin(0.005), source: 'M. Drela & M. B. Giles, AIAA J. 25 (1987) 1347, approximate envelope (eqs. for Re_θ0, dN/dRe_θ, ℓ, m)', measure: () => ({ value: reS('eN'), reference: drelaGilesPlate(9) }) },
       // |Re/3e6 − 1| < 1/3 is the open interval 2e6 < Re < 4e6.
-      { id: 'transition.eN.range', title: 'envelope e^N at N = 9 lies between Re_x = 2e6 and 4e6', quantity: 'Re_x,tr (–)', tolerance: relativeWithin(1 / 3), source: 'common practice', measure: () => ({ value: reS('eN'), reference: 3e6 }) },
+      { id: 'transition.eN.range', title: 'envelope eᴺ at N = 9 lies between Re_x = 2e6 and 4e6', quantity: 'Re_x,tr (–)', tolerance: relativeWithin(1 / 3), source: 'common practice', measure: () => ({ value: reS('eN'), reference: 3e6 }) },
       {
         id: 'transition.michel',
         title: 'Michel: √(0.45 Re_x) = 1.174 (1 + 22400/Re_x) Re_x^0.46',

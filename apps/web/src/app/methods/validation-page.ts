@@ -18,13 +18,20 @@ export function formatValue(value: number | null): string {
   return magnitude >= 1e5 || magnitude < 1e-3 ? value.toExponential(4) : Number(value.toPrecision(5)).toString();
 }
 
+/** A tolerance or a difference: two significant figures are all it carries. */
+function short(value: number, signed = false): string {
+  const magnitude = Math.abs(value);
+  const text = value === 0 ? '0' : magnitude >= 1e5 || magnitude < 1e-3 ? value.toExponential(1) : Number(value.toPrecision(2)).toString();
+  return signed && value > 0 ? `+${text}` : text;
+}
+
 export function formatTolerance(c: Pick<ValidationCaseResultDto, 'tolerance'>): string {
-  return c.tolerance.kind === 'relative' ? `± ${formatPercent(c.tolerance.value)}` : `± ${formatValue(c.tolerance.value)}`;
+  return c.tolerance.kind === 'relative' ? `± ${formatPercent(c.tolerance.value)}` : `± ${short(c.tolerance.value)}`;
 }
 
 export function formatError(c: Pick<ValidationCaseResultDto, 'tolerance' | 'error'>): string {
   if (c.error === null) return '—';
-  return c.tolerance.kind === 'relative' ? formatPercent(c.error, true) : formatValue(c.error);
+  return c.tolerance.kind === 'relative' ? formatPercent(c.error, true) : short(c.error, true);
 }
 
 function formatPercent(fraction: number, signed = false): string {
