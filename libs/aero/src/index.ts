@@ -14,6 +14,7 @@ export * from './h-rex';
 export * from './head';
 export * from './michel';
 export * from './pressure-table';
+export * from './surface-checks';
 export * from './smoothing';
 export * from './squire-young';
 export * from './stagnation';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeCase, CaseError } from './analyze';
-import { parsePressureTable, type PressureTableParse } from './pressure-table';
+import { binaryTableFault, parsePressureTable, type PressureTableParse } from './pressure-table';
 
 function rows(result: PressureTableParse) {
   if (!result.ok) throw new Error(`unexpected problems: ${JSON.stringify(result.problems)}`);
@@ -49,8 +49,35 @@ describe('pressure table reader', () => {
     expect(found[0].message).toContain('expected 3');
   });
 
+  it('reads decimal commas when semicolons or tabs separate the fields (European spreadsheet exports)', () => {
+    const semicolons = 'x/c;y/c;Cp\n1,0;0,001;0,12\n0,5;0,06;-0,40\n0,0;0,0;1,0\n0,5;-0,05;-0,2;\n1,0;-0,001;0,1';
+    expect(rows(parsePressureTable(semicolons))).toEqual([
+      { line: 2, x: 1, y: 0.001, cp: 0.12 },
+      { line: 3, x: 0.5, y: 0.06, cp: -0.4 },
+      { line: 4, x: 0, y: 0, cp: 1 },
+      { line: 5, x: 0.5, y: -0.05, cp: -0.2 },
+      { line: 6, x: 1, y: -0.001, cp: 0.1 },
+    ]);
+    expect(rows(parsePressureTable('0,25\t-0,41\n0,5\t-0,2\n1\t0,1'))).toEqual([
+      { line: 1, x: 0.25, y: null, cp: -0.41 },
+      { line: 2, x: 0.5, y: null, cp: -0.2 },
+      { line: 3, x: 1, y: null, cp: 0.1 },
+    ]);
+    // A comma between decimal-point numbers still separates them.
+    expect(rows(parsePressureTable('0.5,-0.4\n1.0,0.1'))[0]).toEqual({ line: 1, x: 0.5, y: null, cp: -0.4 });
+  });
+
+  it('lists at most 20 problems and counts the rest', () => {
+    const text = ['x y cp', ...Array.from({ length: 45 }, (_, i) => `${i / 45} 0 bad${i}`)].join('\n');
+    const found = problems(parsePressureTable(text));
+    expect(found).toHaveLength(21);
+    expect(found[19]).toEqual({ line: 21, message: '"bad19" is not a number (cp)' });
+    expect(found[20]).toEqual({ line: 0, message: 'and 25 more lines with problems, not listed' });
+  });
+
   it('explains decimal commas, empty tables and headers without data', () => {
-    expect(problems(parsePressureTable('0,5;0,1;-0,3'))[0].message).toContain('decimal point');
+    // Decimal commas mixed with decimal points cannot be read either way.
+    expect(problems(parsePressureTable('0.5;0,1;-0,3'))[0].message).toContain('decimal point');
     expect(problems(parsePressureTable('# nothing here\n\n'))).toEqual([{ line: 0, message: 'the table has no data rows' }]);
     expect(problems(parsePressureTable('x y cp\n'))[0]).toEqual({ line: 1, message: 'the table has a header but no data rows' });
     expect(problems(parsePressureTable('alpha beta gamma delta\n1 1 0 0.1'))[0]).toMatchObject({ line: 1 });
@@ -87,5 +114,21 @@ describe('pressure table errors through the engine', () => {
   it('refuses a repeated point and a loop without its leading edge inside', () => {
     expect(field('x y cp\n1 0 0.1\n0.5 0.05 -0.3\n0.5 0.05 -0.3\n0 0 1\n0.5 -0.05 -0.1\n0.8 -0.03 0\n1 0 0.1').field).toBe('pressureTable line 4');
     expect(field('x y cp\n0 0 1\n0.2 0.04 -0.3\n0.4 0.05 -0.3\n0.6 0.04 -0.2\n0.8 0.02 0\n0.9 0.01 0.05\n1 0 0.1').detail).toContain('end of the loop');
+  });
+});
+
+describe('binaryTableFault', () => {
+  it('lets text tables through: UTF-8, Latin-1, tabs, Windows line ends and form feeds', () => {
+    expect(binaryTableFault(new TextEncoder().encode('x/c\ty/c\tCp\r\n1,0;0,0;0,12\r\n\f0.5 0.06 -0.40 # Zürich taps\n'))).toBeNull();
+    // "réglage" in Latin-1: é is the single byte 0xe9.
+    expect(binaryTableFault(Uint8Array.from([0x72, 0xe9, 0x67, 0x6c, 0x61, 0x67, 0x65, 0x0a, 0x30, 0x20, 0x31]))).toBeNull();
+  });
+
+  it('refuses a workbook or image saved as is, naming what gave it away', () => {
+    // The first bytes of a PNG (its signature, PNG specification ISO/IEC 15948, 5.2) and of a zip
+    // archive such as an .xlsx workbook ("PK\x03\x04", PKWARE APPNOTE.TXT, 4.3.7); both from memory.
+    expect(binaryTableFault(Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))).toBe('holds binary data (control byte 0x1a at byte 7)');
+    expect(binaryTableFault(Uint8Array.from([0x50, 0x4b, 0x03, 0x04, 0x14, 0x00]))).toBe('holds binary data (control byte 0x03 at byte 3)');
+    expect(binaryTableFault(Uint8Array.from([0x31, 0x20, 0x00, 0x32]))).toBe('holds binary data (NUL bytes)');
   });
 });

@@ -2,7 +2,9 @@
  * Reader for pasted or uploaded pressure tables: rows of `x cp` or `x y cp`.
  *
  * Fields are separated by tabs, commas, semicolons or spaces; `#` starts a comment to the end of the
- * line; blank lines are skipped; one header row naming the columns is allowed before the data (names
+ * line. A table whose fields are separated by semicolons or tabs and whose numbers are written with a
+ * decimal comma (`0,25;-0,41`, as spreadsheets export in much of Europe) is read with the comma as the
+ * decimal mark, when no number in it has a decimal point; blank lines are skipped; one header row naming the columns is allowed before the data (names
  * such as `x`, `x/c`, `y`, `z/c`, `cp`, `Cp`, `-cp`, in any order; `-cp` columns are negated).
  * Without a header, two columns are `x cp` and three are `x y cp`. A table of an axisymmetric body
  * (`radius: true`) needs a header that also names a body-radius column (`r`, `r/c`, `rc`, `r/l` or
@@ -35,7 +37,10 @@ export type PressureTableParse =
 export interface PressureTableOptions {
   /** Refuse tables with more data rows than this (default 200 000). */
   maxRows?: number;
-  /** Stop collecting problems after this many (default 20). */
+  /**
+   * List at most this many problems (default 20); the rest are counted in one closing problem ("and
+   * N more lines with problems").
+   */
   maxProblems?: number;
   /** Read a body-radius column too (axisymmetric bodies); the header must name it. */
   radius?: boolean;
@@ -45,7 +50,27 @@ export interface PressureTableOptions {
 export const RADIUS_COLUMN_NAMES: readonly string[] = ['r', 'r/c', 'rc', 'r/l', 'radius'];
 
 const FIELD_SEPARATOR = /\s*[,;\t]\s*|\s+/;
+/** With a decimal comma only semicolons and tabs separate fields. */
+const DECIMAL_COMMA_SEPARATOR = /\s*[;\t]\s*/;
 const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eEdD][+-]?\d+)?$/;
+const DECIMAL_COMMA_NUMBER = /^[+-]?\d*,\d+(?:[eE][+-]?\d+)?$/;
+
+/**
+ * Whether the table writes numbers with a decimal comma: its data lines are separated by semicolons
+ * or tabs, some field reads as a decimal-comma number, and no number has a decimal point.
+ */
+export function usesDecimalComma(lines: readonly string[]): boolean {
+  let commaNumbers = 0;
+  for (const raw of lines) {
+    const hash = raw.indexOf('#');
+    const content = (hash >= 0 ? raw.slice(0, hash) : raw).trim();
+    if (content === '' || !/\d/.test(content)) continue;
+    if (/\d\.\d|^\.\d|[;\t\s]\.\d/.test(content)) return false;
+    if (!/[;\t]/.test(content)) continue;
+    for (const field of content.split(DECIMAL_COMMA_SEPARATOR)) if (DECIMAL_COMMA_NUMBER.test(field.replace(/^"|"$/g, ''))) commaNumbers++;
+  }
+  return commaNumbers > 0;
+}
 
 type Column = 'x' | 'y' | 'cp' | 'minusCp';
 
@@ -58,16 +83,19 @@ function columnOf(name: string): Column | null {
   return null;
 }
 
-function parseNumber(text: string): number {
+function parseNumber(text: string, decimalComma = false): number {
+  if (decimalComma && DECIMAL_COMMA_NUMBER.test(text)) return Number(text.replace(',', '.'));
   return NUMBER.test(text) ? Number(text.replace(/[dD]/, 'e')) : NaN;
 }
 
-function splitFields(content: string): string[] {
+function splitFields(content: string, decimalComma = false): string[] {
   let trimmed = content.trim();
   // A separator at the end of a row (spreadsheet exports) does not open a field.
-  if (/[,;]$/.test(trimmed)) trimmed = trimmed.slice(0, -1).trimEnd();
+  if ((decimalComma ? /;$/ : /[,;]$/).test(trimmed)) trimmed = trimmed.slice(0, -1).trimEnd();
   // Spreadsheet exports may quote every field.
-  return trimmed.split(FIELD_SEPARATOR).map((field) => (field.length >= 2 && field.startsWith('"') && field.endsWith('"') ? field.slice(1, -1).trim() : field));
+  return trimmed
+    .split(decimalComma ? DECIMAL_COMMA_SEPARATOR : FIELD_SEPARATOR)
+    .map((field) => (field.length >= 2 && field.startsWith('"') && field.endsWith('"') ? field.slice(1, -1).trim() : field));
 }
 
 /** Parse a pressure table; see the module comment for the accepted layout. */
@@ -77,20 +105,28 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
   const problems: PressureTableProblem[] = [];
   const rows: PressureTableRow[] = [];
   const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+  const decimalComma = usesDecimalComma(lines);
+  const read = (field: string) => parseNumber(field, decimalComma);
+  // Problems past the listed ones are only counted.
+  let unlisted = 0;
+  const listProblem = (problem: PressureTableProblem) => {
+    if (problems.length < maxProblems) problems.push(problem);
+    else unlisted++;
+  };
 
   let layout: { x: number; y: number; cp: number; cpSign: number; r: number; count: number; definedAt: number } | null = null;
   let headerLine: number | null = null;
   let names: string[] = [];
 
-  for (let index = 0; index < lines.length && problems.length < maxProblems; index++) {
+  for (let index = 0; index < lines.length; index++) {
     const line = index + 1;
     const hash = lines[index].indexOf('#');
     const content = (hash >= 0 ? lines[index].slice(0, hash) : lines[index]).trim();
     if (content === '') continue;
-    const fields = splitFields(content);
+    const fields = splitFields(content, decimalComma);
 
     if (layout === null) {
-      const values = fields.map(parseNumber);
+      const values = fields.map(read);
       if (values.every(Number.isNaN) && headerLine === null && rows.length === 0 && /[a-zA-Z]/.test(content)) {
         headerLine = line;
         names = fields;
@@ -114,7 +150,7 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
       if (fromHeader !== null) {
         layout = { ...fromHeader, r, count: names.length, definedAt: headerLine! };
         if (fields.length !== names.length) {
-          problems.push({ line, message: `${fields.length} values, but the header on line ${headerLine} names ${names.length} columns` });
+          listProblem({ line, message: `${fields.length} values, but the header on line ${headerLine} names ${names.length} columns` });
           continue;
         }
       } else if (fields.length === 2) {
@@ -128,7 +164,7 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
     }
 
     if (fields.length !== layout.count) {
-      problems.push({ line, message: `${fields.length} values, expected ${layout.count} as on line ${layout.definedAt}${decimalCommaHint(content)}` });
+      listProblem({ line, message: `${fields.length} values, expected ${layout.count} as on line ${layout.definedAt}${decimalCommaHint(content)}` });
       continue;
     }
     const columnNames = layout.y >= 0 ? ['x', 'y', 'cp'] : ['x', 'cp'];
@@ -137,14 +173,14 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
     let bad = false;
     for (let k = 0; k < picked.length; k++) {
       const field = fields[picked[k]];
-      const value = field === '' ? NaN : parseNumber(field);
+      const value = field === '' ? NaN : read(field);
       if (Number.isNaN(value)) {
-        problems.push({ line, message: field === '' ? `empty ${columnNames[k]} value` : `"${field}" is not a number (${columnNames[k]})` });
+        listProblem({ line, message: field === '' ? `empty ${columnNames[k]} value` : `"${field}" is not a number (${columnNames[k]})` });
         bad = true;
         break;
       }
       if (!Number.isFinite(value)) {
-        problems.push({ line, message: `${columnNames[k]} value "${field}" is out of range` });
+        listProblem({ line, message: `${columnNames[k]} value "${field}" is out of range` });
         bad = true;
         break;
       }
@@ -153,14 +189,14 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
     if (bad) continue;
     let radius: number | undefined;
     if (layout.r >= 0) {
-      radius = parseNumber(fields[layout.r]);
+      radius = read(fields[layout.r]);
       if (!(radius >= 0) || !Number.isFinite(radius)) {
-        problems.push({ line, message: `the radius "${fields[layout.r]}" is not a non-negative number` });
+        listProblem({ line, message: `the radius "${fields[layout.r]}" is not a non-negative number` });
         continue;
       }
     }
     if (rows.length >= maxRows) {
-      problems.push({ line, message: `more than ${maxRows} data rows (limit)` });
+      listProblem({ line, message: `more than ${maxRows} data rows (limit)` });
       break;
     }
     const row: PressureTableRow =
@@ -169,6 +205,7 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
     rows.push(row);
   }
 
+  if (unlisted > 0) problems.push({ line: 0, message: `and ${unlisted} more ${unlisted === 1 ? 'line' : 'lines'} with problems, not listed` });
   if (problems.length > 0) return { ok: false, problems };
   if (rows.length === 0) {
     return { ok: false, problems: [{ line: headerLine ?? 0, message: headerLine === null ? 'the table has no data rows' : 'the table has a header but no data rows' }] };
@@ -192,4 +229,20 @@ function layoutFromHeader(header: (Column | null)[], width: number): { x: number
 
 function decimalCommaHint(content: string): string {
   return content.includes(';') && content.includes(',') ? ' (decimal commas are not read; use a decimal point)' : '';
+}
+
+/**
+ * Why a file's bytes are not a text table, or null when they may be one: a NUL byte, or a control
+ * character text never holds (below space, except tab, line feed, form feed and carriage return; and
+ * DEL). Spreadsheet workbooks, images and archives always have some; a table saved as CSV or text has
+ * none. The notebook checks before it uploads, the server again before it stores.
+ */
+export function binaryTableFault(bytes: Uint8Array): string | null {
+  const limit = Math.min(bytes.length, 1 << 20);
+  for (let i = 0; i < limit; i++) {
+    const b = bytes[i]!;
+    if (b === 0) return 'holds binary data (NUL bytes)';
+    if ((b < 0x20 && b !== 0x09 && b !== 0x0a && b !== 0x0c && b !== 0x0d) || b === 0x7f) return `holds binary data (control byte 0x${b.toString(16).padStart(2, '0')} at byte ${i + 1})`;
+  }
+  return null;
 }

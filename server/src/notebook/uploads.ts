@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { Request, Response } from 'express';
 import multer from 'multer';
+import { binaryTableFault } from '@laminote/aero';
 import { textFault, UPLOAD_LIMIT_BYTES, type UploadResponse } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
@@ -53,7 +54,8 @@ function decode(bytes: Buffer): { text: string; encoding: UploadResponse['encodi
 
 export async function storeUpload(db: Db, actor: SessionUser, ids: { projectId: string; studyId: string }, file: Express.Multer.File): Promise<UploadResponse> {
   const bytes = file.buffer;
-  if (bytes.includes(0)) throw badRequest('The file holds binary data (NUL bytes); upload a text table of x [y] cp rows.', 'file');
+  const fault = binaryTableFault(bytes);
+  if (fault) throw badRequest(`The file is not a text table: it ${fault}. Save the sheet as CSV or text (x [y] Cp rows) and upload that.`, 'file');
   const { text, encoding } = decode(bytes);
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const contentType = CONTENT_TYPES.has(file.mimetype) ? file.mimetype : 'application/octet-stream';

@@ -1,4 +1,4 @@
-import { type PressureTableProblem, edgeVelocityRatio, parsePressureTable, splitAtStagnation, StagnationError } from '@laminote/aero';
+import { type PressureTableProblem, edgeVelocityRatio, oneSurfaceWarnings, parsePressureTable, splitAtStagnation, StagnationError } from '@laminote/aero';
 import type { PressureResult } from '@laminote/contracts';
 import { PLOT_COLOURS, type PlotFigure, type PlotTrace } from '../../shared/plot';
 
@@ -12,9 +12,11 @@ export interface CpPreview {
   readonly stagnation: { readonly x: number; readonly cp: number } | null;
   /** Why the stagnation point could not be found (the table reads, but not as a closed loop). */
   readonly stagnationProblem: string | null;
+  /** What looks wrong with a table that reads (a loop pasted as one surface; no stagnation point at its start). */
+  readonly warnings: readonly string[];
 }
 
-const EMPTY: CpPreview = { problems: [], rowCount: 0, hasY: false, figure: null, stagnation: null, stagnationProblem: null };
+const EMPTY: CpPreview = { problems: [], rowCount: 0, hasY: false, figure: null, stagnation: null, stagnationProblem: null, warnings: [] };
 
 function cpAxis(): PlotFigure['y'] {
   return { title: 'Cp', reversed: true };
@@ -37,10 +39,11 @@ export function previewCpTable(text: string, layout: 'closedLoop' | 'surface', s
   const x = rows.map((r) => r.x);
   const cp = rows.map((r) => r.cp);
   const lines = rows.map((r) => `line ${r.line}`);
-  const base = { problems: [], rowCount: rows.length, hasY: parsed.hasY };
+  const base = { problems: [], rowCount: rows.length, hasY: parsed.hasY, warnings: [] as string[] };
   if (layout === 'surface') {
     return {
       ...base,
+      warnings: oneSurfaceWarnings(rows),
       figure: { x: { title: 'x/c' }, y: cpAxis(), traces: [{ x, y: cp, name: surfaceName || 'surface', mode: 'lines+markers', markerSize: 3, text: lines }] },
       stagnation: null,
       stagnationProblem: null,
@@ -88,7 +91,10 @@ export function previewCpTable(text: string, layout: 'closedLoop' | 'surface', s
   }
 }
 
-/** The plot of a pressure cell's computed result: each surface, and the stagnation point the server found. */
+/**
+ * The plot of a pressure cell's computed result: each surface as read, the Cp of the smoothing fit
+ * the analysis differentiates (when it smooths), and the stagnation point the server found.
+ */
 export function resultFigure(result: PressureResult): PlotFigure {
   const traces: PlotTrace[] = result.surfaces.map((surface, i) => ({
     x: surface.x,
@@ -99,9 +105,34 @@ export function resultFigure(result: PressureResult): PlotFigure {
     color: PLOT_COLOURS[i === 0 ? 0 : 2],
     text: surface.line.map((line) => (line === null ? 'stagnation point' : `line ${line}`)),
   }));
+  result.surfaces.forEach((surface, i) => {
+    if (surface.smoothing && surface.smoothing.halfWidth > 1) {
+      traces.push({ x: surface.x, y: surface.smoothing.cp, name: `${surface.name}, smoothed`, color: PLOT_COLOURS[i === 0 ? 1 : 3], width: 1.5 });
+    }
+  });
   const stagnation = resultStagnation(result);
   if (stagnation) traces.push(stagnationTrace(stagnation.x, stagnation.cp));
   return { x: { title: 'x/c' }, y: cpAxis(), traces };
+}
+
+/**
+ * dUe/ds along each surface as the analysis takes it (the smoothing fit's slope) beside the unsmoothed
+ * slope (the parabola through each point and its neighbours); null when the result has no smoothing.
+ */
+export function slopeFigure(result: PressureResult): PlotFigure | null {
+  const traces: PlotTrace[] = [];
+  result.surfaces.forEach((surface, i) => {
+    const view = surface.smoothing;
+    if (!view) return;
+    traces.push({ x: surface.x, y: view.dUedsRaw, name: `${surface.name}, unsmoothed`, mode: 'markers', markerSize: 3, color: PLOT_COLOURS[i === 0 ? 0 : 2] });
+    if (view.halfWidth > 1) traces.push({ x: surface.x, y: view.dUeds, name: `${surface.name}, smoothed`, color: PLOT_COLOURS[i === 0 ? 1 : 3], width: 1.5 });
+  });
+  if (traces.length === 0) return null;
+  // The slope is unbounded at the attachment line; keep the rest of the curve readable.
+  const values = result.surfaces.flatMap((surface) => (surface.smoothing?.dUeds ?? []).filter((_, k) => surface.s[k]! > 0.03 * (surface.s.at(-1) ?? 1)));
+  const sorted = values.map(Math.abs).sort((a, b) => a - b);
+  const span = sorted.length > 0 ? 1.5 * sorted[Math.floor(0.95 * (sorted.length - 1))]! : 1;
+  return { x: { title: 'x/c' }, y: { title: 'dUe/ds (Ue/V∞ per s/c, at M = 0)', range: [-span, span] }, traces };
 }
 
 /** The stagnation point of a computed loop, with its Cp: the surfaces start at the interpolated point. */

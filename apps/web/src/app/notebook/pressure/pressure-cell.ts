@@ -7,22 +7,26 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { binaryTableFault } from '@laminote/aero';
 import { type DraftCell, type PressureResult, UPLOAD_LIMIT_BYTES } from '@laminote/contracts';
 import { problemMessage, toProblem } from '../../core/problem';
 import { Plot } from '../../shared/plot';
-import { bindCellForm } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../draft-session';
 import { NotebookApi } from '../notebook-api';
-import { previewCpTable, resultFigure, resultStagnation } from './cp-preview';
+import { bindCellForm, numberInput, numberText } from '../cell-form';
+import { previewCpTable, resultFigure, resultStagnation, slopeFigure } from './cp-preview';
 
 type Layout = 'closedLoop' | 'surface';
+type Smoothing = 'off' | 'auto' | 'width';
 
 interface PressureFormValue {
   text: string;
   layout: Layout;
   surfaceName: string;
   hasRadius: boolean;
+  smoothing: Smoothing;
+  smoothingHalfWidth: string;
 }
 
 /** A problem as the cell lists it: the line it is on (0 for the table as a whole) and what is wrong. */
@@ -65,6 +69,8 @@ export class PressureCell {
     layout: new FormControl<Layout>('closedLoop', { nonNullable: true }),
     surfaceName: new FormControl('upper', { nonNullable: true }),
     hasRadius: new FormControl(false, { nonNullable: true }),
+    smoothing: new FormControl<Smoothing>('auto', { nonNullable: true }),
+    smoothingHalfWidth: new FormControl('', { nonNullable: true }),
   });
 
   private readonly binding = bindCellForm<PressureFormValue>({
@@ -75,6 +81,8 @@ export class PressureCell {
       layout: inputs['layout'] === 'surface' ? 'surface' : 'closedLoop',
       surfaceName: typeof inputs['surfaceName'] === 'string' ? inputs['surfaceName'] : 'upper',
       hasRadius: inputs['hasRadius'] === true,
+      smoothing: inputs['smoothing'] === 'off' || inputs['smoothing'] === 'width' ? inputs['smoothing'] : 'auto',
+      smoothingHalfWidth: numberText(inputs['smoothingHalfWidth']),
     }),
     fromForm: (value, previous) => {
       const edited = value.text !== previous['text'];
@@ -84,6 +92,8 @@ export class PressureCell {
         layout: value.layout,
         surfaceName: value.surfaceName,
         hasRadius: value.hasRadius,
+        smoothing: value.smoothing,
+        smoothingHalfWidth: value.smoothing === 'width' ? (numberInput(value.smoothingHalfWidth) ?? 3) : undefined,
         // A table edited after upload is no longer the stored file; the name stays to say where it came from.
         uploadId: edited ? null : (previous['uploadId'] ?? null),
         filename: previous['filename'] ?? null,
@@ -95,6 +105,8 @@ export class PressureCell {
   protected readonly uploading = signal(false);
   protected readonly uploadProblem = signal<string | null>(null);
   protected readonly uploadLimitMb = UPLOAD_LIMIT_BYTES / (1024 * 1024);
+  /** The table an upload replaced, until put back or edited further: nothing pasted is lost to an upload. */
+  protected readonly replaced = signal<{ readonly inputs: Readonly<Record<string, unknown>>; readonly filename: string } | null>(null);
 
   protected readonly inputs = computed(() => this.cell().inputs);
   protected readonly layout = computed<Layout>(() => (this.inputs()['layout'] === 'surface' ? 'surface' : 'closedLoop'));
@@ -125,8 +137,13 @@ export class PressureCell {
       const error = this.cell().output?.status === 'error' ? this.cell().output?.error : null;
       for (const p of error?.problems ?? []) add(p.line, p.message);
     }
-    return list.sort((a, b) => a.line - b.line);
+    // By line, the table's own problems first; the count of problems not listed stays last.
+    const unlisted = (p: LineProblem) => p.line === 0 && /^and \d+ more/.test(p.message);
+    return list.sort((a, b) => Number(unlisted(a)) - Number(unlisted(b)) || a.line - b.line);
   });
+
+  /** Warnings on the table as read here, until the run's own (which include them) are shown. */
+  protected readonly previewWarnings = computed(() => (this.result() && this.cell().runState === 'current' ? [] : this.preview().warnings));
 
   protected readonly result = computed(() => {
     const shown = shownResult(this.cell());
@@ -138,6 +155,21 @@ export class PressureCell {
     const result = this.result();
     if (result && this.cell().runState === 'current') return resultFigure(result);
     return this.preview().figure;
+  });
+
+  /** dUe/ds smoothed and unsmoothed, while the result is current. */
+  protected readonly slopeFigure = computed(() => {
+    const result = this.result();
+    return result && this.cell().runState === 'current' ? slopeFigure(result) : null;
+  });
+
+  /** The smoothing the run took, per surface, in words. */
+  protected readonly smoothingSummary = computed(() => {
+    const result = this.result();
+    if (!result || this.cell().runState !== 'current') return [];
+    return result.surfaces.flatMap((surface) =>
+      surface.smoothing ? [{ name: surface.name, halfWidth: surface.smoothing.halfWidth, scatter: surface.smoothing.scatter }] : [],
+    );
   });
 
   protected readonly stagnation = computed(() => {
@@ -166,16 +198,29 @@ export class PressureCell {
     area.scrollTop = Math.max(0, (line - 3) * lineHeight);
   }
 
+  /** Puts back the table an upload replaced. */
+  protected putBack(): void {
+    const replaced = this.replaced();
+    if (!replaced) return;
+    this.session.setInputs(this.cell().cellId, { ...replaced.inputs });
+    this.replaced.set(null);
+  }
+
   protected pickFile(input: HTMLInputElement): void {
     input.value = '';
     input.click();
   }
 
-  protected upload(event: Event): void {
+  protected async upload(event: Event): Promise<void> {
     const file = (event.target as HTMLInputElement).files?.[0];
     if (!file) return;
     if (file.size > UPLOAD_LIMIT_BYTES) {
       this.uploadProblem.set(`${file.name} is ${(file.size / (1024 * 1024)).toFixed(1)} MB; the limit is ${this.uploadLimitMb} MB.`);
+      return;
+    }
+    const binary = binaryTableFault(await firstBytes(file));
+    if (binary) {
+      this.uploadProblem.set(`${file.name} is not a text table: it ${binary}. Save the sheet as CSV or text (x [y] Cp rows) and upload that; the table above is unchanged.`);
       return;
     }
     this.uploading.set(true);
@@ -184,6 +229,9 @@ export class PressureCell {
       next: (upload) => {
         this.uploading.set(false);
         const current = this.cell();
+        const before = typeof current.inputs['text'] === 'string' ? current.inputs['text'] : '';
+        // Whatever was there before stays one click away.
+        this.replaced.set(before.trim() !== '' && before !== upload.text ? { inputs: current.inputs, filename: upload.filename } : null);
         this.session.setInputs(current.cellId, { ...current.inputs, text: upload.text, uploadId: upload.uploadId, filename: upload.filename });
       },
       error: (error: unknown) => {
@@ -192,4 +240,16 @@ export class PressureCell {
       },
     });
   }
+}
+
+/** The first 64 KB of a file, where any binary format shows itself. */
+async function firstBytes(file: Blob): Promise<Uint8Array> {
+  const head = file.slice(0, 65_536);
+  if (typeof head.arrayBuffer === 'function') return new Uint8Array(await head.arrayBuffer());
+  return new Promise((resolve, reject) => {
+    const reader = new FileReader();
+    reader.onload = () => resolve(new Uint8Array(reader.result as ArrayBuffer));
+    reader.onerror = () => reject(reader.error);
+    reader.readAsArrayBuffer(head);
+  });
 }

@@ -54,6 +54,33 @@ export class PressureCellHarness extends ComponentHarness {
     return Promise.all(lines.map(async (line, i) => ({ line: (await line.text()).trim(), message: (await messages[i].text()).trim() })));
   }
 
+  private readonly warningTexts = this.locatorForAll('.table-warning');
+  private readonly uploadProblemText = this.locatorForOptional('.field-problem');
+  private readonly replacedNotice = this.locatorForOptional('.replaced');
+  private readonly putBackButton = this.locatorForOptional('.put-back');
+
+  /** Warnings on a table that reads (a loop pasted as one surface, no stagnation point at its start). */
+  async getWarnings(): Promise<string[]> {
+    return Promise.all((await this.warningTexts()).map((w) => w.text({ exclude: 'mat-icon' })));
+  }
+
+  async getUploadProblem(): Promise<string | null> {
+    const p = await this.uploadProblemText();
+    return p ? p.text() : null;
+  }
+
+  /** The note that an upload replaced the table, if shown. */
+  async getReplacedNote(): Promise<string | null> {
+    const p = await this.replacedNotice();
+    return p ? p.text({ exclude: '.put-back, mat-icon' }) : null;
+  }
+
+  async putBack(): Promise<void> {
+    const button = await this.putBackButton();
+    if (!button) throw new Error('no “Put back the previous table” button');
+    await button.click();
+  }
+
   async getStagnationPoint(): Promise<string | null> {
     const dd = await this.stagnation();
     return dd ? dd.text() : null;
