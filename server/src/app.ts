@@ -26,6 +26,7 @@ import { meRouter } from './me/routes';
 import { threadsRouter } from './threads/routes';
 import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
+import { openapiRouter } from './openapi/routes';
 import { bearerAuth } from './tokens/bearer';
 
 export interface AppDeps {
@@ -122,6 +123,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(notebookRouter({ db, engine: deps.engine, logger }));
   api.use(devMailRouter({ config }));
   api.use(methodsRouter());
+  api.use('/openapi.json', openapiRouter({ config }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -10,5 +10,6 @@ export * from './study-document';
 export * from './values';
 export * from './methods';
 export * from './tokens';
+export * from './api-description';
 export * from './section';
 export * from './text';
