@@ -52,4 +52,21 @@ describe('output keys', () => {
     // Table problems are shown by line but do not stop a run: the run stores them as the cell's failure.
     expect(plans.get(p.cellId)!.key).not.toBeNull();
   });
+
+  it('plans a draft seen before with the cells given now, and a changed one afresh', () => {
+    const flow = cell('flow', { mode: 'reynolds', reynolds: 6e6 });
+    const p = cell('pressure', { text: 'x cp\n1 0\n0 1\n1 0' });
+    const a = cell('analysis', { flowCellId: flow.cellId, pressureCellId: p.cellId });
+    const first = planCells([flow, p, a]);
+    // The same content after a run: the cells carry output keys now, which a plan hands back as given.
+    const ran = [flow, p, { ...a, lastOutputKey: 'k1' }];
+    const again = planCells(ran);
+    expect([...again.keys()]).toEqual([...first.keys()]);
+    expect(again.get(a.cellId)!.cell).toBe(ran[2]);
+    expect(again.get(a.cellId)!.key).toBe(first.get(a.cellId)!.key);
+    // A table edited in place (same ids) is planned again: its new problem shows and its key changes.
+    const edited = planCells([flow, { ...p, inputs: { text: 'x cp\n1 0\n0 1\n1 zero' } }, a]);
+    expect(edited.get(p.cellId)!.problems).not.toEqual(first.get(p.cellId)!.problems);
+    expect(edited.get(a.cellId)!.key).not.toBe(first.get(a.cellId)!.key);
+  });
 });

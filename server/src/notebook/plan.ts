@@ -44,14 +44,37 @@ function keyedInputs(kind: CellKind, inputs: CellInputs[CellKind]): unknown {
 }
 
 export function planCells(cells: readonly StoredCell[]): Map<string, CellPlan> {
+  // A plan reads only each cell's id, kind and inputs: the same draft content plans the same, so a
+  // draft answered, run and saved in turn is validated (tables parsed) and hashed once.
+  const fingerprint = JSON.stringify(cells.map((c) => [c.cellId, c.kind, c.inputs]));
+  const known = recentPlans.get(fingerprint);
+  if (known) {
+    recentPlans.delete(fingerprint);
+    recentPlans.set(fingerprint, known);
+    // The cells themselves (with their output keys) are the ones given now.
+    const byId = new Map(cells.map((c) => [c.cellId, c]));
+    return new Map([...known].map(([id, plan]) => [id, { ...plan, cell: byId.get(id)! }]));
+  }
   const planned = planStudyCells(cells);
   const plans = new Map<string, CellPlan>();
   for (const plan of planned.values()) {
     const key = plan.runnable ? outputKey(plan.kind, keyedInputs(plan.kind, plan.inputs!), plan.refs.map((r) => plans.get(r.cellId)!.key!)) : null;
     plans.set(plan.cell.cellId, { ...plan, key });
   }
-  return plans;
+  recentPlans.set(fingerprint, plans);
+  recentPlanChars += fingerprint.length;
+  for (const [old] of recentPlans) {
+    if (recentPlanChars <= RECENT_PLAN_CHARS) break;
+    recentPlans.delete(old);
+    recentPlanChars -= old.length;
+  }
+  return new Map([...plans].map(([id, plan]) => [id, { ...plan }]));
 }
+
+/** Plans of the drafts planned lately, by their content; bounded by the characters of that content. */
+const RECENT_PLAN_CHARS = 16 * 1024 * 1024;
+const recentPlans = new Map<string, Map<string, CellPlan>>();
+let recentPlanChars = 0;
 
 /** The worker task of a planned cell, with the inputs of the cells it uses (and theirs). Null when it cannot run. */
 export function taskOf(plan: CellPlan, plans: Map<string, CellPlan>): CellTask | null {
