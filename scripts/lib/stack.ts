@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import { existsSync, mkdtempSync, rmSync, chmodSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -66,6 +67,11 @@ export async function startTestStack(log: (line: string) => void, runSeed: (env:
       SMTP_SINK_HTTP_PORT: String(sinkHttpPort),
       DATA_DIR: path.join(scratch, 'data'),
       LOG_LEVEL: 'warn',
+      // The provider fake and the app share a client secret of this run's own: the server runs as in
+      // production, which refuses the built-in one.
+      OIDC_CLIENT_SECRET: randomBytes(24).toString('hex'),
+      // The tests sign many people in within a minute; the budget itself is tested with its own.
+      SIGN_IN_RATE_PER_MINUTE: '100000',
     };
     const oidc = startService('identity', TSX, ['oidc-fake/src/main.ts'], env, { quiet: true });
     services.push(oidc);

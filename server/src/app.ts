@@ -26,7 +26,6 @@ import { meRouter } from './me/routes';
 import { threadsRouter } from './threads/routes';
 import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
-import { openapiRouter } from './openapi/routes';
 import { bearerAuth } from './tokens/bearer';
 
 export interface AppDeps {
@@ -102,8 +101,8 @@ export function createApp(deps: AppDeps): Express {
   // A personal API token (Authorization: Bearer) stands in for the session on /api.
   app.use('/api', ...bearerAuth({ db, logger, perMinute: config.API_TOKEN_RATE_PER_MINUTE }));
   // Anonymous calls answer 401 before anything else is looked at; then anti-forgery.
-  app.use('/api', requireUser, csrfProtection());
-  app.use('/auth/logout', csrfProtection());
+  app.use('/api', requireUser, csrfProtection(config.PUBLIC_URL));
+  app.use('/auth/logout', csrfProtection(config.PUBLIC_URL));
   // Hostile input (NUL, broken Unicode, deep nesting, non-finite numbers, unknown cell inputs) answers
   // 400 here, for every route, before any handler or the database sees it.
   app.use(inputGuard);
@@ -123,7 +122,6 @@ export function createApp(deps: AppDeps): Express {
   api.use(notebookRouter({ db, engine: deps.engine, logger }));
   api.use(devMailRouter({ config }));
   api.use(methodsRouter());
-  api.use('/openapi.json', openapiRouter({ config }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

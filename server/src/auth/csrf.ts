@@ -19,10 +19,24 @@ export function setCsrfCookie(res: Response, token: string, secure: boolean): vo
   res.cookie(CSRF_COOKIE, token, { httpOnly: false, sameSite: 'strict', secure, path: '/' });
 }
 
-export function csrfProtection(): RequestHandler {
+/**
+ * `publicUrl`: where people reach the app. A state-changing request that a browser says comes from
+ * another origin (the Origin header, or Sec-Fetch-Site: cross-site) is refused before the token is
+ * looked at; a request without either header (a script, an old browser) is judged by the token alone.
+ */
+export function csrfProtection(publicUrl?: string): RequestHandler {
+  const ownOrigin = publicUrl ? new URL(publicUrl).origin : null;
   return (req, _res, next) => {
     // A request made with a personal API token carries no cookie another site could make a browser send.
     if (SAFE.has(req.method) || req.apiToken) return next();
+    const origin = req.get('origin');
+    if ((ownOrigin && origin && origin !== ownOrigin) || req.get('sec-fetch-site') === 'cross-site') {
+      return next(
+        new ProblemError(403, 'csrf', 'This request comes from another site', {
+          detail: `State-changing requests are accepted only from ${ownOrigin ?? 'this site'}; open Laminote there and try again.`,
+        }),
+      );
+    }
     const expected = req.session?.csrfToken;
     const given = req.get(CSRF_HEADER);
     if (!expected || !given || !equal(expected, given)) {

@@ -4,11 +4,12 @@ import type { Config } from '../config';
 import type { Db } from '../db/client';
 import type { Logger } from '../logger';
 import { ProblemError, unauthorized } from '../http/problem';
+import { limitRequests } from '../http/rate-limit';
 import { newCsrfToken, setCsrfCookie } from './csrf';
 import type { OidcClient } from './oidc';
 import { SESSION_COOKIE } from './session';
 import { forgetSessionUser, sessionUserCache } from './session-cache';
-import { findSessionUser, upsertUserFromIdentity } from './users';
+import { EmailTakenError, findSessionUser, UnverifiedEmailError, upsertUserFromIdentity } from './users';
 
 interface AuthDeps {
   config: Config;
@@ -16,6 +17,14 @@ interface AuthDeps {
   oidc: OidcClient;
   logger: Logger;
 }
+
+/** How long a sign-in that was started may take to come back: its session row lives this long only. */
+export const LOGIN_STATE_TTL_MS = 10 * 60_000;
+/**
+ * Set at sign-out: the next sign-in asks the provider to ask who is signing in (prompt=login), even
+ * if the provider's own session outlived ours (a provider that kept it after the end-session page).
+ */
+export const SIGNED_OUT_COOKIE = 'laminote.signedout';
 
 /** Only same-site paths may be a return target, so the login cannot be used as an open redirect. */
 export function safeReturnTo(value: unknown): string {
@@ -44,8 +53,11 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
     });
   };
 
+  // Anonymous routes that write a session row: a budget per client address.
+  const signInBudget = limitRequests({ perMinute: config.SIGN_IN_RATE_PER_MINUTE, what: 'sign-in attempts' });
+
   // Authorization code flow with PKCE; state and nonce are checked on the way back.
-  router.get('/auth/login', async (req, res) => {
+  router.get('/auth/login', signInBudget, async (req, res) => {
     const configuration = await oidc.configuration().catch((err: unknown) => {
       throw unavailable(err);
     });
@@ -53,7 +65,10 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
     const state = client.randomState();
     const nonce = client.randomNonce();
     req.session.login = { codeVerifier, state, nonce, returnTo: safeReturnTo(req.query['returnTo']) };
+    // A sign-in in progress is kept minutes, not the hours of a signed-in session (its row expires then).
+    req.session.cookie.maxAge = LOGIN_STATE_TTL_MS;
     await save(req);
+    const askWho = /(?:^|;\s*)laminote\.signedout=1(?:;|$)/.test(req.headers.cookie ?? '');
     const url = client.buildAuthorizationUrl(configuration, {
       redirect_uri: redirectUri,
       scope: config.OIDC_SCOPES,
@@ -61,11 +76,13 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
       code_challenge_method: 'S256',
       state,
       nonce,
+      ...(askWho ? { prompt: 'login' } : {}),
     });
+    if (askWho) res.clearCookie(SIGNED_OUT_COOKIE, { path: '/' });
     res.redirect(url.href);
   });
 
-  router.get('/auth/callback', async (req, res) => {
+  router.get('/auth/callback', signInBudget, async (req, res) => {
     const pending = req.session.login;
     if (!pending) {
       throw new ProblemError(400, 'sign-in-expired', 'This sign-in was not started here or has expired', {
@@ -103,9 +120,15 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
         issuer: configuration.serverMetadata().issuer,
         subject: claims.sub,
         email: claims['email'] as string,
+        emailVerified: claims['email_verified'] === true,
         name: typeof claims['name'] === 'string' ? claims['name'] : '',
       }),
-    );
+    ).catch((err: unknown) => {
+      if (err instanceof UnverifiedEmailError || err instanceof EmailTakenError) {
+        throw new ProblemError(403, 'sign-in-refused', 'Sign-in could not be completed', { detail: err.message });
+      }
+      throw err;
+    });
     forgetSessionUser(db, user.id);
     const returnTo = pending.returnTo;
     // A fresh session id at sign-in prevents session fixation.
@@ -123,6 +146,7 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
     const idToken = req.session.idToken;
     await destroy(req);
     res.clearCookie(SESSION_COOKIE, { path: '/' });
+    res.cookie(SIGNED_OUT_COOKIE, '1', { httpOnly: true, sameSite: 'lax', secure, path: '/', maxAge: 30 * 24 * 3600_000 });
     let redirectTo = '/';
     try {
       const configuration = await oidc.configuration();

@@ -8,7 +8,23 @@ export interface Identity {
   issuer: string;
   subject: string;
   email: string;
+  /** Whether the provider says the e-mail address is the person's (the `email_verified` claim). */
+  emailVerified: boolean;
   name: string;
+}
+
+/** A first sign-in would take over a person added by e-mail, but the provider has not verified the address. */
+export class UnverifiedEmailError extends Error {
+  constructor() {
+    super('Your identity provider has not verified your e-mail address, so Laminote cannot match you to the person a project lead added. Verify the address with your provider, then sign in again.');
+  }
+}
+
+/** The e-mail address is already someone else's sign-in. */
+export class EmailTakenError extends Error {
+  constructor() {
+    super('This e-mail address already belongs to another sign-in. Ask a site admin.');
+  }
 }
 
 /**
@@ -25,8 +41,11 @@ export async function upsertUserFromIdentity(tx: Tx, identity: Identity): Promis
   if (existing) {
     if (existing.subject && existing.subject !== identity.subject && !bySubject) {
       // The e-mail belongs to another identity: refuse rather than merge two people.
-      throw new Error('email already bound to another identity');
+      throw new EmailTakenError();
     }
+    // Binding a pre-added person to whoever signs in with that address needs the provider's word that
+    // the address is theirs; otherwise anyone could register the address at a lax provider.
+    if (!bySubject && !identity.emailVerified) throw new UnverifiedEmailError();
     const [row] = await tx
       .update(users)
       .set({ issuer: identity.issuer, subject: identity.subject, email, name: identity.name || existing.name, lastSignInAt: sql`now()` })

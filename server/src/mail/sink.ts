@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -55,9 +55,11 @@ export async function startSink(options: SinkOptions): Promise<Sink> {
 
   const persist = () => {
     if (!options.file) return;
-    mkdirSync(path.dirname(options.file), { recursive: true });
+    mkdirSync(path.dirname(options.file), { recursive: true, mode: 0o700 });
     const temporary = `${options.file}.${process.pid}.tmp`;
-    writeFileSync(temporary, JSON.stringify(store));
+    // The copies hold people's mail: readable by this account only.
+    writeFileSync(temporary, JSON.stringify(store), { mode: 0o600 });
+    chmodSync(temporary, 0o600);
     renameSync(temporary, options.file);
   };
 
