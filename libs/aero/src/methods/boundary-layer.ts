@@ -36,6 +36,52 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
     usedFor: 'analysis cell: θ, H, cf and laminar separation up to transition',
   },
   {
+    id: 'compressible-thwaites',
+    name: 'Compressible laminar layer (Stewartson–Illingworth, Eckert’s reference temperature)',
+    purpose: 'For M∞ > 0: Thwaites’ method carried through the Stewartson–Illingworth transformation on an adiabatic wall.',
+    module: 'compressible-laminar.ts',
+    formulas: [
+      '\\theta^2 = \\frac{0.45\\,\\nu_0}{t^3 U_e^6} \\int_0^s C\\, t^{3/2} U_e^5\\, ds, \\qquad t = T_e/T_0',
+      '\\lambda = \\frac{\\theta^2\\, t^{1/2}}{C\\, \\nu_0} \\frac{dU_e}{ds}, \\qquad \\tau_w = C \\mu_0\\, t\\, l(\\lambda) \\frac{U_e}{\\theta}, \\qquad H = H_k + (1/t - 1)(H_k + 1)',
+      'C = \\frac{\\mu(T^*)\\, T_0}{\\mu_0\\, T^*}, \\quad T^* = T_e + 0.5(T_w - T_e) + 0.22(T_{aw} - T_e), \\quad T_{aw} = T_e\\left(1 + \\sqrt{Pr}\\,\\frac{\\gamma - 1}{2} M_e^2\\right)',
+    ],
+    symbols: [
+      { tex: 'T_0', meaning: 'total temperature of the flow normal to the leading edge', unit: 'K' },
+      { tex: 'C', meaning: 'Chapman–Rubesin factor at the reference temperature', unit: '–' },
+      { tex: 'H_k', meaning: 'kinematic (transformed) shape factor, which the transition correlations take', unit: '–' },
+      { tex: 'T_{aw}', meaning: 'adiabatic-wall (recovery) temperature, Pr = 0.72', unit: 'K' },
+    ],
+    validity: 'Subsonic attached laminar flow on an adiabatic wall; Sutherland viscosity (free-stream temperature from the ISA, else 288.15 K).',
+    sources: [
+      'K. Stewartson, Proc. Roy. Soc. A 200 (1949) 84–100; C. R. Illingworth, Proc. Roy. Soc. A 199 (1949) 533–558.',
+      'E. R. G. Eckert, J. Aeronaut. Sci. 22 (1955) 585–587 (reference temperature; coefficients from memory).',
+      'N. Rott & L. F. Crabtree, J. Aeronaut. Sci. 19 (1952) 553–565.',
+    ],
+    limits: [
+      'The transformation is exact for Pr = 1 and a linear viscosity law; C at the reference temperature carries the rest.',
+      'Flat-plate skin friction 1.2 % under the exact compressible layer, as Thwaites is under Blasius.',
+    ],
+    usedFor: 'analysis cell: θ, H, cf and Re_θ of the laminar layer when M∞ > 0',
+  },
+  {
+    id: 'falkner-skan-cooke',
+    name: 'Falkner–Skan–Cooke profiles (infinite swept wing)',
+    purpose: 'The chordwise and spanwise similarity profiles the crossflow criteria read, tabulated once by shooting.',
+    module: 'falkner-skan-cooke.ts',
+    formulas: [
+      "f''' + f f'' + \\beta (1 - f'^2) = 0, \\qquad g'' + f g' = 0",
+      "f(0) = f'(0) = g(0) = 0, \\quad f'(\\infty) = g(\\infty) = 1, \\qquad \\lambda = \\beta \\left(\\int f'(1 - f')\\, d\\eta\\right)^2",
+    ],
+    symbols: [
+      { tex: '\\beta', meaning: 'Hartree pressure-gradient parameter 2m/(m + 1)', unit: '–' },
+      { tex: "f', g", meaning: 'chordwise u/Ue and spanwise w/We', unit: '–' },
+    ],
+    validity: '−0.19 ≤ β ≤ 1.6, matched to the integral layer by λ (clamped outside).',
+    sources: ['V. M. Falkner & S. W. Skan, Phil. Mag. 12 (1931); D. R. Hartree, Proc. Camb. Phil. Soc. 33 (1937); J. C. Cooke, Proc. Camb. Phil. Soc. 46 (1950) 645–648.'],
+    limits: ['Local similarity: no upstream history of the crossflow.'],
+    usedFor: 'analysis cell on a swept section: crossflow profile, R_cf and R_δ2',
+  },
+  {
     id: 'mangler',
     name: 'Mangler transformation (bodies of revolution)',
     purpose: 'Carries Thwaites’ method over to axisymmetric bodies such as nacelles.',

@@ -79,15 +79,42 @@ export const FLOW_METHODS: MethodEntry[] = [
     usedFor: 'pressure distribution cell: surfaces, stagnation point and leading-edge gradient',
   },
   {
+    id: 'simple-sweep',
+    name: 'Simple sweep theory (infinite swept wing)',
+    purpose: 'The chordwise edge velocity of a swept wing from Cp on the free stream.',
+    module: 'swept-wing.ts',
+    formulas: ['\\frac{U_e}{V_\\infty} = \\sqrt{\\left(\\frac{Q_e}{V_\\infty}\\right)^2 - \\sin^2\\Lambda} = \\cos\\Lambda\\, \\frac{U_{e,n}}{V_n}\\Big(C_{p,n} = \\frac{C_p}{\\cos^2\\Lambda},\\, M_n = M_\\infty \\cos\\Lambda\\Big)'],
+    symbols: [
+      { tex: '\\Lambda', meaning: 'leading-edge sweep', unit: '°' },
+      { tex: 'Q_e', meaning: 'edge speed from Cp at M∞ (isentropic)', unit: '–' },
+    ],
+    validity: 'Wings of high aspect ratio away from root and tip; no spanwise pressure gradient.',
+    sources: ['D. Küchemann, "The Aerodynamic Design of Aircraft" (1978), ch. 4; common practice.'],
+    limits: ['Cp must be the swept wing’s, on the free stream: a two-dimensional section’s Cp above the attachment-line value is refused.', 'Taper and spanwise gradients are not modelled.'],
+    usedFor: 'analysis cell with a sweep: chordwise layer and attachment line',
+  },
+  {
     id: 'smoothing',
     name: 'Least-squares smoothing and differentiation',
     purpose: 'Smooths measured Ue(s) with scatter before its slope enters the boundary-layer march.',
     module: 'smoothing.ts',
-    formulas: ['f(t) \\approx a + b\\,t + c\\,t^2, \\quad t = s - s_i, \\qquad \\left.\\frac{dU_e}{ds}\\right|_{s_i} = b'],
-    symbols: [{ tex: 'h', meaning: 'half-width of the least-squares window, in stations', unit: '–' }],
+    formulas: [
+      'f(t) \\approx a + b\\,t + c\\,t^2, \\quad t = s - s_i, \\qquad \\left.\\frac{dU_e}{ds}\\right|_{s_i} = b',
+      '\\sigma^2 = \\overline{\\frac{r_i^2}{1 + w_-^2 + w_+^2}}, \\quad r_i = f_i - w_- f_{i-1} - w_+ f_{i+1}; \\qquad h_{auto} = \\min\\Big\\{h \\ge 2 : \\frac{\\sigma}{\\Delta s\\sqrt{h(h+1)(2h+1)/3}} \\le 0.01\\Big\\}',
+    ],
+    symbols: [
+      { tex: 'h', meaning: 'half-width of the least-squares window, in stations (off: 1)', unit: '–' },
+      { tex: '\\sigma', meaning: 'estimated scatter of Ue/V∞', unit: '–' },
+    ],
     validity: 'Any station spacing; exact for quadratics.',
-    sources: ['A. Savitzky & M. J. E. Golay, Analytical Chemistry 36 (1964) 1627–1639, here for arbitrary spacing.'],
-    limits: ['A wide window flattens real features (a suction peak, a shock foot) as well as scatter.'],
+    sources: [
+      'A. Savitzky & M. J. E. Golay, Analytical Chemistry 36 (1964) 1627–1639, here for arbitrary spacing.',
+      'J. Rice, "Bandwidth choice for nonparametric regression", Ann. Statist. 12 (1984) 1215–1230 (difference-based scatter estimate).',
+    ],
+    limits: [
+      'A wide window flattens real features (a suction peak, a shock foot) as well as scatter.',
+      'The automatic width aims at a slope noise of 0.01 in Ue/V∞ per chord: a rule of thumb, shown on the pressure cell so it can be overridden.',
+    ],
     usedFor: 'pressure distribution cell with smoothing switched on; the analysis cell’s dUe/ds',
   },
 ];
