@@ -72,6 +72,10 @@ describe('smoothing width from the estimated scatter', () => {
   it('keeps the narrow window on clean data and widens it on scattered taps, where the slope improves', () => {
     const { s, ue: clean } = taps(0, 1);
     expect(automaticHalfWidth(s, clean.map((v) => Number(v.toFixed(5)))).halfWidth).toBe(2);
+    // Coarse but clean: 16 stations of a curved distribution, as a panel code might give; the
+    // curvature is not taken for scatter.
+    const coarse = Array.from({ length: 16 }, (_, i) => (i / 15) ** 1.5);
+    expect(automaticHalfWidth(coarse, coarse.map((x) => 1 + 0.2 * Math.sin(3 * x) + 0.3 * x * x)).halfWidth).toBe(2);
     const { ue, exact } = taps(0.004, 11);
     const auto = automaticHalfWidth(s, ue);
     expect(auto.halfWidth).toBeGreaterThan(2);

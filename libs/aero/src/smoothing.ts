@@ -95,23 +95,40 @@ export function fitPolynomial(t: ArrayLike<number>, f: ArrayLike<number>, degree
 }
 
 /**
- * Estimate of the scatter σ of f(s) about a smooth curve: each interior value's departure from the
- * straight line through its neighbours, r_i = f_i − (w₋ f_{i−1} + w₊ f_{i+1}), has variance
- * σ² (1 + w₋² + w₊²) for independent errors, so σ² is the mean of r_i² / (1 + w₋² + w₊²) (the
- * difference-based variance estimator of J. Rice, Ann. Statist. 12 (1984) 1215–1230). Departures above
- * three times the median one are left out, so that the curvature round a leading edge does not count
- * as scatter (common practice).
+ * Estimate of the scatter σ of f(s) about a smooth curve, from the residuals of the local quadratic
+ * least-squares fit over five stations: r_i = f_i − f̂_i has variance σ² (1 − h_ii) for independent
+ * errors, h_ii the fit's leverage at its own station, so σ² is the mean of r_i² / (1 − h_ii) (a
+ * difference-based variance estimator after J. Rice, Ann. Statist. 12 (1984) 1215–1230, and T. Gasser,
+ * L. Sroka & C. Jennen-Steinmetz, Biometrika 73 (1986) 625–633; the quadratic takes out the curvature
+ * of smooth data, which would otherwise count as scatter). Residuals above nine times the median one
+ * (in r²) are left out, so that the leading edge's steep rise does not count either (common practice).
  */
 export function estimateScatter(s: ArrayLike<number>, f: ArrayLike<number>): number {
   const n = s.length;
-  if (n < 3) return 0;
-  const r2 = new Float64Array(n - 2);
-  for (let i = 1; i < n - 1; i++) {
-    const span = s[i + 1] - s[i - 1];
-    const wMinus = (s[i + 1] - s[i]) / span;
-    const wPlus = (s[i] - s[i - 1]) / span;
-    const r = f[i] - wMinus * f[i - 1] - wPlus * f[i + 1];
-    r2[i - 1] = (r * r) / (1 + wMinus * wMinus + wPlus * wPlus);
+  if (n < 6) return 0;
+  const r2 = new Float64Array(n - 4);
+  for (let i = 2; i < n - 2; i++) {
+    const scale = 0.5 * (s[i + 2] - s[i - 2]);
+    const si = s[i];
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+    for (let j = i - 2; j <= i + 2; j++) {
+      const t = (s[j] - si) / scale;
+      const tt = t * t;
+      s0 += 1;
+      s1 += t;
+      s2 += tt;
+      s3 += tt * t;
+      s4 += tt * tt;
+      t0 += f[j];
+      t1 += f[j] * t;
+      t2 += f[j] * tt;
+    }
+    const det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
+    const fit = (t0 * (s2 * s4 - s3 * s3) - s1 * (t1 * s4 - s3 * t2) + s2 * (t1 * s3 - s2 * t2)) / det;
+    // The fit at its own station for f = 1 there and 0 elsewhere (t = 0 at station i).
+    const leverage = (s2 * s4 - s3 * s3) / det;
+    const r = f[i] - fit;
+    r2[i - 2] = (r * r) / (1 - leverage);
   }
   const sorted = Float64Array.from(r2).sort();
   const m = sorted.length;
