@@ -1,8 +1,9 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { AddMember, CreateProject, Member, Project, UpdateMember, UpdateProject } from '@laminote/contracts';
+import { memberSchema, projectSchema, type AddMember, type CreateProject, type Member, type Project, type UpdateMember, type UpdateProject } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
+import { checked } from '../core/checked';
 
 /** Projects and their members. */
 @Injectable({ providedIn: 'root' })
@@ -16,32 +17,32 @@ export class ProjectApi {
 
   /** The caller's projects with their role in each (a site admin sees all of them). */
   list(): Observable<Project[]> {
-    return this.http.get<Project[]>(`${this.base}/projects`);
+    return this.http.get(`${this.base}/projects`).pipe(checked(projectSchema.array(), 'the projects'));
   }
 
   /** Site admins only. */
   create(body: CreateProject): Observable<Project> {
-    return this.http.post<Project>(`${this.base}/projects`, body);
+    return this.http.post(`${this.base}/projects`, body).pipe(checked(projectSchema, 'a project'));
   }
 
   get(projectId: string): Observable<Project> {
-    return this.http.get<Project>(this.project(projectId));
+    return this.http.get(this.project(projectId)).pipe(checked(projectSchema, 'a project'));
   }
 
   update(projectId: string, body: UpdateProject): Observable<Project> {
-    return this.http.patch<Project>(this.project(projectId), body);
+    return this.http.patch(this.project(projectId), body).pipe(checked(projectSchema, 'a project'));
   }
 
   members(projectId: string): Observable<Member[]> {
-    return this.http.get<Member[]>(`${this.project(projectId)}/members`);
+    return this.http.get(`${this.project(projectId)}/members`).pipe(checked(memberSchema.array(), 'the members'));
   }
 
   addMember(projectId: string, body: AddMember): Observable<Member> {
-    return this.http.post<Member>(`${this.project(projectId)}/members`, body);
+    return this.http.post(`${this.project(projectId)}/members`, body).pipe(checked(memberSchema, 'a member'));
   }
 
   updateMember(projectId: string, userId: string, body: UpdateMember): Observable<Member> {
-    return this.http.patch<Member>(`${this.project(projectId)}/members/${encodeURIComponent(userId)}`, body);
+    return this.http.patch(`${this.project(projectId)}/members/${encodeURIComponent(userId)}`, body).pipe(checked(memberSchema, 'a member'));
   }
 
   removeMember(projectId: string, userId: string): Observable<void> {

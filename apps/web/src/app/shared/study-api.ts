@@ -1,8 +1,9 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { CreateStudy, Study, UpdateStudy } from '@laminote/contracts';
+import { studySchema, type CreateStudy, type Study, type UpdateStudy } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
+import { checked } from '../core/checked';
 
 /** Studies: the notebooks inside a project. */
 @Injectable({ providedIn: 'root' })
@@ -12,21 +13,21 @@ export class StudyApi {
 
   /** A project's active studies, or with `archived: true` its archived ones. */
   list(projectId: string, options: { archived: boolean }): Observable<Study[]> {
-    return this.http.get<Study[]>(`${this.base}/projects/${encodeURIComponent(projectId)}/studies`, {
+    return this.http.get(`${this.base}/projects/${encodeURIComponent(projectId)}/studies`, {
       params: { archived: String(options.archived) },
-    });
+    }).pipe(checked(studySchema.array(), 'the studies of a project'));
   }
 
   create(projectId: string, body: CreateStudy): Observable<Study> {
-    return this.http.post<Study>(`${this.base}/projects/${encodeURIComponent(projectId)}/studies`, body);
+    return this.http.post(`${this.base}/projects/${encodeURIComponent(projectId)}/studies`, body).pipe(checked(studySchema, 'a new study'));
   }
 
   get(studyId: string): Observable<Study> {
-    return this.http.get<Study>(`${this.base}/studies/${encodeURIComponent(studyId)}`);
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}`).pipe(checked(studySchema, 'a study'));
   }
 
   /** Rename, describe, archive or restore. */
   update(studyId: string, body: UpdateStudy): Observable<Study> {
-    return this.http.patch<Study>(`${this.base}/studies/${encodeURIComponent(studyId)}`, body);
+    return this.http.patch(`${this.base}/studies/${encodeURIComponent(studyId)}`, body).pipe(checked(studySchema, 'a changed study'));
   }
 }

@@ -1,19 +1,26 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type {
-  BranchOverview,
-  Comparison,
-  CreateBranch,
-  RestoreDraft,
-  RestoreResult,
-  SaveVersion,
-  StudyHistory,
-  UpdateBranch,
-  VersionDetail,
-  VersionSummary,
+import {
+  branchOverviewSchema,
+  comparisonSchema,
+  restoreResultSchema,
+  studyHistorySchema,
+  versionDetailSchema,
+  versionSummarySchema,
+  type BranchOverview,
+  type Comparison,
+  type CreateBranch,
+  type RestoreDraft,
+  type RestoreResult,
+  type SaveVersion,
+  type StudyHistory,
+  type UpdateBranch,
+  type VersionDetail,
+  type VersionSummary,
 } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
+import { checked } from '../core/checked';
 
 /** Versions of a study: history, saving, restoring, branching, the baseline and comparison. */
 @Injectable({ providedIn: 'root' })
@@ -27,36 +34,36 @@ export class VersionApi {
 
   /** Every branch of the study with its history, and every version, newest first. */
   history(studyId: string): Observable<StudyHistory> {
-    return this.http.get<StudyHistory>(`${this.base}/studies/${encodeURIComponent(studyId)}/versions`);
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/versions`).pipe(checked(studyHistorySchema, 'a study history'));
   }
 
   version(versionId: string): Observable<VersionDetail> {
-    return this.http.get<VersionDetail>(`${this.base}/versions/${encodeURIComponent(versionId)}`);
+    return this.http.get(`${this.base}/versions/${encodeURIComponent(versionId)}`).pipe(checked(versionDetailSchema, 'a version'));
   }
 
   /** Saves the branch's draft as a version; a head other than `expectedHeadVersionId` answers 409 (`SaveConflict`). */
   save(branchId: string, body: SaveVersion): Observable<VersionSummary> {
-    return this.http.post<VersionSummary>(`${this.branch(branchId)}/versions`, body);
+    return this.http.post(`${this.branch(branchId)}/versions`, body).pipe(checked(versionSummarySchema, 'a saved version'));
   }
 
   restore(branchId: string, body: RestoreDraft): Observable<RestoreResult> {
-    return this.http.post<RestoreResult>(`${this.branch(branchId)}/draft/restore`, body);
+    return this.http.post(`${this.branch(branchId)}/draft/restore`, body).pipe(checked(restoreResultSchema, 'a restore'));
   }
 
   createBranch(versionId: string, body: CreateBranch): Observable<BranchOverview> {
-    return this.http.post<BranchOverview>(`${this.base}/versions/${encodeURIComponent(versionId)}/branches`, body);
+    return this.http.post(`${this.base}/versions/${encodeURIComponent(versionId)}/branches`, body).pipe(checked(branchOverviewSchema, 'a branch'));
   }
 
   updateBranch(branchId: string, body: UpdateBranch): Observable<BranchOverview> {
-    return this.http.patch<BranchOverview>(this.branch(branchId), body);
+    return this.http.patch(this.branch(branchId), body).pipe(checked(branchOverviewSchema, 'a branch'));
   }
 
   markBaseline(studyId: string, versionId: string | null): Observable<StudyHistory> {
-    return this.http.post<StudyHistory>(`${this.base}/studies/${encodeURIComponent(studyId)}/baseline`, { versionId });
+    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/baseline`, { versionId }).pipe(checked(studyHistorySchema, 'a study history'));
   }
 
   compare(a: string, b: string): Observable<Comparison> {
-    return this.http.get<Comparison>(`${this.base}/compare`, { params: { a, b } });
+    return this.http.get(`${this.base}/compare`, { params: { a, b } }).pipe(checked(comparisonSchema, 'a comparison'));
   }
 
   /** Where a version's report is: opened by the browser itself (a file to keep or send, not JSON). */
