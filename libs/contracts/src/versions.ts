@@ -279,6 +279,31 @@ export const analysisComparisonSchema = z.object({
 });
 export type AnalysisComparison = z.infer<typeof analysisComparisonSchema>;
 
+/**
+ * A parameter sweep's results in two versions, step by step: compared by result, so a sweep whose own
+ * inputs did not change still shows what a change upstream (its analysis, flow or table) did to it.
+ */
+export const sweepComparisonSchema = z.object({
+  cellId: id,
+  title: z.string(),
+  parameter: z.string().nullable(),
+  statusA: z.enum(['ok', 'error', 'notRun', 'absent']),
+  statusB: z.enum(['ok', 'error', 'notRun', 'absent']),
+  errorA: z.string().nullable(),
+  errorB: z.string().nullable(),
+  /** Whether any step's transition or drag differs between A and B. */
+  resultsDiffer: z.boolean(),
+  /** The swept values of either side, in order; a value only one side has shows null on the other. */
+  steps: z.array(
+    z.object({
+      value: z.number(),
+      cd: deltaSchema,
+      surfaces: z.array(z.object({ name: z.string(), transition: transitionDeltaSchema })),
+    }),
+  ),
+});
+export type SweepComparison = z.infer<typeof sweepComparisonSchema>;
+
 /** GET /api/compare?a=<versionId>&b=<versionId> — any two versions of one study. */
 export const comparisonSchema = z.object({
   studyId: id,
@@ -293,6 +318,7 @@ export const comparisonSchema = z.object({
   }),
   cells: z.array(cellDiffSchema),
   results: z.array(analysisComparisonSchema),
+  sweeps: z.array(sweepComparisonSchema).default([]),
   caution: z.string(),
 });
 export type Comparison = z.infer<typeof comparisonSchema>;

@@ -3,7 +3,8 @@ import { COMPARISON_CAUTION, type Comparison, type VersionCell } from '@laminote
 import type { Tx } from '../db/client';
 import { outputs, versions } from '../db/schema';
 import { diffCells, summarise } from './cell-diff';
-import { compareAnalysis, sideOf, type Side } from './result-diff';
+import { compareAnalysis, sideOf, type Side, type StoredOutput } from './result-diff';
+import { compareSweep, type SweepSide, sweepSideOf } from './sweep-diff';
 import { toSnapshot, versionCellsOf, versionSummary } from './service';
 
 /**
@@ -26,7 +27,15 @@ export async function compareVersions(tx: Tx, aId: string, bId: string): Promise
   );
   const side = (cell: VersionCell | undefined): Side => (!cell ? { state: 'absent' } : (sides.get(cell.outputKey ?? '') ?? { state: 'notRun' }));
   const results = analyses.map((d) => compareAnalysis(d.cellId, d.titleB ?? d.titleA ?? 'Transition analysis', side(mapA.get(d.cellId)), side(mapB.get(d.cellId))));
-  return { studyId: a.studyId, a, b, summary: summarise(cells), cells, results, caution: COMPARISON_CAUTION };
+  const sweepCells = cells.filter((d) => d.kind === 'sweep');
+  const sweepOutputs = await storedOutputs(tx, sweepCells.flatMap((d) => [mapA.get(d.cellId)?.outputKey, mapB.get(d.cellId)?.outputKey]));
+  const sweepSide = (cell: VersionCell | undefined): SweepSide => {
+    if (!cell) return { state: 'absent' };
+    const stored = cell.outputKey ? sweepOutputs.get(cell.outputKey) : undefined;
+    return sweepSideOf(true, stored ?? null);
+  };
+  const sweeps = sweepCells.map((d) => compareSweep(d.cellId, d.titleB ?? d.titleA ?? 'Parameter sweep', sweepSide(mapA.get(d.cellId)), sweepSide(mapB.get(d.cellId))));
+  return { studyId: a.studyId, a, b, summary: summarise(cells), cells, results, sweeps, caution: COMPARISON_CAUTION };
 }
 
 /**
@@ -65,6 +74,14 @@ async function analysisSides(tx: Tx, keyList: (string | null | undefined)[]): Pr
     }
   }
   return out;
+}
+
+/** Stored outputs by key (sweeps are few and small: read each time). */
+async function storedOutputs(tx: Tx, keyList: (string | null | undefined)[]): Promise<Map<string, StoredOutput>> {
+  const keys = [...new Set(keyList.filter((k): k is string => !!k))];
+  if (keys.length === 0) return new Map();
+  const rows = await tx.select({ key: outputs.key, status: outputs.status, result: outputs.result, error: outputs.error }).from(outputs).where(inArray(outputs.key, keys));
+  return new Map(rows.map((row) => [row.key, { status: row.status, result: row.result, error: row.error ?? null }]));
 }
 
 /** The study of each version, to check access before comparing. */

@@ -21,7 +21,7 @@ import {
 /** Smaller differences than these are "no change" (x/c; share of the run; cd). */
 const LOCATION_TOLERANCE = 1e-4;
 const EXTENT_TOLERANCE = 1e-4;
-const CD_TOLERANCE = 1e-7;
+export const CD_TOLERANCE = 1e-7;
 /** Points per overlaid curve; longer station lists are thinned evenly (ends kept). */
 const MAX_OVERLAY_POINTS = 400;
 
@@ -47,7 +47,7 @@ function effectOf(delta: number | null, tolerance: number, goodWhen: 'up' | 'dow
   return (delta > 0) === (goodWhen === 'up') ? 'favourable' : 'adverse';
 }
 
-function delta(a: number | null | undefined, b: number | null | undefined, tolerance: number, goodWhen: 'up' | 'down' | 'neither'): Delta {
+export function delta(a: number | null | undefined, b: number | null | undefined, tolerance: number, goodWhen: 'up' | 'down' | 'neither'): Delta {
   const x = a ?? null;
   const y = b ?? null;
   const d = x !== null && y !== null ? y - x : null;
@@ -65,7 +65,7 @@ function locate(surface: EngineSurfaceResult | undefined, s: number | null | und
  * A location in both versions. Null means "not reached on the surface": a transition that appears
  * is a forward move from the end of the run (adverse); one that vanishes is favourable.
  */
-function transitionDelta(a: number | null, b: number | null, coordinate: Coordinate, byA: string | null, byB: string | null, present: { a: boolean; b: boolean }): TransitionDelta {
+export function transitionDelta(a: number | null, b: number | null, coordinate: Coordinate, byA: string | null, byB: string | null, present: { a: boolean; b: boolean }): TransitionDelta {
   const base = delta(a, b, LOCATION_TOLERANCE, 'up');
   let shift: TransitionDelta['shift'] = 'none';
   if (base.delta !== null) shift = base.effect === 'neutral' ? 'none' : base.delta > 0 ? 'aft' : 'forward';

@@ -67,7 +67,8 @@ export class CellDiffList {
 
   protected readonly rows = computed(() =>
     this.diffs()
-      .filter((d) => this.showUnchanged() || d.change !== 'unchanged')
+      // A cell whose own inputs are unchanged but whose stored result differs (a cell it uses changed) is a change.
+      .filter((d) => this.showUnchanged() || d.change !== 'unchanged' || d.outputChanged)
       .map((d) => {
         const info = cellKindInfo(d.kind);
         return {
@@ -75,7 +76,9 @@ export class CellDiffList {
           icon: info.icon,
           kindLabel: info.label,
           title: (d.titleB ?? d.titleA ?? '').trim() || info.label,
-          changeLabel: CHANGE_LABELS[d.change],
+          changeLabel: d.change === 'unchanged' && d.outputChanged ? 'Result changed' : CHANGE_LABELS[d.change],
+          /** Why the result moved though the inputs did not. */
+          upstreamNote: (d.change === 'unchanged' || d.change === 'moved') && d.outputChanged ? 'same inputs; its result differs because a cell it uses changed' : null,
           changeIcon: CHANGE_ICONS[d.change],
           place:
             d.positionA !== null && d.positionB !== null && d.positionA !== d.positionB

@@ -83,6 +83,41 @@ describe('ComparePage', () => {
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('Same results in A and B.');
   });
 
+  it('compares a sweep by its results when only a cell upstream of it changed', async () => {
+    const { fixture, loader } = await render({ a: V1_ID, b: V2_ID });
+    const c = comparison();
+    const SWEEP = '00000000-0000-4000-8000-0000000000dd';
+    const step = (value: number, a: number, b: number, cdA: number, cdB: number) => ({
+      value,
+      cd: { a: cdA, b: cdB, delta: cdB - cdA, effect: 'adverse' as const },
+      surfaces: [{ name: 'upper', transition: { a, b, delta: b - a, effect: 'adverse' as const, coordinate: 'x' as const, shift: 'forward' as const, byA: 'eN', byB: 'eN' } }],
+    });
+    // The sweep's own inputs (N_crit 7 to 11) are the same in A and B; the flow above it changed.
+    const sweepCell = { ...c.cells[0]!, cellId: SWEEP, kind: 'sweep' as const, change: 'unchanged' as const, titleA: 'N_crit sweep', titleB: 'N_crit sweep', positionA: 3, positionB: 3, fields: [], outputChanged: true };
+    http.expectOne((r) => r.url === '/api/compare').flush({
+      ...c,
+      cells: [...c.cells, sweepCell],
+      sweeps: [{ cellId: SWEEP, title: 'N_crit sweep', parameter: 'nCrit', statusA: 'ok', statusB: 'ok', errorA: null, errorB: null, resultsDiffer: true, steps: [step(7, 0.42, 0.35, 0.0051, 0.0056), step(9, 0.48, 0.4, 0.0048, 0.0053)] }],
+    });
+    await fixture.whenStable();
+    const page = fixture.nativeElement as HTMLElement;
+    const sweep = page.querySelector('article[aria-label="Sweep results of N_crit sweep"]');
+    expect(sweep).not.toBeNull();
+    const rows = Array.from(sweep!.querySelectorAll('tbody tr')).map((tr) => Array.from(tr.querySelectorAll('th, td')).map((td) => td.textContent!.trim()));
+    expect(rows).toEqual([
+      ['7', '0.420 → 0.350', '−0.070 x/c', '51.00 → 56.00', '+5.00 cts'],
+      ['9', '0.480 → 0.400', '−0.080 x/c', '48.00 → 53.00', '+5.00 cts'],
+    ]);
+    // In the list of cells, the sweep shows though its inputs did not change, and says why.
+    const items = await (await loader.getHarness(CellDiffListHarness)).getItems();
+    expect(items.map((i) => [i.change, i.title])).toEqual([
+      ['changed', 'Cruise flow'],
+      ['unchanged', 'N_crit sweep'],
+    ]);
+    expect(page.querySelector(`li[aria-label="Result changed: N_crit sweep"]`)).not.toBeNull();
+    expect(page.querySelector('.upstream')?.textContent).toContain('a cell it uses changed');
+  });
+
   it('takes the version before B as A when only B is named, and puts it in the address', async () => {
     const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
     const { fixture } = await render({ b: V2_ID });

@@ -20,7 +20,7 @@ import { ProblemBanner } from '../shared/problem-banner';
 import { StudyApi } from '../shared/study-api';
 import { projectNameOf } from '../shared/study-place';
 import { CellDiffList } from './cell-diff-list';
-import { flowChanges, overlayFigures, sameResults, surfaceTable, versionLabel } from './compare-view';
+import { flowChanges, overlayFigures, sameResults, surfaceTable, sweepFigure, sweepRows, versionLabel } from './compare-view';
 import { VersionApi } from './version-api';
 import { type VersionGroup, VersionPicker } from './version-picker';
 
@@ -97,6 +97,12 @@ export class ComparePage {
       flow: flowChanges(r, (v) => sci(v, 3)),
       surfaces: r.surfaces.map((s) => ({ name: s.name, table: surfaceTable(s), figures: overlayFigures(r, s, c.a, c.b) })),
     }));
+  });
+  /** Each sweep's steps in A and B, compared by result (an upstream change moves them too). */
+  protected readonly sweeps = computed(() => {
+    const c = this.comparison();
+    if (!c) return [];
+    return (c.sweeps ?? []).map((s) => ({ sweep: s, rows: sweepRows(s), figure: sweepFigure(s, c.a, c.b) }));
   });
   protected readonly label = versionLabel;
   protected readonly baselineId = computed(() => this.history()?.baselineVersionId ?? null);

@@ -1,5 +1,6 @@
 import {
   type AnalysisComparison,
+  type SweepComparison,
   type Delta,
   type Effect,
   type SurfaceComparison,
@@ -7,6 +8,8 @@ import {
   type VersionSummary,
 } from '@laminote/contracts';
 import { CAUSE_LABELS, CRITERION_LABELS } from '../notebook/analysis/analysis-summary';
+import { sci } from '../notebook/format';
+import { PARAMETER_LABELS } from '../notebook/sweep/sweep-cell';
 import type { PlotFigure, PlotMarker } from '../shared/plot';
 
 /**
@@ -161,4 +164,47 @@ export function sameResults(r: AnalysisComparison): boolean {
     same(r.cd) &&
     r.surfaces.every((s) => [s.transition, ...s.criteria, s.laminarExtent, s.cd, s.cdFriction, s.laminarSeparation, s.turbulentSeparation].every(same))
   );
+}
+
+/** A sweep's steps as the compare page lists them: per step and surface, transition A → B and Δ; c_d in counts. */
+export function sweepRows(s: SweepComparison): {
+  parameter: string;
+  surfaces: string[];
+  rows: { value: string; cells: { ab: string; delta: string; effect: Effect }[] }[];
+} {
+  const parameter = s.parameter ? (PARAMETER_LABELS[s.parameter as keyof typeof PARAMETER_LABELS] ?? s.parameter) : 'Swept value';
+  const surfaces = s.steps[0]?.surfaces.map((x) => x.name) ?? [];
+  const location = (v: number | null) => (v === null ? '—' : v.toFixed(3));
+  const counts = (v: number | null) => (v === null ? '—' : (v * 1e4).toFixed(2));
+  return {
+    parameter,
+    surfaces,
+    rows: s.steps.map((step) => ({
+      value: s.parameter === 'reynolds' ? sci(step.value) : String(Number(step.value.toPrecision(6))),
+      cells: [
+        ...step.surfaces.map((x) => ({
+          ab: `${location(x.transition.a)} → ${location(x.transition.b)}`,
+          delta: signedText(x.transition.delta, 3, ` ${x.transition.coordinate === 'x' ? 'x/c' : 's'}`),
+          effect: x.transition.effect,
+        })),
+        { ab: `${counts(step.cd.a)} → ${counts(step.cd.b)}`, delta: signedText(step.cd.delta === null ? null : step.cd.delta * 1e4, 2, ' cts'), effect: step.cd.effect },
+      ],
+    })),
+  };
+}
+
+/** The governing transition of each surface against the swept value, A dashed and B solid. */
+export function sweepFigure(s: SweepComparison, a: VersionSummary, b: VersionSummary): PlotFigure | null {
+  if (s.steps.length === 0) return null;
+  const x = s.steps.map((step) => step.value);
+  const names = s.steps[0]!.surfaces.map((surface) => surface.name);
+  const traces = names.flatMap((name, i) => {
+    const at = (side: 'a' | 'b') => s.steps.map((step) => step.surfaces.find((x) => x.name === name)?.transition[side] ?? null);
+    return [
+      { x, y: at('a'), name: `A · ${versionLabel(a)} · ${name}`, color: A_COLOUR, dash: i === 0 ? ('dash' as const) : ('dot' as const), mode: 'lines+markers' as const },
+      { x, y: at('b'), name: `B · ${versionLabel(b)} · ${name}`, color: B_COLOUR, dash: i === 0 ? ('solid' as const) : ('dashdot' as const), mode: 'lines+markers' as const },
+    ];
+  });
+  const parameter = s.parameter ? (PARAMETER_LABELS[s.parameter as keyof typeof PARAMETER_LABELS] ?? s.parameter) : 'swept value';
+  return { x: { title: parameter, log: s.parameter === 'reynolds' }, y: { title: 'governing transition x/c', range: [0, 1] }, traces };
 }

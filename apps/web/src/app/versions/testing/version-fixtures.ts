@@ -119,6 +119,7 @@ export function comparison(): Comparison {
     summary: { added: 0, removed: 0, changed: 1, moved: 0, unchanged: 2 },
     cells: [flowChange()],
     results: [analysisResult()],
+    sweeps: [],
     caution: 'Differences between engineering estimates from integral boundary-layer methods and empirical transition criteria.',
   };
 }
