@@ -1,0 +1,25 @@
+import { describe, expect, it } from 'vitest';
+import { fieldLabel, readableMessage } from './field-words';
+
+describe('field words', () => {
+  it('says a field path as the label the cell shows', () => {
+    expect(fieldLabel('turbulenceIntensity', 'flow')).toBe('Turbulence level');
+    expect(fieldLabel('flow.mach')).toBe('Mach number');
+    expect(fieldLabel('trips.upper', 'analysis')).toBe('Trip on upper at x/c');
+    expect(fieldLabel('pressureTable line 7')).toBe('Pressure table, line 7');
+    expect(fieldLabel('inputs.reynolds', 'flow')).toBe('Reynolds number');
+    expect(fieldLabel('somethingUnknown')).toBeNull();
+  });
+
+  it('puts the labels into the messages people read (the reports from trying the notebook)', () => {
+    expect(readableMessage("turbulenceIntensity 0.0002 is outside the range of Mack's relation (0.0007 to 0.0298); N_crit is extrapolated", 'flow')).toBe(
+      "Turbulence level 0.0002 is outside the range of Mack's relation (0.0007 to 0.0298); N_crit is extrapolated",
+    );
+    expect(readableMessage('mach 0.5: the local flow is supersonic at x/c 0.1', 'analysis')).toBe('Mach number 0.5: the local flow is supersonic at x/c 0.1');
+    expect(readableMessage('reynolds must be greater than zero', 'flow')).toBe('Reynolds number must be greater than zero');
+    expect(readableMessage('the trip lies beyond the surface (trips.upper)', 'analysis')).toBe('The trip lies beyond the surface (Trip on upper at x/c)');
+    expect(readableMessage('give reynolds, or name a flow cell (flowCellId)', 'leadingEdge')).toBe('Give reynolds, or name a flow cell (Flow cell)');
+    // Plain words are left alone, even when a field has the same name.
+    expect(readableMessage('the laminar layer separates before transition')).toBe('The laminar layer separates before transition');
+  });
+});
