@@ -49,13 +49,19 @@ export interface ReportCell {
   computedAt: string | null;
 }
 
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+
+function superscript(n: number): string {
+  return [...String(n)].map((c) => SUPERSCRIPT[c] ?? c).join('');
+}
+
 export function num(value: number | null | undefined, digits = 4): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';
   if (value === 0) return '0';
   const magnitude = Math.abs(value);
   if (magnitude >= 1e5 || magnitude < 1e-3) {
     const [mantissa, exponent] = value.toExponential(digits - 1).split('e');
-    return `${mantissa} × 10^${Number(exponent)}`;
+    return `${mantissa} × 10${superscript(Number(exponent))}`;
   }
   return Number(value.toPrecision(digits)).toString();
 }

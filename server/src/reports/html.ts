@@ -48,6 +48,7 @@ caption{caption-side:top;text-align:left;font-weight:700;padding:4px 0;color:#2b
 .cell-kind{font-size:12px;text-transform:uppercase;letter-spacing:.05em;color:#1f5f8b;font-weight:700}
 .provenance{font-size:11px;color:#5d5f66;font-family:'JetBrains Mono','DejaVu Sans Mono',monospace;word-break:break-all}
 pre{font-family:'JetBrains Mono','DejaVu Sans Mono',monospace;font-size:11px;background:#f6f7f9;border:1px solid #e0e1e6;padding:8px;white-space:pre-wrap;word-break:break-all}
+pre.note-text{font-family:inherit;font-size:14px;background:none;border:none;padding:0;word-break:normal}
 .plots{display:grid;grid-template-columns:1fr;gap:8px}
 .plot svg{width:100%;height:auto;max-width:640px;border:1px solid #e0e1e6}
 .warnings{background:#fff7e0;border-left:4px solid #9a7b1c;padding:6px 12px;margin:8px 0}
@@ -72,7 +73,8 @@ function cellHtml(cell: ReportCell, index: number, methodNames: ReadonlyMap<stri
   parts.push(`<section class="cell" id="cell-${escapeHtml(cell.cellId)}" data-cell-id="${escapeHtml(cell.cellId)}" data-kind="${escapeHtml(cell.kind)}">`);
   parts.push(`<div class="cell-head"><span class="cell-kind">${index + 1}. ${escapeHtml(cell.kindLabel)}</span><h3>${escapeHtml(cell.title)}</h3></div>`);
   if (cell.inputs.length) parts.push(tableHtml({ caption: 'Inputs', columns: ['Field', 'Value'], rows: cell.inputs }));
-  for (const t of cell.texts) parts.push(`<h4>${escapeHtml(t.label)}</h4><pre>${escapeHtml(t.text)}</pre>`);
+  // A note's Markdown reads as written (no HTML made from it); a pasted table keeps its columns.
+  for (const t of cell.texts) parts.push(`<h4>${escapeHtml(t.label)}</h4><pre${cell.kind === 'note' ? ' class="note-text"' : ''}>${escapeHtml(t.text)}</pre>`);
   if (cell.status === 'notRun' && cell.kind !== 'note') parts.push('<p class="warnings">Not run when this version was saved: no results.</p>');
   if (cell.error) parts.push(`<p class="error">The engine refused this cell: ${escapeHtml(cell.error)}</p>`);
   for (const t of cell.tables) parts.push(tableHtml(t));

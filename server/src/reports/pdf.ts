@@ -48,7 +48,7 @@ function cellContent(cell: ReportCell, index: number, methodNames: ReadonlyMap<s
   for (const t of cell.texts) {
     const lines = t.text.split('\n');
     const shown = lines.length > MAX_TEXT_LINES ? [...lines.slice(0, MAX_TEXT_LINES), `… ${lines.length - MAX_TEXT_LINES} more lines in the HTML report`] : lines;
-    out.push({ text: t.label, style: 'caption' }, { text: shown.join('\n'), style: 'pre' });
+    out.push({ text: t.label, style: 'caption' }, cell.kind === 'note' ? { text: shown.join('\n'), margin: [0, 0, 0, 6] } : { text: shown.join('\n'), style: 'pre' });
   }
   if (cell.status === 'notRun' && cell.kind !== 'note') out.push({ text: 'Not run when this version was saved: no results.', style: 'warning' });
   if (cell.error) out.push({ text: `The engine refused this cell: ${cell.error}`, style: 'error' });

@@ -100,12 +100,13 @@ export function renderSvgPlot(spec: PlotSpec): string {
     const d = path(points);
     if (d) out.push(`<path d="${d}" fill="none" stroke="${COLOURS[i % COLOURS.length]}" stroke-width="1.6" stroke-linejoin="round"/>`);
   });
-  for (const m of spec.markers ?? []) {
-    if (!Number.isFinite(m.x) || m.x < x.domain()[0] || m.x > x.domain()[1]) continue;
+  // Marks close together (upper and lower transition) put their labels on successive lines.
+  (spec.markers ?? []).forEach((m, k) => {
+    if (!Number.isFinite(m.x) || m.x < x.domain()[0] || m.x > x.domain()[1]) return;
     const px = x(m.x).toFixed(1);
     out.push(`<line x1="${px}" x2="${px}" y1="${MARGIN.top}" y2="${MARGIN.top + innerH}" stroke="#1b1b1f" stroke-dasharray="4 3"/>`);
-    out.push(`<text x="${px}" y="${MARGIN.top + 11}" dx="3" fill="#1b1b1f" font-size="10">${escapeXml(m.label)}</text>`);
-  }
+    out.push(`<text x="${px}" y="${MARGIN.top + 11 + 12 * k}" dx="3" fill="#1b1b1f" font-size="10">${escapeXml(m.label)}</text>`);
+  });
   // Legend.
   if (spec.series.length > 1) {
     let lx = MARGIN.left + innerW;
