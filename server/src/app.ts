@@ -4,6 +4,7 @@ import path from 'node:path';
 import express, { Router, type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import type PgBoss from 'pg-boss';
 import type { Config } from './config';
 import type { Database } from './db/client';
 import type { Logger } from './logger';
@@ -14,7 +15,11 @@ import { sessionMiddleware } from './auth/session';
 import { databaseUnavailable, errorHandler, notFoundHandler } from './http/problem';
 import { checkPathParams, inputGuard } from './http/edge';
 import type { EnginePool } from './engine/pool';
+import type { JobEvents } from './jobs/events';
+import { jobsRouter } from './jobs/routes';
+import { JobService } from './jobs/service';
 import { draftBodyParser, notebookRouter } from './notebook/routes';
+import { NotebookService } from './notebook/service';
 import { projectsRouter } from './projects/routes';
 import { studiesRouter } from './studies/routes';
 import { versionsRouter } from './versions/routes';
@@ -35,6 +40,8 @@ export interface AppDeps {
   oidc: OidcClient;
   /** The engine's worker-thread pool; its owner (main.ts, the test app) closes it. */
   engine: EnginePool;
+  /** The job queue (pg-boss, started by the owner) and the ear on the workers' notices. */
+  jobs: { boss: PgBoss; events: JobEvents };
 }
 
 /**
@@ -119,7 +126,10 @@ export function createApp(deps: AppDeps): Express {
   api.use('/comments', commentsRouter({ db, config }));
   api.use('/inbox', inboxRouter({ db }));
   api.use('/compare', compareRouter({ db }));
-  api.use(notebookRouter({ db, engine: deps.engine, logger }));
+  const notebook = new NotebookService(db, deps.engine, logger);
+  const jobs = new JobService(db, database.pool, deps.jobs.boss, notebook);
+  api.use(notebookRouter({ db, notebook, jobs, events: deps.jobs.events }));
+  api.use(jobsRouter({ db, jobs }));
   api.use(devMailRouter({ config }));
   api.use(methodsRouter());
   api.use(notFoundHandler);

@@ -41,6 +41,16 @@ const configSchema = z
     ENGINE_THREADS: z.coerce.number().int().min(0).max(64).default(0),
     /** Requests a minute that one personal API token may make. */
     API_TOKEN_RATE_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(300),
+    /** A piece of job work not acknowledged within this many seconds is handed to another worker (its worker died). */
+    JOB_EXPIRE_SECONDS: z.coerce.number().int().min(5).max(3600).default(60),
+    /** How often workers look for such lost pieces. */
+    JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(600).default(10),
+    /** Outputs that no draft or version refers to are pruned once older than this; finished jobs and sweep cases too. */
+    RETENTION_OUTPUT_DAYS: z.coerce.number().min(0).default(30),
+    /** Sent mail is pruned from the outbox once older than this. */
+    RETENTION_MAIL_DAYS: z.coerce.number().min(0).default(14),
+    /** When the clean-up runs (cron, server time). */
+    RETENTION_CRON: z.string().default('17 3 * * *'),
   })
   .transform((env) => ({ ...env, PUBLIC_URL: (env.PUBLIC_URL ?? `http://${env.HOST}:${env.PORT}`).replace(/\/$/, '') }))
   .superRefine((env, ctx) => {
@@ -70,4 +80,17 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     throw new ConfigError(`Invalid configuration:\n  ${lines.join('\n  ')}`);
   }
   return parsed.data;
+}
+
+/** For a process's entry point: the configuration, or the message on standard error and exit status 2. */
+export function loadConfigOrExit(env: NodeJS.ProcessEnv = process.env): Config {
+  try {
+    return loadConfig(env);
+  } catch (err) {
+    if (err instanceof ConfigError) {
+      process.stderr.write(`${err.message}\n`);
+      process.exit(2);
+    }
+    throw err;
+  }
 }

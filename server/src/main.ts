@@ -1,30 +1,23 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
-import { ConfigError, loadConfig } from './config';
+import { loadConfigOrExit } from './config';
 import { connect } from './db/client';
 import { applyMigrations } from './db/migrate';
 import { createLogger } from './logger';
 import { createOidcClient } from './auth/oidc';
 import { createEnginePool } from './engine/pool';
+import { startJobSender } from './jobs/start';
 import { startMailOutbox } from './mail/start';
 
 /** Starts the server: configuration, migrations, listen, and a clean shutdown on SIGINT/SIGTERM. */
 async function main(): Promise<void> {
-  let config;
-  try {
-    config = loadConfig();
-  } catch (err) {
-    if (err instanceof ConfigError) {
-      process.stderr.write(`${err.message}\n`);
-      process.exit(2);
-    }
-    throw err;
-  }
+  const config = loadConfigOrExit();
   const logger = createLogger(config.LOG_LEVEL);
   const database = connect(config.DATABASE_URL, 10, (err) => logger.warn({ err: err.message }, 'a database connection was closed; the pool makes a new one when needed'));
   await applyMigrations(database.db);
   const engine = createEnginePool({ threads: config.ENGINE_THREADS });
-  const app = createApp({ config, database, logger, oidc: createOidcClient(config), engine });
+  const jobs = await startJobSender(config, database, logger);
+  const app = createApp({ config, database, logger, oidc: createOidcClient(config), engine, jobs });
   const outbox = startMailOutbox(database.db, config, logger);
   const server: Server = app.listen(config.PORT, config.HOST, () => {
     logger.info({ url: config.PUBLIC_URL, host: config.HOST, port: config.PORT }, 'Laminote is listening');
@@ -35,7 +28,7 @@ async function main(): Promise<void> {
     stopping = true;
     logger.info({ signal }, 'shutting down');
     server.close(() => {
-      void Promise.allSettled([outbox.stop(), engine.close()])
+      void Promise.allSettled([outbox.stop(), engine.close(), jobs.stop()])
         .then(() => database.close())
         .finally(() => process.exit(0));
     });

@@ -5,6 +5,7 @@ import type { Draft, DraftCell, EngineResult, FlowResult, PressureResult, RunRes
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
+import { runAndWait } from '../support/run';
 import { signIn, type SignedIn } from '../support/sign-in';
 
 let t: TestApp;
@@ -132,8 +133,8 @@ describe('draft', () => {
     const plate = { cellId: randomUUID(), kind: 'flatPlate' as const, title: 'Fairing', inputs: { reynolds: 5e6, transitionMode: 'location', transitionLocation: 0.4 } };
     const note = { cellId: randomUUID(), kind: 'note' as const, inputs: { markdown: 'keep me' } };
     await save(as['engineer']!, branchId, 0, [plate, note]).expect(200);
-    const ran = await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200);
-    const key = cellOf(ran.body, plate.cellId).output!.key;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
+    const key = cellOf(ran, plate.cellId).output!.key;
     await save(as['engineer']!, branchId, 1, [note]).expect(200);
     const gone = await save(as['engineer']!, branchId, 2, []).expect(200);
     expect(gone.body.trash.map((x: { cellId: string }) => x.cellId)).toEqual([note.cellId, plate.cellId]);
@@ -146,7 +147,7 @@ describe('draft', () => {
   it('writes one audit event per save and per run', async () => {
     const { branchId } = await newStudy('Audit');
     await save(as['engineer']!, branchId, 0, [{ kind: 'note', inputs: { markdown: 'x' } }]).expect(200);
-    await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200);
+    await runAndWait(as['engineer']!, branchId, {});
     const { rows } = await t.database.pool.query<{ action: string }>('select action from audit_events where target_id = $1', [branchId]);
     expect(rows.map((r) => r.action).sort()).toEqual(['cells.run', 'draft.save']);
   });
@@ -161,7 +162,7 @@ describe('the demo study', () => {
     expect(draft.cells[0]!.inputs['markdown']).toMatch(/Invented data/);
     expect(draft.cells[2]!.inputs['text']).toMatch(/INVENTED DATA/);
     expect(draft.cells.every((c) => c.problems.length === 0 && c.runState === 'idle')).toBe(true);
-    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
     expect(ran.ran.map((r) => [r.kind, r.status])).toEqual([
       ['flow', 'ok'],
       ['pressure', 'ok'],
@@ -208,8 +209,8 @@ describe('runs', () => {
     const { branchId } = await newStudy('Cruise condition');
     const flowId = randomUUID();
     await save(as['engineer']!, branchId, 0, [{ cellId: flowId, kind: 'flow', inputs: { mode: 'altitude', altitude_m: 12500, mach: 0.72, referenceLength_m: 1.9, turbulenceMode: 'intensity', turbulenceIntensity: 0.001 } }]).expect(200);
-    const ran = await as['engineer']!.post(`/api/branches/${branchId}/run`, { cellIds: [flowId] }).expect(200);
-    const r = cellOf(ran.body, flowId).output!.result as FlowResult;
+    const ran = await runAndWait(as['engineer']!, branchId, { cellIds: [flowId] });
+    const r = cellOf(ran, flowId).output!.result as FlowResult;
     // U.S. Standard Atmosphere 1976: 216.65 K from 11 to 20 km; p = 22 632.06 Pa · exp(−g0 (h − 11 000)/(R T)) there (eq. 33b).
     expect(r.temperature_K).toBeCloseTo(216.65, 2);
     expect(r.pressure_Pa).toBeCloseTo(22632.06 * Math.exp((-9.80665 * 1500) / (287.0531 * 216.65)), -1);
@@ -226,7 +227,7 @@ describe('runs', () => {
     const { ids, flow, pressure, analysis } = standardCells();
     // The analysis comes first in the stack: order on screen is not run order.
     await save(as['engineer']!, branchId, 0, [analysis, flow, pressure]).expect(200);
-    const first = (await as['engineer']!.post(`/api/branches/${branchId}/run`, { cellIds: [ids.analysis] }).expect(200)).body as RunResponse;
+    const first = await runAndWait(as['engineer']!, branchId, { cellIds: [ids.analysis] });
     expect(first.ran.map((r) => [r.cellId, r.status, r.reused])).toEqual([
       [ids.analysis, 'ok', false],
       [ids.flow, 'ok', false],
@@ -247,10 +248,11 @@ describe('runs', () => {
     expect(pressureOut.stagnation!.y!).toBeCloseTo(0, 3);
 
     // Running again computes nothing: every key is stored already.
-    const completed = t.engine.completed;
-    const again = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const completed = t.worker!.runner.processed;
+    const again = await runAndWait(as['engineer']!, branchId, {});
     expect(again.ran.every((r) => r.reused && r.status === 'ok')).toBe(true);
-    expect(t.engine.completed).toBe(completed);
+    expect(again.jobId).toBeNull();
+    expect(t.worker!.runner.processed).toBe(completed);
     expect(cellOf(again, ids.analysis).output!.computedAt).toBe(out.output!.computedAt);
 
     // A higher Reynolds number upstream outdates the analysis (and the flow cell) but not the table.
@@ -262,7 +264,7 @@ describe('runs', () => {
       [ids.pressure, 'current'],
     ]);
     expect(cellOf(edited, ids.analysis).output!.key).toBe(out.output!.key);
-    const rerun = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const rerun = await runAndWait(as['engineer']!, branchId, {});
     expect(rerun.ran.find((r) => r.cellId === ids.pressure)!.reused).toBe(true);
     expect(rerun.ran.find((r) => r.cellId === ids.analysis)!.reused).toBe(false);
     const fastUpper = (cellOf(rerun, ids.analysis).output!.result as EngineResult).surfaces[0]!;
@@ -271,10 +273,11 @@ describe('runs', () => {
 
     // Going back to the first Reynolds number finds the first outputs again: the run computes nothing.
     await save(as['engineer']!, branchId, 2, [analysis, flow, pressure]).expect(200);
-    const before = t.engine.completed;
-    const back = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const before = t.worker!.runner.processed;
+    const back = await runAndWait(as['engineer']!, branchId, {});
     expect(back.ran.every((r) => r.reused)).toBe(true);
-    expect(t.engine.completed).toBe(before);
+    expect(back.jobId).toBeNull();
+    expect(t.worker!.runner.processed).toBe(before);
     expect(cellOf(back, ids.analysis).output!.key).toBe(out.output!.key);
   });
 
@@ -283,10 +286,10 @@ describe('runs', () => {
     const { ids, flow, pressure, analysis } = standardCells();
     await save(as['engineer']!, branchId, 0, [flow, pressure, analysis]).expect(200);
     const [ran, typed] = await Promise.all([
-      as['engineer']!.post(`/api/branches/${branchId}/run`, {}),
+      runAndWait(as['engineer']!, branchId),
       save(as['engineer']!, branchId, 1, [{ ...flow, title: 'Wind-tunnel condition, typed meanwhile' }, pressure, analysis]),
     ]);
-    expect(ran.status).toBe(200);
+    expect(ran.ran.map((r) => r.status)).toEqual(['ok', 'ok', 'ok']);
     expect(typed.status).toBe(200);
     const next = await save(as['engineer']!, branchId, 2, [{ ...flow, title: 'Renamed again' }, pressure, analysis]).expect(200);
     expect(next.body.revision).toBe(3);
@@ -298,14 +301,14 @@ describe('runs', () => {
     const { branchId } = await newStudy('Failing table');
     const { ids, flow, pressure, analysis } = standardCells();
     await save(as['engineer']!, branchId, 0, [flow, pressure, analysis]).expect(200);
-    const good = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const good = await runAndWait(as['engineer']!, branchId, {});
     const goodKey = cellOf(good, ids.analysis).output!.key;
     // A Cp of 1.5 is above the stagnation value 1 at Mach 0: no flow has it (Bernoulli).
     const lines = joukowskiTable().split('\n');
     lines[40] = lines[40]!.replace(/\S+$/, '1.5');
     const broken = { ...pressure, inputs: { text: lines.join('\n') } };
     await save(as['engineer']!, branchId, 1, [flow, broken, analysis]).expect(200);
-    const bad = (await as['engineer']!.post(`/api/branches/${branchId}/run`, { cellIds: [ids.analysis] }).expect(200)).body as RunResponse;
+    const bad = await runAndWait(as['engineer']!, branchId, { cellIds: [ids.analysis] });
     const cell = cellOf(bad, ids.analysis);
     expect(cell.runState).toBe('failed');
     expect(cell.output).toMatchObject({ status: 'error', error: { field: 'pressureTable line 41', line: 41, message: expect.stringMatching(/stagnation value/) } });
@@ -320,7 +323,7 @@ describe('runs', () => {
     const { branchId } = await newStudy('Parse problems');
     const id = randomUUID();
     await save(as['engineer']!, branchId, 0, [{ cellId: id, kind: 'pressure', inputs: { text: '# from the tunnel\n1.0 0.1\n0.5 -0.3\n0,0 1,0;\n0.5 oops\n1.0 0.1' } }]).expect(200);
-    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
     const out = cellOf(ran, id).output!;
     expect(out.status).toBe('error');
     expect(out.error!.field).toBe('text');
@@ -340,7 +343,7 @@ describe('runs', () => {
     const le = { cellId: randomUUID(), kind: 'leadingEdge' as const, inputs: { flowCellId: ids.flow, sweepDeg: 30, mode: 'radius', leadingEdgeRadius: 0.01 } };
     const sweep = { cellId: randomUUID(), kind: 'sweep' as const, inputs: { analysisCellId: ids.analysis, parameter: 'reynolds', from: 3e6, to: 1.5e7, steps: 4 } };
     await save(as['engineer']!, branchId, 0, [sweep, le, plate, flow, pressure, analysis]).expect(200);
-    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
     expect(ran.ran.every((r) => r.status === 'ok')).toBe(true);
     const p = cellOf(ran, plate.cellId).output!.result as { cfMixed: number; cfLaminar: number };
     // Blasius: mean CF = 1.328/√Re_L for a plate laminar to its end (H. Blasius 1908).
@@ -364,7 +367,7 @@ describe('trips, single surfaces and limits', () => {
     const { ids, flow, pressure, analysis } = standardCells();
     const tripped = { ...analysis, inputs: { ...analysis.inputs, trips: { upper: 0.05 } } };
     await save(as['engineer']!, branchId, 0, [flow, pressure, tripped]).expect(200);
-    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
     const r = cellOf(ran, ids.analysis).output!.result as EngineResult;
     const [upper, lower] = r.surfaces;
     // A trip ahead of natural transition sets it there (common practice: that is what a trip strip is for).
@@ -378,7 +381,7 @@ describe('trips, single surfaces and limits', () => {
 
     const wrong = { ...analysis, inputs: { ...analysis.inputs, trips: { nacelle: 0.1 } } };
     await save(as['engineer']!, branchId, 1, [flow, pressure, wrong]).expect(200);
-    const bad = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const bad = await runAndWait(as['engineer']!, branchId, {});
     expect(cellOf(bad, ids.analysis).output!.error).toMatchObject({ field: 'trips.nacelle', message: expect.stringMatching(/no surface named "nacelle"/) });
   });
 
@@ -397,7 +400,7 @@ describe('trips, single surfaces and limits', () => {
       { cellId: id, kind: 'pressure', inputs: { text, layout: 'surface', surfaceName: 'outer', hasRadius: true } },
       { kind: 'analysis', inputs: { flowCellId: flowId, pressureCellId: id } },
     ]).expect(200);
-    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
     expect(ran.ran.map((r) => r.status)).toEqual(['ok', 'ok', 'ok']);
     const p = cellOf(ran, id).output!.result as PressureResult;
     expect(p.surfaces.map((s) => s.name)).toEqual(['outer']);
@@ -407,7 +410,7 @@ describe('trips, single surfaces and limits', () => {
 
     const noHeader = { cellId: id, kind: 'pressure' as const, inputs: { text: rows.join('\n'), layout: 'surface', hasRadius: true } };
     await save(as['engineer']!, branchId, 1, [noHeader]).expect(200);
-    const bad = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const bad = await runAndWait(as['engineer']!, branchId, {});
     expect(cellOf(bad, id).output!.error).toMatchObject({ field: 'text', message: expect.stringMatching(/header row/) });
   });
 
@@ -467,7 +470,7 @@ describe('export', () => {
     const { ids, flow, pressure, analysis } = standardCells();
     await save(as['engineer']!, branchId, 0, [flow, pressure, { ...analysis, title: 'Cruise transition' }]).expect(200);
     await as['viewer']!.get(`/api/branches/${branchId}/cells/${ids.analysis}/export?format=csv`).expect(409);
-    const ran = (await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200)).body as RunResponse;
+    const ran = await runAndWait(as['engineer']!, branchId, {});
     const result = cellOf(ran, ids.analysis).output!.result as EngineResult;
 
     const csv = await as['viewer']!.get(`/api/branches/${branchId}/cells/${ids.analysis}/export?format=csv`).expect(200);

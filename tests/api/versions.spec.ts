@@ -4,6 +4,7 @@ import type { Comparison, Draft, SaveConflict, StudyHistory, VersionDetail, Vers
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
 import { signIn, type SignedIn } from '../support/sign-in';
+import { runAndWait } from '../support/run';
 
 /**
  * Versions, branches and comparison (issue 5) through the real API on PostgreSQL: drafts are written
@@ -45,8 +46,7 @@ async function putDraft(branchId: string, cells: CellIn[], who = 'lead'): Promis
 }
 
 async function run(branchId: string, who = 'lead'): Promise<void> {
-  const res = await as[who]!.post(`/api/branches/${branchId}/run`, {});
-  expect(res.status, JSON.stringify(res.body)).toBe(200);
+  await runAndWait(as[who]!, branchId);
 }
 
 async function save(branchId: string, message: string, expectedHeadVersionId: string | null, who = 'lead'): Promise<VersionSummary> {

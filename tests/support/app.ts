@@ -4,6 +4,7 @@ import { createEnginePool, type EnginePool } from '../../server/src/engine/pool'
 import { createOidcClient } from '../../server/src/auth/oidc';
 import { loadConfig, type Config } from '../../server/src/config';
 import { createLogger } from '../../server/src/logger';
+import { startJobSender, startJobWorker, type JobWorker } from '../../server/src/jobs/start';
 import { seedDemo } from '../../server/src/seed/demo';
 import { demoStudyFillers } from '../../server/src/seed/fillers';
 import { createTestDatabase, type TestDatabase } from './db';
@@ -15,11 +16,13 @@ export interface TestApp {
   database: TestDatabase;
   demo: Awaited<ReturnType<typeof seedDemo>>;
   engine: EnginePool;
+  /** The job worker running in this process (null when started without one). */
+  worker: JobWorker | null;
   close(): Promise<void>;
 }
 
 /** The real app on a database of its own with the demo scenario seeded, mounted without a port. */
-export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
+export async function createTestApp(overrides: Record<string, string> = {}, options: { worker?: boolean } = {}): Promise<TestApp> {
   const database = await createTestDatabase();
   const config = loadConfig({
     ...process.env,
@@ -33,14 +36,21 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
   });
   const demo = await seedDemo(database.db, demoStudyFillers);
   const engine = createEnginePool({ threads: 2 });
-  const app = createApp({ config, database, logger: createLogger(config.LOG_LEVEL), oidc: createOidcClient(config), engine });
+  const logger = createLogger(config.LOG_LEVEL);
+  const jobs = await startJobSender(config, database, logger);
+  // Runs are jobs: a worker takes them, here in the test's own process (fault tests start real ones).
+  const worker = options.worker === false ? null : await startJobWorker(config, database, logger, { threads: 2 });
+  const app = createApp({ config, database, logger, oidc: createOidcClient(config), engine, jobs });
   return {
     app,
     config,
     database,
     demo,
     engine,
+    worker,
     close: async () => {
+      await worker?.stop();
+      await jobs.stop();
       await engine.close();
       await database.drop();
     },

@@ -13,4 +13,4 @@ export * from './tokens';
 export * from './api-description';
 export * from './section';
 export * from './text';
-export * from './field-words';
+export * from './jobs';

@@ -2,14 +2,16 @@ import express, { Router, type RequestHandler, type Response } from 'express';
 import { z } from 'zod';
 import { runRequestSchema, saveDraftSchema } from '@laminote/contracts';
 import type { Db } from '../db/client';
-import type { EnginePool } from '../engine/pool';
 import { projectAccess, requireAction, studyAccess } from '../access/access';
 import { parse, ProblemError } from '../http/problem';
-import type { Logger } from '../logger';
 import { branchAccess, requireWritable } from '../access/branch';
 import { exportCell } from './export';
 import { draftDocument, studyDocumentFilename } from './study-document';
-import { draftJson, draftObject, NotebookService } from './service';
+import type { JobEvents } from '../jobs/events';
+import type { JobService } from '../jobs/service';
+import { streamBranchJobs } from '../jobs/stream';
+import { needsComputing } from '../jobs/work';
+import { draftJson, draftObject, type NotebookService } from './service';
 import { findUpload, receiveFile, storeUpload } from './uploads';
 
 /** A draft carries its pasted tables whole, so its save may be larger than the API's usual 2 MB. */
@@ -34,9 +36,8 @@ export const draftBodyParser: RequestHandler = (req, res, next) => {
 
 const exportQuerySchema = z.object({ format: z.enum(['csv', 'json'], { error: 'format must be csv or json' }).default('json') });
 
-export function notebookRouter({ db, engine, logger }: { db: Db; engine: EnginePool; logger: Logger }): Router {
+export function notebookRouter({ db, notebook, jobs, events }: { db: Db; notebook: NotebookService; jobs: JobService; events: JobEvents }): Router {
   const router = Router();
-  const notebook = new NotebookService(db, engine, logger);
   const sendJson = (res: Response, json: string) => res.type('application/json').send(json);
 
   router.get('/branches/:branchId/draft', async (req, res) => {
@@ -52,13 +53,30 @@ export function notebookRouter({ db, engine, logger }: { db: Db; engine: EngineP
     sendJson(res, draftJson(await notebook.saveDraft(ctx, req.user!, body)));
   });
 
+  /**
+   * Runs the named cells (and what they use), or every cell: 202 with the job when anything has to be
+   * computed (workers take it from the queue), 200 with the draft at once when every output is stored.
+   */
   router.post('/branches/:branchId/run', async (req, res) => {
     const ctx = await branchAccess(db, req.user!, req.params.branchId);
     requireAction(ctx.access, 'runCells');
     requireWritable(ctx);
     const body = parse(runRequestSchema, req.body ?? {});
+    const work = await jobs.plan(ctx, body.cellIds);
+    if (needsComputing(work)) {
+      const job = await jobs.enqueue(ctx, req.user!, work);
+      res.status(202).location(`/api/jobs/${job.jobId}`).json({ jobId: job.jobId, job });
+      return;
+    }
     const { doc, ran } = await notebook.run(ctx, req.user!, body.cellIds);
     sendJson(res, draftJson(doc, { ran }));
+  });
+
+  /** The branch's jobs as server-sent events; for those who may run its cells. */
+  router.get('/branches/:branchId/events', async (req, res) => {
+    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    requireAction(ctx.access, 'runCells');
+    streamBranchJobs(db, events, ctx.branch.id, req, res);
   });
 
   /** The whole study of the branch's draft as one document (cells, inputs, outputs), as a download. */

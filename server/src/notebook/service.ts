@@ -335,8 +335,8 @@ export class NotebookService {
     };
   }
 
-  /** The cells to run: the named ones and everything upstream of them, or every cell that computes. */
-  private targets(plans: Map<string, CellPlan>, stored: StoredCell[], cellIds: string[] | undefined): Set<string> {
+  /** The cells to run: the named ones and everything upstream of them, or every cell that computes (run jobs plan with it too). */
+  targets(plans: Map<string, CellPlan>, stored: StoredCell[], cellIds: string[] | undefined): Set<string> {
     const out = new Set<string>();
     const add = (id: string) => {
       if (out.has(id)) return;

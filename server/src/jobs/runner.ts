@@ -1,0 +1,322 @@
+import { setTimeout as sleep } from 'node:timers/promises';
+import { and, asc, eq, gte, inArray, lt, sql } from 'drizzle-orm';
+import type PgBoss from 'pg-boss';
+import { assembleSweep, ENGINE_VERSION, roundedNumber, toCellError, upstreamFailedError, type ComputedOutput } from '@laminote/aero';
+import { CELL_KIND_LABELS, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs } from '@laminote/contracts';
+import { audit } from '../audit/audit';
+import type { Database } from '../db/client';
+import { isDatabaseUnavailable } from '../db/availability';
+import { runJobs, sweepCases } from '../db/schema';
+import type { Logger } from '../logger';
+import { OutputStore, type CachedOutput } from '../notebook/outputs';
+import type { ComputePool } from './compute-pool';
+import { markDraftCells } from './mark';
+import { RETENTION_QUEUE, stableJobId, WORK_QUEUE, type WorkMessage } from './queue';
+import { pruneRetained, type RetentionPolicy } from './retention';
+import { loadJob, notifyJob, type RunJobRow } from './store';
+import { CASES_PER_CHUNK, type JobWork } from './work';
+
+/**
+ * A job worker: fetches pieces of work from the queue and runs them on its compute threads, one piece
+ * per thread. A run job computes its light cells in order and fans each sweep out into chunks of cases
+ * that any worker may take; whoever stores the last case puts the sweep's output together, and whoever
+ * stores the last output finishes the job.
+ *
+ * Every piece is idempotent: outputs and cases are stored once by key, so a piece handed out again (its
+ * worker was killed, or the database went away before it was acknowledged) only does what is missing.
+ * While the database is away the worker waits and carries on with the same piece; nothing fails for it.
+ */
+
+export interface JobRunnerOptions {
+  /** Pieces of work at once; defaults to the compute threads. */
+  slots?: number;
+  /** How long an idle slot waits before asking the queue again. */
+  pollMs?: number;
+  /** Clean-up of old outputs and sent mail; absent: this runner does not take that job. */
+  retention?: RetentionPolicy;
+}
+
+class JobDefect extends Error {}
+
+export class JobRunner {
+  private stopping = false;
+  private readonly loops: Promise<void>[] = [];
+  private readonly wakers = new Set<() => void>();
+  private readonly outputs = new OutputStore(32 * 1024 * 1024);
+  /** Job rows by id (their work does not change), so a chunk does not read a large plan again. */
+  private readonly rows = new Map<string, RunJobRow>();
+  /** Pieces of work finished since start (the benchmark and tests read it). */
+  processed = 0;
+
+  constructor(
+    private readonly database: Database,
+    private readonly boss: PgBoss,
+    private readonly compute: ComputePool,
+    private readonly logger: Logger,
+    private readonly options: JobRunnerOptions = {},
+  ) {}
+
+  private get db() {
+    return this.database.db;
+  }
+
+  start(): void {
+    const slots = this.options.slots ?? this.compute.threads;
+    for (let i = 0; i < slots; i++) this.loops.push(this.loop());
+    if (this.options.retention) this.loops.push(this.retentionLoop(this.options.retention));
+  }
+
+  /** Stops fetching and waits for the pieces under way (a piece cut short is handed out again later). */
+  async stop(): Promise<void> {
+    this.stopping = true;
+    for (const wake of this.wakers) wake();
+    await Promise.all(this.loops);
+  }
+
+  private async pause(ms: number): Promise<void> {
+    if (this.stopping) return;
+    const ac = new AbortController();
+    const wake = () => ac.abort();
+    this.wakers.add(wake);
+    await sleep(ms, undefined, { signal: ac.signal }).catch(() => undefined);
+    this.wakers.delete(wake);
+  }
+
+  /** Does `fn` again while the database is away, until it answers or the runner stops. */
+  private async whileAway<T>(what: string, fn: () => Promise<T>): Promise<T | undefined> {
+    for (let attempt = 0; ; attempt++) {
+      try {
+        return await fn();
+      } catch (err) {
+        if (!isDatabaseUnavailable(err)) throw err;
+        if (this.stopping) return undefined;
+        if (attempt === 0) this.logger.warn({ err: (err as Error).message }, `the database is away (${what}); waiting for it`);
+        await this.pause(Math.min(250 * 2 ** attempt, 5000));
+      }
+    }
+  }
+
+  private async loop(): Promise<void> {
+    let idle = 0;
+    while (!this.stopping) {
+      let job: PgBoss.Job<WorkMessage> | undefined;
+      try {
+        [job] = await this.boss.fetch<WorkMessage>(WORK_QUEUE, { batchSize: 1 });
+      } catch (err) {
+        if (!isDatabaseUnavailable(err)) this.logger.error({ err }, 'could not fetch work');
+        await this.pause(1000);
+        continue;
+      }
+      if (!job) {
+        await this.pause(Math.min((this.options.pollMs ?? 500) * 2 ** Math.min(idle++, 2), 2000));
+        continue;
+      }
+      idle = 0;
+      await this.process(job);
+    }
+  }
+
+  private async process(job: PgBoss.Job<WorkMessage>): Promise<void> {
+    try {
+      const done = await this.whileAway('running a job', async () => {
+        await this.handle(job.data);
+        return true;
+      });
+      // Stopped while the database was away: the piece stays active and is handed out again.
+      if (!done) return;
+    } catch (err) {
+      const message = err instanceof JobDefect ? err.message : `the server could not compute it: ${err instanceof Error ? err.message : String(err)}`;
+      this.logger.error({ err, jobId: job.data.jobId }, 'a job failed');
+      await this.whileAway('recording a failed job', () => this.failJob(job.data.jobId, message)).catch(() => undefined);
+    }
+    this.processed++;
+    await this.whileAway('acknowledging a job', () => this.boss.complete(WORK_QUEUE, job.id)).catch((err: unknown) => this.logger.error({ err }, 'could not acknowledge a job'));
+  }
+
+  private handle(message: WorkMessage): Promise<void> {
+    return message.type === 'run' ? this.runJob(message.jobId) : this.sweepChunk(message);
+  }
+
+  private async row(jobId: string): Promise<RunJobRow | null> {
+    const hit = this.rows.get(jobId);
+    if (hit) return hit;
+    const row = await loadJob(this.db, jobId);
+    if (row) {
+      if (this.rows.size >= 50) this.rows.delete(this.rows.keys().next().value!);
+      this.rows.set(jobId, row);
+    }
+    return row;
+  }
+
+  private async state(jobId: string): Promise<JobState | null> {
+    const [row] = await this.db.select({ state: runJobs.state }).from(runJobs).where(eq(runJobs.id, jobId));
+    return row?.state ?? null;
+  }
+
+  private async runJob(jobId: string): Promise<void> {
+    const row = await this.row(jobId);
+    if (!row) return;
+    const started = await this.db
+      .update(runJobs)
+      .set({ state: 'running', startedAt: sql`now()` })
+      .where(and(eq(runJobs.id, jobId), eq(runJobs.state, 'queued')))
+      .returning({ id: runJobs.id });
+    if (started.length) await notifyJob(this.db, { type: 'job', jobId, branchId: row.branchId });
+    const work = row.work as JobWork[];
+    const chunks: PgBoss.JobInsert<WorkMessage>[] = [];
+    for (const w of work) {
+      if (w.key === null) continue;
+      const state = await this.state(jobId);
+      if (state === null || !jobIsActive(state)) return;
+      if (await this.outputs.get(this.db, w.key)) continue;
+      const failed = await this.failedUpstream(w, work);
+      if (failed) {
+        await this.store(row, w, { status: 'error', resultJson: null, error: failed, durationMs: 0 });
+        continue;
+      }
+      if (w.cases > 0) {
+        for (let from = 0; from < w.cases; from += CASES_PER_CHUNK) {
+          chunks.push({ id: stableJobId(jobId, w.cellId, from), name: WORK_QUEUE, data: { type: 'cases', jobId, cellId: w.cellId, from, to: Math.min(from + CASES_PER_CHUNK, w.cases) } });
+        }
+        continue;
+      }
+      await this.store(row, w, await this.compute.cell(w.task!));
+    }
+    // Sent again after a retry these are the same ids, which the queue keeps once.
+    if (chunks.length) await this.boss.insert(chunks);
+    await this.finishIfDone(row);
+  }
+
+  /** The error a cell stores when a cell it uses failed; a cell it uses that has no output is a defect. */
+  private async failedUpstream(w: JobWork, work: readonly JobWork[]): Promise<CellError | null> {
+    for (const ref of w.refs) {
+      const up = work.find((u) => u.cellId === ref.cellId);
+      const out = up?.key ? await this.outputs.get(this.db, up.key) : null;
+      if (!up || !out) throw new JobDefect(`${CELL_KIND_LABELS[w.kind]}: the cell it uses (${ref.field}) could not be computed`);
+      if (out.status === 'error') return upstreamFailedError(up.kind, ref.field, out.error);
+    }
+    return null;
+  }
+
+  private async store(row: RunJobRow, w: JobWork, computed: ComputedOutput): Promise<CachedOutput> {
+    const out = await this.outputs.put(this.db, w.key!, w.kind, ENGINE_VERSION, computed);
+    await markDraftCells(this.db, row.branchId, [{ cellId: w.cellId, key: w.key!, ok: out.status === 'ok' }]);
+    await notifyJob(this.db, { type: 'output', jobId: row.id, branchId: row.branchId, cellId: w.cellId });
+    return out;
+  }
+
+  private async sweepChunk(message: Extract<WorkMessage, { type: 'cases' }>): Promise<void> {
+    const row = await this.row(message.jobId);
+    const state = row ? await this.state(row.id) : null;
+    if (!row || state === null || !jobIsActive(state)) return;
+    const w = (row.work as JobWork[]).find((u) => u.cellId === message.cellId);
+    if (!w?.key || !w.task) return;
+    const key = w.key;
+    if (!(await this.outputs.get(this.db, key))) {
+      const have = await this.db
+        .select({ index: sweepCases.index })
+        .from(sweepCases)
+        .where(and(eq(sweepCases.sweepKey, key), gte(sweepCases.index, message.from), lt(sweepCases.index, message.to)));
+      const present = new Set(have.map((h) => h.index));
+      const missing = [];
+      for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
+      if (missing.length) {
+        const computed = await this.compute.sweepCases({ task: w.task, indices: missing });
+        await this.db
+          .insert(sweepCases)
+          .values(computed.map((c) => ({ sweepKey: key, index: c.index, step: sql`${c.json}::jsonb` })))
+          .onConflictDoNothing();
+        await notifyJob(this.db, { type: 'job', jobId: row.id, branchId: row.branchId });
+      }
+      await this.assembleIfComplete(row, w);
+    }
+    await this.finishIfDone(row);
+  }
+
+  /** Once every case of a sweep is stored, its output is put together from them, in order. */
+  private async assembleIfComplete(row: RunJobRow, w: JobWork): Promise<void> {
+    const [{ n } = { n: 0 }] = await this.db
+      .select({ n: sql<number>`count(*)::int` })
+      .from(sweepCases)
+      .where(eq(sweepCases.sweepKey, w.key!));
+    if (n < w.cases) return;
+    const rows = await this.db.select({ step: sweepCases.step }).from(sweepCases).where(eq(sweepCases.sweepKey, w.key!)).orderBy(asc(sweepCases.index));
+    const started = row.startedAt ?? row.createdAt;
+    const durationMs = Date.now() - started.getTime();
+    let computed: ComputedOutput;
+    try {
+      const result = assembleSweep(w.task!.inputs as SweepInputs, rows.map((r) => r.step as Parameters<typeof assembleSweep>[1][number]));
+      computed = { status: 'ok', resultJson: JSON.stringify(result, roundedNumber), error: null, durationMs };
+    } catch (err) {
+      const error = toCellError(err);
+      if (!error) throw err;
+      computed = { status: 'error', resultJson: null, error, durationMs };
+    }
+    await this.store(row, w, computed);
+  }
+
+  /** When every output of the job is stored: the draft shows them all, the job is completed with its reports. */
+  private async finishIfDone(row: RunJobRow): Promise<void> {
+    const work = row.work as JobWork[];
+    const keys = work.flatMap((w) => (w.key ? [w.key] : []));
+    const found = await this.outputs.getMany(this.db, keys);
+    if (keys.some((k) => !found.has(k))) return;
+    await markDraftCells(this.db, row.branchId, work.flatMap((w) => (w.key ? [{ cellId: w.cellId, key: w.key, ok: found.get(w.key)!.status === 'ok' }] : [])));
+    const reports: CellRunReport[] = [...work].sort((a, b) => a.position - b.position).map((w) => {
+      const base = { cellId: w.cellId, kind: w.kind };
+      if (w.key === null) return { ...base, status: 'invalid', reused: false, key: null, durationMs: 0, error: w.problem };
+      const out = found.get(w.key)!;
+      return { ...base, status: out.status, reused: w.cached, key: w.key, durationMs: out.durationMs, error: out.error };
+    });
+    const finished = await this.db.transaction(async (tx) => {
+      const [done] = await tx
+        .update(runJobs)
+        .set({ state: 'completed', finishedAt: sql`now()`, reports })
+        .where(and(eq(runJobs.id, row.id), inArray(runJobs.state, ['queued', 'running'])))
+        .returning({ id: runJobs.id });
+      if (!done) return false;
+      await audit(tx, {
+        actorId: row.createdBy,
+        projectId: row.projectId,
+        action: 'cells.run',
+        targetType: 'branch',
+        targetId: row.branchId,
+        detail: {
+          studyId: row.studyId,
+          jobId: row.id,
+          cellIds: reports.map((r) => r.cellId),
+          computed: reports.filter((r) => !r.reused && (r.status === 'ok' || r.status === 'error')).length,
+          reused: reports.filter((r) => r.reused).length,
+          failed: reports.filter((r) => r.status !== 'ok').length,
+        },
+      });
+      return true;
+    });
+    if (finished) await notifyJob(this.db, { type: 'job', jobId: row.id, branchId: row.branchId });
+  }
+
+  private async failJob(jobId: string, message: string): Promise<void> {
+    const [row] = await this.db
+      .update(runJobs)
+      .set({ state: 'failed', error: message, finishedAt: sql`now()` })
+      .where(and(eq(runJobs.id, jobId), inArray(runJobs.state, ['queued', 'running'])))
+      .returning({ branchId: runJobs.branchId });
+    if (row) await notifyJob(this.db, { type: 'job', jobId, branchId: row.branchId });
+  }
+
+  private async retentionLoop(policy: RetentionPolicy): Promise<void> {
+    while (!this.stopping) {
+      try {
+        const [job] = await this.boss.fetch(RETENTION_QUEUE, { batchSize: 1 });
+        if (job) {
+          const pruned = await pruneRetained(this.db, policy);
+          this.logger.info(pruned, 'retention: pruned old outputs, sweep cases, finished jobs and sent mail');
+          await this.boss.complete(RETENTION_QUEUE, job.id);
+        }
+      } catch (err) {
+        if (!isDatabaseUnavailable(err)) this.logger.error({ err }, 'retention failed');
+      }
+      await this.pause(30_000);
+    }
+  }
+}

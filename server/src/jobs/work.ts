@@ -1,0 +1,52 @@
+import type { CellError, CellKind, SweepInputs } from '@laminote/contracts';
+import { sweepCaseCount, type CellTask } from '@laminote/aero';
+import { taskOf, type CellPlan } from '../notebook/plan';
+
+/**
+ * What a run job has to do, planned from the draft when the run was asked for: every cell it takes, in
+ * run order (each after the cells it uses), with the key its output will be stored under and the
+ * computation to hand a worker. A later edit of the draft does not change a job under way; its outputs
+ * are still stored by key and shown only where the draft's cell still has that key.
+ */
+export interface JobWork {
+  cellId: string;
+  kind: CellKind;
+  /** The output's key; null when the cell cannot run (its problems are its report). */
+  key: string | null;
+  problem: CellError | null;
+  task: CellTask | null;
+  refs: { field: string; cellId: string }[];
+  /** Cases of a sweep, each computed and stored on its own; 0 for other kinds. */
+  cases: number;
+  /** Its output was stored already when the run was asked for. */
+  cached: boolean;
+  /** Its place in the draft: reports list the cells as the notebook shows them. */
+  position: number;
+}
+
+/** Sweep cases per queue job: a few hundred milliseconds of work, so a lost worker costs little. */
+export const CASES_PER_CHUNK = 20;
+
+export function planWork(order: readonly string[], plans: Map<string, CellPlan>, stored: ReadonlySet<string>, draftOrder: readonly string[]): JobWork[] {
+  return order.map((cellId) => {
+    const plan = plans.get(cellId)!;
+    const first = plan.problems[0];
+    return {
+      cellId,
+      kind: plan.kind,
+      key: plan.key,
+      problem: plan.key === null ? (first ? { message: `${first.field}: ${first.message}`, field: first.field } : { message: 'the cell cannot run' }) : null,
+      task: taskOf(plan, plans),
+      refs: plan.refs,
+      cases: plan.kind === 'sweep' && plan.inputs ? sweepCaseCount(plan.inputs as SweepInputs) : 0,
+      cached: plan.key !== null && stored.has(plan.key),
+      position: draftOrder.indexOf(cellId),
+    };
+  });
+}
+
+/** Units of progress of one cell: one, or one per sweep case. */
+export const unitsOf = (work: JobWork): number => (work.cases > 0 ? work.cases : 1);
+
+/** Whether anything of the run is left to compute. */
+export const needsComputing = (work: readonly JobWork[]): boolean => work.some((w) => w.key !== null && !w.cached);

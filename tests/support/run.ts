@@ -1,0 +1,30 @@
+import { expect } from 'vitest';
+import { jobIsActive, type Job, type RunResponse } from '@laminote/contracts';
+import type { SignedIn } from './sign-in';
+
+/** Asks for a job until `until` holds (by default: it has finished); fails the test after `timeoutMs`. */
+export async function waitForJob(who: SignedIn, jobId: string, { timeoutMs = 60_000, until = (job: Job) => !jobIsActive(job.state) } = {}): Promise<Job> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const res = await who.get(`/api/jobs/${jobId}`);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const job = res.body as Job;
+    if (until(job)) return job;
+    if (Date.now() > deadline) throw new Error(`job ${jobId} is still ${job.state} (${job.done} of ${job.total}) after ${timeoutMs} ms`);
+    await new Promise((resolve) => setTimeout(resolve, 50));
+  }
+}
+
+/**
+ * Runs cells as a script would: POST /run, and when it answers 202 follows the job to its end, then
+ * reads the draft. Answers as a run that was all cached does (the draft and what ran).
+ */
+export async function runAndWait(who: SignedIn, branchId: string, body: object = {}, timeoutMs = 60_000): Promise<RunResponse & { jobId: string | null }> {
+  const res = await who.post(`/api/branches/${branchId}/run`, body);
+  if (res.status === 200) return { ...(res.body as RunResponse), jobId: null };
+  expect(res.status, JSON.stringify(res.body)).toBe(202);
+  const job = await waitForJob(who, res.body.jobId as string, { timeoutMs });
+  expect(job.state, job.error).toBe('completed');
+  const draft = await who.get(`/api/branches/${branchId}/draft`).expect(200);
+  return { ...draft.body, ran: job.ran ?? [], jobId: job.jobId };
+}
