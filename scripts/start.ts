@@ -151,12 +151,15 @@ async function main(): Promise<void> {
   await launch('identity', 'oidc-fake/src/main.ts', OIDC_PORT);
   await launch('smtp-sink', 'server/src/mail/sink-main.ts', SMTP_PORT);
   await launch('server', 'server/src/main.ts', PORT);
+  // One job worker computes the runs (more can run anywhere with `npm run worker`). It listens on no
+  // port; restarted with back-off like the helpers, and a run it was computing is taken up again.
+  services.push(supervise('worker', () => startService('worker', TSX, ['server/src/jobs/worker-main.ts'], env), { log, onGiveUp: giveUp }));
 
   const width = Math.max(...DEMO_USERS.map((u) => u.name.length));
   const who = DEMO_USERS.map((u) => `    ${u.name.padEnd(width)}  ${(u.siteAdmin ? 'site admin' : (u.role ?? 'no project')).padEnd(10)}  ${u.email}`).join('\n');
   process.stdout.write(
     `\nLaminote is running (ready in ${((Date.now() - started) / 1000).toFixed(1)} s):\n\n` +
-      `  app and API         ${publicUrl}\n  identity provider   http://${HOST}:${OIDC_PORT}\n` +
+      `  app and API         ${publicUrl}\n  job worker          1 process (add more with npm run worker)\n  identity provider   http://${HOST}:${OIDC_PORT}\n` +
       `  SMTP sink           ${HOST}:${SMTP_PORT}\n  PostgreSQL          ${databaseUrl.replace(/\/\/[^@]*@/, '//')}\n\n` +
       `  Demo sign-ins (invented people of the fictional Tamsk Aerodynamics; pick one on the sign-in page):\n${who}\n\n` +
       '  Press Ctrl-C to stop.\n\n',

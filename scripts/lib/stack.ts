@@ -100,6 +100,8 @@ export async function startTestStack(log: (line: string) => void, runSeed: (env:
         const server = startService('server', TSX, ['server/src/main.ts'], serverEnv, { quiet: !process.env['TEST_SERVER_LOGS'] });
         services.push(server);
         await waitForPort(HOST, appPort, 60_000, server.child);
+        // Runs are jobs: one worker process computes them, as under npm start.
+        services.push(startService('worker', TSX, ['server/src/jobs/worker-main.ts'], serverEnv, { quiet: !process.env['TEST_SERVER_LOGS'] }));
       },
     };
   } catch (err) {
