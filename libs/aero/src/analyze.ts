@@ -42,7 +42,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.2.0';
+export const ENGINE_VERSION = '1.2.1';
 
 /** Shown wherever results are: what these numbers are and what decides instead. */
 export const ENGINE_CAUTION =

@@ -375,6 +375,10 @@ export const sweepResultSchema = z.object({
           by: z.string().nullable(),
           laminarSeparationS: z.number().nullable(),
           cd: z.number().nullable(),
+          /** Where each evaluated criterion puts transition, x/c where the table gives x (else s); null when not reached. */
+          criteria: z.record(z.string(), z.number().nullable()).optional(),
+          /** Where the laminar run ends (governing transition, or the end of the surface), x/c as above. */
+          laminarExtent: z.number().nullable().optional(),
         }),
       ),
       attachmentLine: z.object({ reBar: z.number(), verdict: z.string() }).nullable(),

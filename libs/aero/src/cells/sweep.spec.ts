@@ -33,6 +33,26 @@ describe('a sweep computed case by case', () => {
   });
 });
 
+describe('what each step of a sweep reports', () => {
+  it('gives every evaluated criterion and the laminar extent beside the governing transition', () => {
+    const sw = inputs('sweep', { analysisCellId: ID, parameter: 'reynolds', from: 2e6, to: 2e7, steps: 4 });
+    const r = computeCell('sweep', sw, { analysisCellId: analysis });
+    for (const step of r.steps) {
+      const upper = step.surfaces[0]!;
+      expect(Object.keys(upper.criteria ?? {}).sort()).toEqual(['eN', 'michel']);
+      // e^N governs by default: its location is the governing one; the laminar run ends there, or at
+      // the trailing edge (x/c 1) of a plate that stays laminar.
+      expect(upper.criteria!['eN']).toBe(upper.transitionX);
+      expect(upper.laminarExtent).toBe(upper.transitionX ?? 1);
+    }
+    // On a flat plate Michel's criterion and e^N both move forward as Re grows (Blasius layer; common
+    // practice), so each criterion's curve falls with Re where it is reached.
+    const michel = r.steps.map((step) => step.surfaces[0]!.criteria!['michel']).filter((x): x is number => x !== null);
+    expect(michel.length).toBeGreaterThan(1);
+    expect(michel).toEqual([...michel].sort((a, b) => b - a));
+  });
+});
+
 describe('a sweep over a grid of two parameters', () => {
   it('runs every value of the second parameter at every value of the first, row by row', () => {
     const sw = inputs('sweep', { analysisCellId: ID, parameter: 'reynolds', from: 2e6, to: 8e6, steps: 3, second: { parameter: 'nCrit', from: 5, to: 11, steps: 4 } });

@@ -74,14 +74,21 @@ export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: num
       error: null,
       reynolds: r.flow.reynolds,
       cd: r.cd,
-      surfaces: r.surfaces.map((surface) => ({
-        name: surface.name,
-        transitionS: surface.transition.s,
-        transitionX: xAtArc(surface.stations.s, surface.stations.x, surface.transition.s),
-        by: surface.transition.by,
-        laminarSeparationS: surface.laminarSeparation?.s ?? null,
-        cd: surface.cd,
-      })),
+      surfaces: r.surfaces.map((surface) => {
+        const { s, x } = surface.stations;
+        const along = (at: number | null | undefined): number | null => (at === null || at === undefined ? null : (xAtArc(s, x, at) ?? at));
+        const end = s.length ? s[s.length - 1]! : null;
+        return {
+          name: surface.name,
+          transitionS: surface.transition.s,
+          transitionX: xAtArc(s, x, surface.transition.s),
+          by: surface.transition.by,
+          laminarSeparationS: surface.laminarSeparation?.s ?? null,
+          cd: surface.cd,
+          criteria: Object.fromEntries(Object.entries(surface.transition.criteria).map(([criterion, found]) => [criterion, along(found?.s)])),
+          laminarExtent: along(surface.transition.s ?? end),
+        };
+      }),
       attachmentLine: r.attachmentLine ? { reBar: r.attachmentLine.reBar, verdict: r.attachmentLine.verdict } : null,
     },
     warnings: r.warnings,
