@@ -1,7 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { ReportCell, ReportTable } from './cell-sections';
-import { when, type VersionReportModel } from './model';
+import { when } from './format';
+import type { VersionReportModel } from './model';
 import { renderSvgPlot } from './svg-plot';
 
 /**

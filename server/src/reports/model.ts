@@ -75,6 +75,4 @@ export function reportFileName(model: VersionReportModel, extension: 'html' | 'p
   return `${slug || 'laminote-report'}.${extension}`;
 }
 
-export function when(iso: string): string {
-  return `${iso.slice(0, 16).replace('T', ' ')} UTC`;
-}
+export { when } from './format';

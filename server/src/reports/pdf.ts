@@ -3,7 +3,8 @@ import path from 'node:path';
 import pdfmake from 'pdfmake';
 import type { Content, TDocumentDefinitions, TableCell } from 'pdfmake/interfaces';
 import type { ReportCell, ReportTable } from './cell-sections';
-import { when, type VersionReportModel } from './model';
+import { when } from './format';
+import type { VersionReportModel } from './model';
 import { PLOT_HEIGHT, PLOT_WIDTH, renderSvgPlot } from './svg-plot';
 
 /**
