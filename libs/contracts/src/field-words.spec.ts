@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { fieldLabel, readableMessage } from './field-words';
+import { fieldPathLabel, readableMessage } from './field-words';
 
 describe('field words', () => {
   it('says a field path as the label the cell shows', () => {
-    expect(fieldLabel('turbulenceIntensity', 'flow')).toBe('Turbulence level');
-    expect(fieldLabel('flow.mach')).toBe('Mach number');
-    expect(fieldLabel('trips.upper', 'analysis')).toBe('Trip on upper at x/c');
-    expect(fieldLabel('pressureTable line 7')).toBe('Pressure table, line 7');
-    expect(fieldLabel('inputs.reynolds', 'flow')).toBe('Reynolds number');
-    expect(fieldLabel('somethingUnknown')).toBeNull();
+    expect(fieldPathLabel('turbulenceIntensity', 'flow')).toBe('Turbulence level');
+    expect(fieldPathLabel('flow.mach')).toBe('Mach number');
+    expect(fieldPathLabel('trips.upper', 'analysis')).toBe('Trip on upper at x/c');
+    expect(fieldPathLabel('pressureTable line 7')).toBe('Pressure table, line 7');
+    expect(fieldPathLabel('inputs.reynolds', 'flow')).toBe('Reynolds number');
+    expect(fieldPathLabel('somethingUnknown')).toBeNull();
   });
 
   it('puts the labels into the messages people read (the reports from trying the notebook)', () => {

@@ -35,7 +35,7 @@ function labelIn(kind: CellKind | null, name: string): string | null {
  * The label of a field path, or null when the path names nothing known. `kind` picks the cell's own
  * labels first (a flat plate's "reynolds" is its own Reynolds number).
  */
-export function fieldLabel(path: string, kind: CellKind | null = null): string | null {
+export function fieldPathLabel(path: string, kind: CellKind | null = null): string | null {
   const table = /^(?:pressureTable|text) line (\d+)$/.exec(path);
   if (table) return `Pressure table, line ${table[1]}`;
   const parts = path.replace(/\[(\d+)\]/g, '.$1').split('.').filter((p) => p !== '' && p !== 'inputs');
@@ -64,9 +64,9 @@ export function readableMessage(message: string, kind: CellKind | null = null): 
   let text = message.replace(/\b(?:pressureTable|text) line (\d+)\b/g, 'Pressure table, line $1');
   const leading = LEADING_NAME.exec(text);
   if (leading) {
-    const label = fieldLabel(leading[1]!, kind);
+    const label = fieldPathLabel(leading[1]!, kind);
     if (label) text = label + text.slice(leading[1]!.length);
   }
-  text = text.replace(CODE_NAME, (name) => fieldLabel(name, kind) ?? name);
+  text = text.replace(CODE_NAME, (name) => fieldPathLabel(name, kind) ?? name);
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
