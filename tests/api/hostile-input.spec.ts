@@ -92,7 +92,7 @@ describe('hostile input on every write route', () => {
     check('draft with an unknown note input', unknown, 400, /^cells\[0\]\.inputs\.attachment$/);
     expect(unknown.body.detail).toMatch(/^Cell 1 · /);
     const big = { baseRevision: draft.revision, cells: [{ cellId: randomUUID(), kind: 'note', title: 'Big', inputs: { markdown: 'x'.repeat(3_000_000) } }] };
-    check('draft with a 3 MB note', await send(draftRoute, fillPath(draftRoute, ids), JSON.stringify(big)), 400, /^cells\[0\]\.inputs$/);
+    check('draft with a note of 3 million characters (its limit is 200 000)', await send(draftRoute, fillPath(draftRoute, ids), JSON.stringify(big)), 400, /^cells\[0\]\.inputs$/);
     expect(failures).toEqual([]);
   });
 

@@ -42,6 +42,7 @@ export const ACCESS_RULES: Readonly<Record<string, AccessRule>> = {
   'POST /api/inbox/read-about': 'signedIn',
   'POST /api/inbox/:notificationId/read': { ownedBy: 'engineer' },
   'GET /api/methods/validation': 'signedIn',
+  'GET /api/openapi.json': 'signedIn',
   'GET /api/projects': 'signedIn',
   'POST /api/projects': 'siteAdmin',
   'GET /api/dev/mail': 'siteAdminHidden',

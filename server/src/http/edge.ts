@@ -10,9 +10,13 @@ import { badRequest } from './problem';
  * label on screen, never 500.
  */
 
-/** Largest serialised inputs of one cell: a pressure cell holds its whole table; the others are small. */
+/**
+ * Largest serialised inputs of one cell. Twice what its fields may validly hold: a table or note a
+ * little over its limit is still saved as typed, with the problem shown in the cell (nothing typed is
+ * lost); far beyond it is refused. A pressure cell holds its whole table; the others are small.
+ */
 export function cellInputsLimit(kind: CellKind): number {
-  return kind === 'pressure' ? PRESSURE_TEXT_LIMIT + 64 * 1024 : 256 * 1024;
+  return kind === 'pressure' ? 2 * PRESSURE_TEXT_LIMIT : 1024 * 1024;
 }
 
 /** The input fields a cell kind has: its schema's keys. */
