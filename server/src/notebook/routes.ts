@@ -10,7 +10,7 @@ import { draftDocument, studyDocumentFilename } from './study-document';
 import type { JobEvents } from '../jobs/events';
 import type { JobService } from '../jobs/service';
 import { streamBranchJobs } from '../jobs/stream';
-import { needsComputing } from '../jobs/work';
+import { isQuickRun, needsComputing } from '../jobs/work';
 import { draftJson, draftObject, type NotebookService } from './service';
 import { findUpload, receiveFile, storeUpload } from './uploads';
 
@@ -54,8 +54,9 @@ export function notebookRouter({ db, notebook, jobs, events }: { db: Db; noteboo
   });
 
   /**
-   * Runs the named cells (and what they use), or every cell: 202 with the job when anything has to be
-   * computed (workers take it from the queue), 200 with the draft at once when every output is stored.
+   * Runs the named cells (and what they use), or every cell: 202 with the job when more than a few
+   * quick cells have to be computed (workers take it from the queue), 200 with the draft at once when
+   * every output is stored or the server has just computed the few that were missing.
    */
   router.post('/branches/:branchId/run', async (req, res) => {
     const ctx = await branchAccess(db, req.user!, req.params.branchId);
@@ -63,7 +64,9 @@ export function notebookRouter({ db, notebook, jobs, events }: { db: Db; noteboo
     requireWritable(ctx);
     const body = parse(runRequestSchema, req.body ?? {});
     const work = await jobs.plan(ctx, body.cellIds);
-    if (needsComputing(work)) {
+    // A few quick cells are computed at once on this server's engine pool and stored by key exactly as
+    // a worker stores them, so a small run answers in milliseconds; longer work goes to the queue.
+    if (needsComputing(work) && !isQuickRun(work)) {
       const job = await jobs.enqueue(ctx, req.user!, work);
       res.status(202).location(`/api/jobs/${job.jobId}`).json({ jobId: job.jobId, job });
       return;
