@@ -2,6 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { VALIDATION_SUITES } from '@laminote/aero';
 import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
+import { testEnv } from '../support/env';
 
 let browser: Browser;
 let page: Page;
@@ -53,6 +54,21 @@ describe('methods and validation pages', () => {
     await page.screenshot({ path: '/tmp/laminote-e2e-validation.png' });
     await page.locator('#suite-mangler-cone').scrollIntoViewIfNeeded();
     await page.screenshot({ path: '/tmp/laminote-e2e-validation-mangler.png' });
+  });
+
+  it('reads the API reference from the server’s OpenAPI description, every route with its token scope', async () => {
+    await page.goto(`${testEnv.appUrl}/api-reference`);
+    await page.getByRole('heading', { name: 'API reference', level: 1 }).waitFor();
+    await page.locator('article.route').first().waitFor();
+    const doc = await page.evaluate(async () => (await fetch('/api/openapi.json')).json());
+    const routes = Object.values(doc.paths as Record<string, object>).reduce((n: number, ops) => n + Object.keys(ops).length, 0);
+    expect(await page.locator('article.route').count()).toBe(routes);
+    const report = page.locator('article.route[data-route="GET /api/versions/{versionId}/report.pdf"]');
+    await expect(report.textContent()).resolves.toMatch(/token: Read.*application\/pdf/s);
+    const create = page.locator('article.route[data-route="POST /api/me/tokens"]');
+    await create.getByText('CreateToken').click();
+    await expect(create.locator('pre').first().textContent()).resolves.toContain('"expiresInDays"');
+    await page.screenshot({ path: '/tmp/laminote-e2e-api-reference.png' });
   });
 
   it('met no script error and no content-security-policy violation', () => {

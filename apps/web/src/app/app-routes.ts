@@ -50,6 +50,12 @@ export const routes: Routes = [
     title: 'Methods · Laminote',
   },
   {
+    path: 'api-reference',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./api-reference/api-reference-page').then((m) => m.ApiReferencePage),
+    title: 'API reference · Laminote',
+  },
+  {
     path: 'settings/tokens',
     canActivate: [requireSignIn],
     loadComponent: () => import('./settings/tokens-page').then((m) => m.TokensPage),

@@ -8,6 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
+import { RouterLink } from '@angular/router';
 import { TOKEN_SCOPE_LABELS, type CreatedToken, type TokenScope, type TokenSummary } from '@laminote/contracts';
 import { Notifier } from '../core/notifier';
 import { loader } from '../shared/load-state';
@@ -33,6 +34,7 @@ const STATE_WORDS: Record<TokenSummary['state'], string> = { active: 'Active', e
     MatSelectModule,
     ProblemBanner,
     ReactiveFormsModule,
+    RouterLink,
   ],
   templateUrl: './tokens-page.html',
   styleUrl: './tokens-page.scss',
