@@ -3,7 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule, MatMenuTrigger } from '@angular/material/menu';
 import type { CellKind } from '@laminote/contracts';
-import { ADDABLE_KINDS, cellKindInfo } from './cell-kinds';
+import { ADDABLE_KINDS, cellKindInfo } from '../shared/cell-kinds';
 
 /**
  * Adds a cell at one place in the stack: a thin insertion line between cells, or the full button at

@@ -2,7 +2,7 @@ import { DestroyRef, type Signal, computed, effect, inject, untracked } from '@a
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import type { FormGroup } from '@angular/forms';
 import { CELL_INPUT_SCHEMAS, sameJson, type DraftCell } from '@laminote/contracts';
-import { DraftSession } from './draft-session';
+import { DraftSession } from '../shared/draft-session';
 
 const PLAIN_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 

@@ -5,7 +5,7 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { provideTestApp } from '../../testing/test-app';
 import { CellFrame } from './cell-frame';
 import { CellFrameHarness } from './testing/cell-frame-harness';
-import { FLOW_ID, cell, output } from './testing/notebook-fixtures';
+import { FLOW_ID, cell, output } from '../../testing/notebook-fixtures';
 
 describe('CellFrame', () => {
   beforeEach(() => TestBed.configureTestingModule({ providers: provideTestApp() }));

@@ -10,7 +10,7 @@ import type { DraftCell, Problem } from '@laminote/contracts';
 import { problemMessage } from '../core/problem';
 import { CellThreads } from '../review/cell-threads';
 import { CellThreadsButton } from '../review/cell-threads-button';
-import { RUN_STATE_INFO, cellKindInfo } from './cell-kinds';
+import { RUN_STATE_INFO, cellKindInfo } from '../shared/cell-kinds';
 
 /**
  * One cell in the stack: a head with the kind, the title, the run state and the cell's actions, and the

@@ -3,8 +3,8 @@ import { ChangeDetectionStrategy, Component, computed, inject, input } from '@an
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import type { CellOutput, DraftCell } from '@laminote/contracts';
-import { DraftSession } from './draft-session';
-import { NotebookApi } from './notebook-api';
+import { DraftSession } from '../shared/draft-session';
+import { NotebookApi } from '../shared/notebook-api';
 
 /** The output a cell shows: the newest good one, and whether it still matches the inputs. */
 export interface ShownResult {

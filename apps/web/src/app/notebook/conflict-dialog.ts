@@ -3,9 +3,9 @@ import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/c
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { cellKindInfo } from './cell-kinds';
-import type { CellChange } from './draft-diff';
-import type { DraftConflict } from './draft-session';
+import { cellKindInfo } from '../shared/cell-kinds';
+import type { CellChange } from '../shared/draft-diff';
+import type { DraftConflict } from '../shared/draft-session';
 
 export type ConflictChoice = 'mine' | 'theirs';
 

@@ -9,10 +9,10 @@ import type { Branch, Draft, Me } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { PROJECT_ID, STUDY_ID, me, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
-import { AUTOSAVE_DELAY_MS } from './draft-session';
+import { AUTOSAVE_DELAY_MS } from '../shared/draft-session';
 import { NotebookPage } from './notebook-page';
 import { CellFrameHarness } from './testing/cell-frame-harness';
-import { ANALYSIS_ID, BRANCH_ID, FLOW_ID, NOTE_ID, PRESSURE_ID, cell, draft } from './testing/notebook-fixtures';
+import { ANALYSIS_ID, BRANCH_ID, FLOW_ID, NOTE_ID, PRESSURE_ID, cell, draft } from '../../testing/notebook-fixtures';
 
 const branch: Branch = {
   id: BRANCH_ID,

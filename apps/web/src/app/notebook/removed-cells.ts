@@ -3,8 +3,8 @@ import { ChangeDetectionStrategy, Component, input, output } from '@angular/core
 import { MatButtonModule } from '@angular/material/button';
 import { MatExpansionModule } from '@angular/material/expansion';
 import { MatIconModule } from '@angular/material/icon';
-import { cellKindInfo } from './cell-kinds';
-import type { RemovedCell } from './draft-session';
+import { cellKindInfo } from '../shared/cell-kinds';
+import type { RemovedCell } from '../shared/draft-session';
 
 /** The draft's recently removed cells, each one click from coming back. */
 @Component({

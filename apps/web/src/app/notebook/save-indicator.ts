@@ -4,7 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import type { Problem } from '@laminote/contracts';
 import { problemMessage } from '../core/problem';
-import type { SaveStatus } from './draft-session';
+import type { SaveStatus } from '../shared/draft-session';
 
 const TEXT: Record<SaveStatus, { label: string; icon: string }> = {
   saved: { label: 'All edits saved', icon: 'cloud_done' },

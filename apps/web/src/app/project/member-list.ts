@@ -15,7 +15,7 @@ import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
 import { ProjectApi } from '../shared/project-api';
 import { ROLE_LABELS } from '../shared/role-label';
-import { ConfirmDialog, type ConfirmDialogData } from './confirm-dialog';
+import { ConfirmDialog, type ConfirmDialogData } from '../shared/confirm-dialog';
 
 /** Who is in a project and in what role; leads and site admins add, re-role and remove members. */
 @Component({

@@ -4,7 +4,7 @@ import { ActivatedRoute } from '@angular/router';
 import { type Member, type ProjectAccess, type Thread, can } from '@laminote/contracts';
 import { catchError, of, switchMap } from 'rxjs';
 import { Auth } from '../core/auth';
-import { DraftSession } from '../notebook/draft-session';
+import { DraftSession } from '../shared/draft-session';
 import type { ReviewView } from './review-api';
 import { ThreadStore, type ThreadsOfView } from './thread-store';
 

@@ -12,7 +12,7 @@ import { ActivatedRoute } from '@angular/router';
 import type { PlotAnchor } from '@laminote/contracts';
 import { Notifier } from '../core/notifier';
 import { UnreadCount } from '../inbox/unread-count';
-import { DraftSession } from '../notebook/draft-session';
+import { DraftSession } from '../shared/draft-session';
 import { roleLabel } from '../shared/role-label';
 import { AnchorStrip } from './anchor-strip';
 import { cellReviewContext } from './cell-review-context';

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import type { CellChange, CellDiff, PressureTableDiff } from '@laminote/contracts';
-import { cellKindInfo } from '../notebook/cell-kinds';
+import { cellKindInfo } from '../shared/cell-kinds';
 
 const CHANGE_LABELS: Record<CellChange, string> = {
   added: 'Added',

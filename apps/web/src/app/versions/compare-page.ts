@@ -12,7 +12,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { Comparison } from '@laminote/contracts';
 import { of } from 'rxjs';
 import { Notifier } from '../core/notifier';
-import { sci } from '../notebook/format';
+import { sci } from '../shared/format';
 import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { Plot } from '../shared/plot';

@@ -7,9 +7,9 @@ import {
   type TransitionDelta,
   type VersionSummary,
 } from '@laminote/contracts';
-import { CAUSE_LABELS, CRITERION_LABELS } from '../notebook/analysis/analysis-summary';
-import { sci } from '../notebook/format';
-import { PARAMETER_LABELS } from '../notebook/sweep/sweep-cell';
+import { CAUSE_LABELS, CRITERION_LABELS } from '../shared/analysis-summary';
+import { sci } from '../shared/format';
+import { PARAMETER_LABELS } from '../shared/sweep-parameters';
 import type { PlotFigure, PlotMarker } from '../shared/plot';
 
 /**

@@ -13,9 +13,9 @@ import { Plot } from '../../shared/plot';
 import { ScrollCue } from '../../shared/scroll-cue';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { DraftSession } from '../draft-session';
-import { sci } from '../format';
-import { CRITERION_LABELS, type Location, analysisFigures, summarise } from './analysis-summary';
+import { DraftSession } from '../../shared/draft-session';
+import { sci } from '../../shared/format';
+import { CRITERION_LABELS, type Location, analysisFigures, summarise } from '../../shared/analysis-summary';
 
 interface AnalysisFormValue {
   flowCellId: string;

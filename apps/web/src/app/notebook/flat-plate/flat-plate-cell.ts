@@ -7,7 +7,7 @@ import { flatPlateEstimate } from '@laminote/aero';
 import type { DraftCell, FlatPlateResult } from '@laminote/contracts';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { sci } from '../format';
+import { sci } from '../../shared/format';
 
 type Mode = 'reynolds' | 'dimensional';
 type TransitionMode = 'reynolds' | 'location';

@@ -6,9 +6,9 @@ import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { provideTestApp } from '../../../testing/test-app';
-import { DraftSession } from '../draft-session';
+import { DraftSession } from '../../shared/draft-session';
 import { FlowCellHarness } from '../testing/cell-body-harnesses';
-import { BRANCH_ID, FLOW_ID, cell, draft } from '../testing/notebook-fixtures';
+import { BRANCH_ID, FLOW_ID, cell, draft } from '../../../testing/notebook-fixtures';
 import { FlowCell } from './flow-cell';
 
 @Component({

@@ -8,7 +8,7 @@ import { MACK_TURBULENCE_RANGE, type FlowCondition, deriveFlowCondition, mackCri
 import type { DraftCell, FlowResult } from '@laminote/contracts';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { fixed, sci } from '../format';
+import { fixed, sci } from '../../shared/format';
 
 type FlowMode = 'altitude' | 'reynolds';
 type TurbulenceMode = 'intensity' | 'nCrit';

@@ -16,8 +16,8 @@ import {
 import type { AttachmentLineVerdict, DraftCell, LeadingEdgeResult } from '@laminote/contracts';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { DraftSession } from '../draft-session';
-import { sci } from '../format';
+import { DraftSession } from '../../shared/draft-session';
+import { sci } from '../../shared/format';
 
 type Mode = 'radius' | 'gradient';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { renderMarkdown } from './note-cell';
+import { renderMarkdown } from '../../shared/markdown';
 
 describe('renderMarkdown', () => {
   it('renders the Markdown a note is written in', () => {

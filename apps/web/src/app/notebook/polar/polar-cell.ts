@@ -7,10 +7,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { SECTION_LIMITS, type DraftCell, type PolarResult } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
-import { CRITERION_LABELS } from '../analysis/analysis-summary';
+import { CRITERION_LABELS } from '../../shared/analysis-summary';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { DraftSession } from '../draft-session';
+import { DraftSession } from '../../shared/draft-session';
 import { dragPolarFigure, liftCurveFigure, outlineFigure, transitionFigure, type OutlineMark } from '../section/section-figures';
 
 interface PolarFormValue {

@@ -7,9 +7,9 @@ import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing'
 import { beforeEach, describe, expect, it } from 'vitest';
 import { provideTestApp } from '../../../testing/test-app';
 import { PLOT_RENDERER } from '../../shared/plot';
-import { DraftSession } from '../draft-session';
+import { DraftSession } from '../../shared/draft-session';
 import { PressureCellHarness } from '../testing/cell-body-harnesses';
-import { BRANCH_ID, PRESSURE_ID, cell, draft } from '../testing/notebook-fixtures';
+import { BRANCH_ID, PRESSURE_ID, cell, draft } from '../../../testing/notebook-fixtures';
 import { PressureCell } from './pressure-cell';
 
 @Component({

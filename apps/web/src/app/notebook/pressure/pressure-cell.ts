@@ -12,8 +12,8 @@ import { type DraftCell, type PressureResult, UPLOAD_LIMIT_BYTES } from '@lamino
 import { problemMessage, toProblem } from '../../core/problem';
 import { Plot } from '../../shared/plot';
 import { CellResult, shownResult } from '../cell-result';
-import { DraftSession } from '../draft-session';
-import { NotebookApi } from '../notebook-api';
+import { DraftSession } from '../../shared/draft-session';
+import { NotebookApi } from '../../shared/notebook-api';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { previewCpTable, resultFigure, resultStagnation, slopeFigure } from './cp-preview';
 

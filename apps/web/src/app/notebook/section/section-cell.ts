@@ -10,7 +10,7 @@ import type { DraftCell, SectionResult } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { DraftSession } from '../draft-session';
+import { DraftSession } from '../../shared/draft-session';
 import { cpFigure, outlineFigure } from './section-figures';
 
 interface SectionFormValue {

@@ -6,8 +6,8 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { provideTestApp } from '../../../testing/test-app';
 import { PLOT_RENDERER } from '../../shared/plot';
-import { DraftSession } from '../draft-session';
-import { ANALYSIS_ID, BRANCH_ID, cell, draft } from '../testing/notebook-fixtures';
+import { DraftSession } from '../../shared/draft-session';
+import { ANALYSIS_ID, BRANCH_ID, cell, draft } from '../../../testing/notebook-fixtures';
 import { SweepCell } from './sweep-cell';
 
 const SWEEP_ID = '11111111-2222-4333-8444-555555555505';

@@ -8,9 +8,10 @@ import { type DraftCell, SWEEP_RANGES, type SweepInputs, type SweepResult } from
 import { PLOT_COLOURS, Plot, type PlotFigure, type PlotTrace } from '../../shared/plot';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
-import { DraftSession } from '../draft-session';
-import { CAUSE_LABELS } from '../analysis/analysis-summary';
-import { rangeText, sci } from '../format';
+import { DraftSession } from '../../shared/draft-session';
+import { CAUSE_LABELS } from '../../shared/analysis-summary';
+import { rangeText, sci } from '../../shared/format';
+import { PARAMETER_LABELS } from '../../shared/sweep-parameters';
 
 type Parameter = SweepInputs['parameter'];
 
@@ -22,12 +23,6 @@ interface SweepFormValue {
   steps: string;
 }
 
-export const PARAMETER_LABELS: Record<Parameter, string> = {
-  reynolds: 'Reynolds number Re',
-  mach: 'Mach number M∞',
-  nCrit: 'Critical N-factor N_crit',
-  sweepDeg: 'Leading-edge sweep Λ (°)',
-};
 
 /** Parameter sweep: one analysis re-run over a range of one parameter, to see whether the laminar run survives off-design. */
 @Component({

@@ -1,6 +1,6 @@
 import type { CellKind, CellOutput, Draft, DraftCell } from '@laminote/contracts';
-import { STUDY_ID } from '../../../testing/test-app';
-import { defaultInputs } from '../cell-kinds';
+import { STUDY_ID } from './test-app';
+import { defaultInputs } from '../app/shared/cell-kinds';
 
 // Invented ids of the demo scenario's notebook (Tamsk Aerodynamics, Larkspur T-62).
 export const BRANCH_ID = '4b7d2e91-8c3a-4f5e-9a1b-2c3d4e5f6a70';

@@ -1,6 +1,6 @@
 import { michelTransitionReTheta } from '@laminote/aero';
 import type { CriterionMissingReason, EngineResult, EngineSurfaceResult, TransitionCause, TransitionCriterion } from '@laminote/contracts';
-import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from '../../shared/plot';
+import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from './plot';
 
 export const CRITERION_LABELS: Record<TransitionCriterion, string> = {
   eN: 'Envelope eᴺ',
