@@ -7,6 +7,11 @@ export async function waitForJob(who: SignedIn, jobId: string, { timeoutMs = 60_
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const res = await who.get(`/api/jobs/${jobId}`);
+    // While the database is away the server answers 503; ask again.
+    if (res.status === 503 && Date.now() < deadline) {
+      await new Promise((resolve) => setTimeout(resolve, 500));
+      continue;
+    }
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const job = res.body as Job;
     if (until(job)) return job;
