@@ -29,8 +29,8 @@ export interface SendForReviewData {
   template: `
     <h2 mat-dialog-title>Send version {{ data.versionNumber }} of {{ data.branchName }} for review</h2>
     <form (submit)="$event.preventDefault(); send()" aria-label="Send this version for review">
-      <mat-dialog-content class="lam-dialog-form">
-        <mat-form-field appearance="outline">
+      <mat-dialog-content class="fields">
+        <mat-form-field>
           <mat-label>Reviewers</mat-label>
           <mat-select multiple [value]="chosen()" (valueChange)="chosen.set($event)" name="reviewers">
             @for (m of reviewers(); track m.userId) {
@@ -43,7 +43,7 @@ export interface SendForReviewData {
             <mat-hint>Each is notified and asked for a verdict on this version.</mat-hint>
           }
         </mat-form-field>
-        <mat-form-field appearance="outline">
+        <mat-form-field>
           <mat-label>Note to the reviewers (optional)</mat-label>
           <textarea matInput rows="3" name="message" maxlength="4000" [ngModel]="message()" (ngModelChange)="message.set($event)"></textarea>
         </mat-form-field>
@@ -53,6 +53,17 @@ export interface SendForReviewData {
         <button mat-flat-button type="submit" [disabled]="busy() || chosen().length === 0">Send for review</button>
       </mat-dialog-actions>
     </form>
+  `,
+  styles: `
+    .fields {
+      display: flex;
+      flex-direction: column;
+      gap: 0.25rem;
+      padding-top: 0.5rem !important;
+    }
+    .fields .mat-mdc-form-field {
+      width: 100%;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
