@@ -66,5 +66,5 @@ describe('role matrix from the route table', () => {
     process.stdout.write(`[role matrix] ${tried} requests over ${routes.length} routes × ${CALLERS.length} callers; ${wrong.length} wrong\n`);
     expect(wrong).toEqual([]);
     expect(tried).toBe(routes.length * CALLERS.length);
-  });
+  }, 180_000);
 });

@@ -54,6 +54,7 @@ export const ACCESS_RULES: Readonly<Record<string, AccessRule>> = {
   'DELETE /api/projects/:projectId/members/:userId': { project: 'manageMembers' },
   'GET /api/projects/:projectId/studies': { project: 'read' },
   'POST /api/projects/:projectId/studies': { project: 'editStudy' },
+  'POST /api/projects/:projectId/studies/import': { project: 'editStudy' },
   'GET /api/studies/:studyId': { project: 'read' },
   'PATCH /api/studies/:studyId': { project: 'editStudy' },
   'GET /api/studies/:studyId/branches': { project: 'read' },

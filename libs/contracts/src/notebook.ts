@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { cellErrorSchema, cellKindSchema } from './cell-schemas';
+import { safeText } from './text';
 
 /**
  * The study notebook: the branch draft, runs and outputs. What each kind of cell holds and computes
@@ -10,7 +11,7 @@ import { cellErrorSchema, cellKindSchema } from './cell-schemas';
 export const draftCellInputSchema = z.object({
   cellId: z.string().uuid('cellId must be a UUID'),
   kind: cellKindSchema,
-  title: z.string().max(200, 'title must be at most 200 characters').default(''),
+  title: safeText('title').max(200, 'title must be at most 200 characters').default(''),
   collapsed: z.boolean().default(false),
   inputs: z.record(z.string(), z.unknown()),
 });

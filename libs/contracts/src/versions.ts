@@ -3,6 +3,7 @@ import { branchSchema, problemSchema } from './api';
 import type { CellKind } from './cell-kinds';
 import { cellKindSchema } from './cell-schemas';
 import { cellOutputSchema } from './notebook';
+import { safeText } from './text';
 
 /**
  * Versions, branches and comparison (DESIGN.md "Notebook model"): a branch has a working draft and a
@@ -15,8 +16,7 @@ const isoDate = z.string();
 const person = z.object({ id, name: z.string() }).nullable();
 
 const text = (field: string, max: number) =>
-  z
-    .string({ error: `${field} is required` })
+  safeText(field)
     .trim()
     .min(1, `${field} must not be empty`)
     .max(max, `${field} must be at most ${max} characters`);
@@ -123,7 +123,7 @@ export type RestoreResult = z.infer<typeof restoreResultSchema>;
 /** POST /api/versions/:versionId/branches (leads; engineers when the project allows) */
 export const createBranchSchema = z.object({
   name: text('name', 80).regex(/^[^\s/][^/]*$/, 'name must not start with a space or contain "/"'),
-  purpose: z.string().trim().max(2000, 'purpose must be at most 2000 characters').default(''),
+  purpose: safeText('purpose').trim().max(2000, 'purpose must be at most 2000 characters').default(''),
 });
 export type CreateBranch = z.input<typeof createBranchSchema>;
 
@@ -131,7 +131,7 @@ export type CreateBranch = z.input<typeof createBranchSchema>;
 export const updateBranchSchema = z
   .object({
     name: text('name', 80).regex(/^[^\s/][^/]*$/, 'name must not start with a space or contain "/"').optional(),
-    purpose: z.string().trim().max(2000, 'purpose must be at most 2000 characters').optional(),
+    purpose: safeText('purpose').trim().max(2000, 'purpose must be at most 2000 characters').optional(),
     archived: z.boolean().optional(),
   })
   .refine((v) => Object.keys(v).length > 0, { message: 'nothing to change: give name, purpose or archived' });
