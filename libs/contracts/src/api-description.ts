@@ -33,7 +33,7 @@ import {
   updateNotificationPrefsSchema,
   versionReviewDetailSchema,
 } from './review';
-import { studyDocumentSchema } from './study-document';
+import { importStudyResultSchema, importStudySchema, studyDocumentSchema } from './study-document';
 import { createdTokenSchema, createTokenSchema, tokenSummarySchema } from './tokens';
 import {
   branchOverviewSchema,
@@ -124,6 +124,8 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   op('DELETE', '/api/projects/:projectId/members/:userId', 'Projects', 'Remove a member (leads)', { status: 204 }),
   op('GET', '/api/projects/:projectId/studies', 'Studies', 'A project’s studies', { response: list('Study', studySchema) }),
   op('POST', '/api/projects/:projectId/studies', 'Studies', 'Create a study with its main branch', { body: named('CreateStudy', createStudySchema), status: 201, response: named('Study', studySchema) }),
+
+  op('POST', '/api/projects/:projectId/studies/import', 'Studies', 'Make a study from a study export (GET …/export, from here or another Laminote): cells, inputs and outputs', { body: named('ImportStudy', importStudySchema), status: 201, response: named('ImportStudyResult', importStudyResultSchema) }),
 
   op('GET', '/api/studies/:studyId', 'Studies', 'A study', { response: named('Study', studySchema) }),
   op('PATCH', '/api/studies/:studyId', 'Studies', 'Rename, describe or archive a study', { body: named('UpdateStudy', updateStudySchema), response: named('Study', studySchema) }),

@@ -51,3 +51,24 @@ export const studyDocumentSchema = z.object({
   cells: z.array(studyDocumentCellSchema).max(500, 'a study document holds at most 500 cells'),
 });
 export type StudyDocument = z.infer<typeof studyDocumentSchema>;
+
+/** POST /api/projects/:projectId/studies/import: a study document, as exported, made a new study here. */
+export const importStudySchema = z.object({
+  document: studyDocumentSchema,
+  /** The new study's title; the document's own title when left out. */
+  title: z.string().trim().min(1, 'title must not be empty').max(200, 'title must be at most 200 characters').optional(),
+});
+export type ImportStudy = z.input<typeof importStudySchema>;
+
+/** What an import answers: the new study, and what was kept. */
+export const importStudyResultSchema = z.object({
+  studyId: z.string().uuid(),
+  branchId: z.string().uuid(),
+  title: z.string(),
+  cellCount: z.number().int(),
+  /** Cells whose stored output came along (same engine version and inputs as here). */
+  outputsKept: z.number().int(),
+  /** Cells whose output was left behind (another engine version, or inputs that no longer read); run them to compute it again. */
+  outputsLeft: z.number().int(),
+});
+export type ImportStudyResult = z.infer<typeof importStudyResultSchema>;

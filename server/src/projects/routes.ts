@@ -1,8 +1,9 @@
 import { Router } from 'express';
-import { addMemberSchema, createProjectSchema, createStudySchema, updateMemberSchema, updateProjectSchema } from '@laminote/contracts';
+import { addMemberSchema, createProjectSchema, createStudySchema, importStudySchema, updateMemberSchema, updateProjectSchema } from '@laminote/contracts';
 import type { Db } from '../db/client';
 import { projectAccess, requireAction } from '../access/access';
 import { forbidden, parse } from '../http/problem';
+import { importStudy } from '../studies/import';
 import * as studies from '../studies/service';
 import * as service from './service';
 
@@ -72,6 +73,13 @@ export function projectsRouter({ db }: { db: Db }): Router {
     const input = parse(createStudySchema, req.body);
     const study = await db.transaction((tx) => studies.createStudy(tx, req.user!, projectId, input));
     res.status(201).json(await studies.getStudy(db, study.id));
+  });
+
+  router.post('/:projectId/studies/import', async (req, res) => {
+    const { projectId, access } = await projectAccess(db, req.user!, req.params.projectId);
+    requireAction(access, 'editStudy');
+    const input = parse(importStudySchema, req.body);
+    res.status(201).json(await db.transaction((tx) => importStudy(tx, req.user!, projectId, input)));
   });
 
   return router;
