@@ -18,12 +18,12 @@ import type { EnginePool } from './engine/pool';
 import type { JobEvents } from './jobs/events';
 import { jobsRouter } from './jobs/routes';
 import { JobService } from './jobs/service';
-import { draftBodyParser, notebookRouter } from './notebook/routes';
 import { NotebookService } from './notebook/service';
 import { projectsRouter } from './projects/routes';
 import { studiesRouter } from './studies/routes';
 import { versionsRouter } from './versions/routes';
-import { branchesRouter } from './branches/routes';
+import { branchesRouter, draftBodyParser } from './branches/routes';
+import { uploadsRouter } from './uploads/routes';
 import { commentsRouter } from './comments/routes';
 import { compareRouter } from './compare/routes';
 import { inboxRouter } from './inbox/routes';
@@ -116,22 +116,22 @@ export function createApp(deps: AppDeps): Express {
   app.use(authRouter({ config, db, oidc: deps.oidc, logger }));
 
   const api = Router();
+  const notebook = new NotebookService(db, deps.engine, logger);
+  const jobs = new JobService(db, database.pool, deps.jobs.boss, notebook);
   // One router per resource: /api/<name> is served by server/src/<name>/routes.ts.
   api.use('/me', meRouter({ db }));
   api.use('/projects', projectsRouter({ db }));
   api.use('/studies', studiesRouter({ db, config }));
-  api.use('/branches', branchesRouter({ db }));
+  api.use('/branches', branchesRouter({ db, notebook, jobs, events: deps.jobs.events }));
   api.use('/versions', versionsRouter({ db, config }));
   api.use('/threads', threadsRouter({ db, config }));
   api.use('/comments', commentsRouter({ db, config }));
   api.use('/inbox', inboxRouter({ db }));
   api.use('/compare', compareRouter({ db }));
-  const notebook = new NotebookService(db, deps.engine, logger);
-  const jobs = new JobService(db, database.pool, deps.jobs.boss, notebook);
-  api.use(notebookRouter({ db, notebook, jobs, events: deps.jobs.events }));
-  api.use(jobsRouter({ db, jobs }));
+  api.use('/uploads', uploadsRouter({ db }));
+  api.use('/jobs', jobsRouter({ db, jobs }));
+  api.use('/methods', methodsRouter());
   api.use(devMailRouter({ config }));
-  api.use(methodsRouter());
   api.use(notFoundHandler);
   app.use('/api', api);
 

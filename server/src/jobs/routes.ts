@@ -1,19 +1,17 @@
 import { Router } from 'express';
-import { jobIsActive, type JobState } from '@laminote/contracts';
+import { isUuid, jobIsActive, type JobState } from '@laminote/contracts';
 import type { Db } from '../db/client';
 import { projectAccess, requireAction } from '../access/access';
 import { notFound, ProblemError } from '../http/problem';
 import type { JobService } from './service';
 import { jobView, loadJob } from './store';
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 /** /api/jobs: how far a run is, and cancelling it. A job in a project you are not in does not exist for you. */
 export function jobsRouter({ db, jobs }: { db: Db; jobs: JobService }): Router {
   const router = Router();
 
   const visibleJob = async (user: Parameters<typeof projectAccess>[1], jobId: string) => {
-    if (!UUID.test(jobId)) throw notFound('job');
+    if (!isUuid(jobId)) throw notFound('job');
     const row = await loadJob(db, jobId);
     if (!row) throw notFound('job');
     const ctx = await projectAccess(db, user, row.projectId).catch(() => {
@@ -22,12 +20,12 @@ export function jobsRouter({ db, jobs }: { db: Db; jobs: JobService }): Router {
     return { row, ctx };
   };
 
-  router.get('/jobs/:jobId', async (req, res) => {
+  router.get('/:jobId', async (req, res) => {
     const { row } = await visibleJob(req.user!, req.params.jobId);
     res.json(await jobView(db, row));
   });
 
-  router.delete('/jobs/:jobId', async (req, res) => {
+  router.delete('/:jobId', async (req, res) => {
     const { row, ctx } = await visibleJob(req.user!, req.params.jobId);
     requireAction(ctx.access, 'runCells');
     if (!jobIsActive(row.state as JobState)) {

@@ -11,7 +11,7 @@ export function methodsRouter(): Router {
   const router = Router();
   let report: ValidationReport | null = null;
 
-  router.get('/methods/validation', (_req, res) => {
+  router.get('/validation', (_req, res) => {
     report ??= runValidationReport();
     res.json(report);
   });

@@ -4,6 +4,7 @@ import type { Config } from '../config';
 import type { Db } from '../db/client';
 import { requireAction, studyAccess } from '../access/access';
 import { parse } from '../http/problem';
+import { receiveFile, storeUpload } from '../notebook/uploads';
 import { reviewStudy, viewOf } from '../review/context';
 import * as threads from '../review/threads';
 import * as review from '../review/verdicts';
@@ -12,9 +13,10 @@ import * as versions from '../versions/service';
 import * as service from './service';
 
 /**
- * /api/studies: a study, its branches, its history and baseline, its comment threads and review state.
- * (Listing and making studies is under /api/projects/:projectId/studies; uploads to a study are in
- * notebook/routes.ts.)
+ * /api/studies: a study, its branches, its history and baseline, its comment threads and review state,
+ * uploads to it.
+ * (Listing and making studies is under /api/projects/:projectId/studies.) Files uploaded
+ * to a study are read back under /api/uploads.
  */
 export function studiesRouter({ db, config }: { db: Db; config: Pick<Config, 'PUBLIC_URL'> }): Router {
   const router = Router();
@@ -68,6 +70,13 @@ export function studiesRouter({ db, config }: { db: Db; config: Pick<Config, 'PU
   router.get('/:studyId/review', async (req, res) => {
     const s = await reviewStudy(db, req, req.params.studyId);
     res.json(await review.studyReview(db, s.ref.id));
+  });
+
+  router.post('/:studyId/uploads', async (req, res) => {
+    const { study, projectId, access } = await studyAccess(db, req.user!, req.params.studyId);
+    requireAction(access, 'editStudy');
+    const file = await receiveFile(req, res);
+    res.status(201).json(await storeUpload(db, req.user!, { projectId, studyId: study.id }, file));
   });
 
   return router;
