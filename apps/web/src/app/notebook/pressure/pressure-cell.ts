@@ -93,7 +93,7 @@ export class PressureCell {
         surfaceName: value.surfaceName,
         hasRadius: value.hasRadius,
         smoothing: value.smoothing,
-        smoothingHalfWidth: value.smoothing === 'width' ? (numberInput(value.smoothingHalfWidth) ?? 3) : undefined,
+        smoothingHalfWidth: value.smoothing === 'width' ? numberInput(value.smoothingHalfWidth) : undefined,
         // A table edited after upload is no longer the stored file; the name stays to say where it came from.
         uploadId: edited ? null : (previous['uploadId'] ?? null),
         filename: previous['filename'] ?? null,
