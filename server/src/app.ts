@@ -31,6 +31,7 @@ import { meRouter } from './me/routes';
 import { threadsRouter } from './threads/routes';
 import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
+import { openapiRouter } from './openapi/routes';
 import { bearerAuth } from './tokens/bearer';
 
 export interface AppDeps {
@@ -132,6 +133,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/jobs', jobsRouter({ db, jobs }));
   api.use('/methods', methodsRouter());
   api.use(devMailRouter({ config }));
+  api.use('/openapi.json', openapiRouter({ config }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -14,6 +14,7 @@ import {
   updateProjectSchema,
   updateStudySchema,
 } from './api';
+import { jobSchema, runQueuedSchema } from './jobs';
 import { validationReportSchema } from './methods';
 import { draftSchema, runRequestSchema, runResponseSchema, saveDraftSchema, uploadResponseSchema } from './notebook';
 import {
@@ -80,6 +81,8 @@ export interface ApiOperation {
   /** Success status and what it carries; `null` for an empty answer. */
   status: number;
   response: NamedSchema | OtherContent | null;
+  /** A second answer, 202 Accepted, when the work goes on as a job. */
+  accepted?: NamedSchema;
   /** Reached by a personal API token of this scope (or not at all). */
   token: 'read' | 'run' | 'none';
 }
@@ -140,7 +143,8 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
 
   op('GET', '/api/branches/:branchId/draft', 'Notebook', 'A branch’s working draft: cells, inputs, run state and outputs', { response: named('Draft', draftSchema) }),
   op('PUT', '/api/branches/:branchId/draft', 'Notebook', 'Save the draft’s cells (autosave); 409 when based on an older revision', { body: named('SaveDraft', saveDraftSchema), response: named('Draft', draftSchema), token: 'run' }),
-  op('POST', '/api/branches/:branchId/run', 'Notebook', 'Run the draft’s stale cells (or the named ones)', { body: named('RunRequest', runRequestSchema), response: named('RunResponse', runResponseSchema), token: 'run' }),
+  op('POST', '/api/branches/:branchId/run', 'Notebook', 'Run the draft’s stale cells (or the named ones)', { body: named('RunRequest', runRequestSchema), response: named('RunResponse', runResponseSchema), accepted: named('RunQueued', runQueuedSchema), token: 'run' }),
+  op('GET', '/api/branches/:branchId/events', 'Notebook', 'Server-sent events: run progress and outputs as they land', { response: { contentType: 'text/event-stream', description: 'One event per change (job progress, a landed output).' } }),
   op('GET', '/api/branches/:branchId/export', 'Notebook', 'The draft as one study document (cells, inputs, outputs)', { response: named('StudyDocument', studyDocumentSchema) }),
   op('GET', '/api/branches/:branchId/cells/:cellId/export', 'Notebook', 'One cell’s result as CSV or JSON', { response: csv }),
   op('POST', '/api/branches/:branchId/draft/restore', 'Versions', 'Put a version’s cells into the draft', { body: named('RestoreDraft', restoreDraftSchema), response: named('RestoreResult', restoreResultSchema) }),
@@ -170,6 +174,9 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   op('POST', '/api/inbox/read-all', 'Inbox', 'Mark every notification read', { response: unreadCount }),
   op('POST', '/api/inbox/read-about', 'Inbox', 'Mark read what is about a thread or version just opened', { body: named('ReadAbout', readAboutSchema), response: unreadCount }),
   op('POST', '/api/inbox/:notificationId/read', 'Inbox', 'Mark one notification read', { response: unreadCount }),
+
+  op('GET', '/api/jobs/:jobId', 'Notebook', 'A run job: state and progress cell by cell', { response: named('Job', jobSchema) }),
+  op('DELETE', '/api/jobs/:jobId', 'Notebook', 'Cancel a run job', { response: named('Job', jobSchema), token: 'run' }),
 
   op('GET', '/api/methods/validation', 'Methods', 'Run the engine’s shared reference cases: reference, value, tolerance, pass or fail, source', { response: named('ValidationReport', validationReportSchema) }),
   op('GET', '/api/openapi.json', 'Service', 'This description, as OpenAPI 3.1', { response: { contentType: 'application/json', description: 'The OpenAPI 3.1 document.' } }),

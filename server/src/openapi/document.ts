@@ -46,6 +46,7 @@ export function buildOpenApiDocument(publicUrl: string, operations: readonly Api
       [String(o.status)]: o.response
         ? { description: isNamed(o.response) ? o.response.name : o.response.description, content: isNamed(o.response) ? { 'application/json': { schema: ref(o.response, 'output') } } : { [o.response.contentType]: {} } }
         : { description: 'Done; no body.' },
+      ...(o.accepted ? { '202': { description: `${o.accepted.name}: the work goes on as a job`, content: { 'application/json': { schema: ref(o.accepted, 'output') } } } } : {}),
       '400': { description: 'Bad input: the field (or table line) at fault is named.', content: problem },
       '401': { description: 'Not signed in, or the API token is unknown, revoked or expired.', content: problem },
       '403': { description: 'The caller’s role, or the token’s scope, does not allow this.', content: problem },
