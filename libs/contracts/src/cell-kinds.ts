@@ -6,7 +6,7 @@
  * "How to add a cell kind".
  */
 
-export const CELL_KINDS = ['flow', 'pressure', 'section', 'analysis', 'polar', 'sweep', 'flatPlate', 'leadingEdge', 'note'] as const;
+export const CELL_KINDS = ['flow', 'pressure', 'section', 'analysis', 'polar', 'sweep', 'comparison', 'flatPlate', 'leadingEdge', 'note'] as const;
 export type CellKind = (typeof CELL_KINDS)[number];
 
 /**
@@ -184,6 +184,20 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
       second: 'Second parameter (grid)',
     },
     starter: { analysisCellId: '', parameter: 'nCrit', from: 7, to: 12, steps: 6 },
+  },
+  comparison: {
+    label: 'Comparison',
+    icon: 'stacked_line_chart',
+    hint: 'Overlay the Cp, N-factor and H of several pressure cells or analyses',
+    runs: true,
+    references: {
+      firstCellId: { kinds: ['pressure', 'analysis'], required: true },
+      secondCellId: { kinds: ['pressure', 'analysis'], required: true },
+      thirdCellId: { kinds: ['pressure', 'analysis'], required: false },
+      fourthCellId: { kinds: ['pressure', 'analysis'], required: false },
+    },
+    fields: { firstCellId: 'First cell', secondCellId: 'Second cell', thirdCellId: 'Third cell', fourthCellId: 'Fourth cell' },
+    starter: { firstCellId: '', secondCellId: '' },
   },
   note: {
     label: 'Note',

@@ -140,6 +140,15 @@ export const SWEEP_RANGES: Record<SweepInputs['parameter'], { min: number; max: 
 };
 export type SweepInputs = z.infer<typeof sweepInputsSchema>;
 
+/** Comparison: two to four pressure cells or analyses of the study, overlaid. */
+export const comparisonInputsSchema = z.object({
+  firstCellId: cellRef('firstCellId'),
+  secondCellId: cellRef('secondCellId'),
+  thirdCellId: cellRef('thirdCellId').nullable().default(null),
+  fourthCellId: cellRef('fourthCellId').nullable().default(null),
+});
+export type ComparisonInputs = z.infer<typeof comparisonInputsSchema>;
+
 /** Flat-plate estimate: quick skin-friction sizing for nacelles and fairings. */
 export const flatPlateInputsSchema = z.object({
   mode: z.enum(['reynolds', 'dimensional']).default('reynolds'),
@@ -266,6 +275,7 @@ export const CELL_INPUT_SCHEMAS = {
   analysis: analysisInputsSchema,
   polar: polarInputsSchema,
   sweep: sweepInputsSchema,
+  comparison: comparisonInputsSchema,
   flatPlate: flatPlateInputsSchema,
   leadingEdge: leadingEdgeInputsSchema,
   note: noteInputsSchema,
@@ -388,6 +398,33 @@ export const sweepResultSchema = z.object({
 });
 export type SweepResult = z.infer<typeof sweepResultSchema>;
 
+/** A comparison's overlay: per named cell (by its input field), each surface's curves and, for analyses, transition and drag. */
+export const comparisonResultSchema = z.object({
+  entries: z.array(
+    z.object({
+      field: z.string(),
+      kind: z.enum(['pressure', 'analysis']),
+      flow: z.object({ reynolds: z.number(), mach: z.number(), nCrit: z.number() }).nullable(),
+      cd: z.number().nullable(),
+      surfaces: z.array(
+        z.object({
+          name: z.string(),
+          /** x/c where the table gives x, else arc length s. */
+          x: z.array(z.number()),
+          cp: z.array(z.number().nullable()),
+          n: z.array(z.number().nullable()).nullable(),
+          H: z.array(z.number().nullable()).nullable(),
+          transitionX: z.number().nullable(),
+          by: z.string().nullable(),
+          cd: z.number().nullable(),
+        }),
+      ),
+    }),
+  ),
+  warnings: z.array(z.string()),
+});
+export type ComparisonResult = z.infer<typeof comparisonResultSchema>;
+
 /** Flat-plate estimate: mean skin-friction coefficients per side on the free-stream dynamic pressure. */
 export const flatPlateResultSchema = z.object({
   reynolds: z.number(),
@@ -435,6 +472,7 @@ export const CELL_SCHEMAS = {
   analysis: { inputs: analysisInputsSchema, result: analysisResultSchema },
   polar: { inputs: polarInputsSchema, result: polarResultSchema },
   sweep: { inputs: sweepInputsSchema, result: sweepResultSchema },
+  comparison: { inputs: comparisonInputsSchema, result: comparisonResultSchema },
   flatPlate: { inputs: flatPlateInputsSchema, result: flatPlateResultSchema },
   leadingEdge: { inputs: leadingEdgeInputsSchema, result: leadingEdgeResultSchema },
   note: { inputs: noteInputsSchema, result: null },

@@ -1,5 +1,6 @@
 import { CELL_KIND_LABELS, type CellError, type CellInputs, type CellKind, type CellResults, type ComputedKind } from '@laminote/contracts';
 import { computeAnalysis } from './analysis';
+import { computeComparison } from './comparison';
 import { toCellError } from './errors';
 import { computeFlatPlate } from './flat-plate';
 import { computeFlow } from './flow';
@@ -26,6 +27,7 @@ export const CELL_COMPUTE: { readonly [K in ComputedKind]: Compute<K> } = {
   analysis: computeAnalysis,
   polar: computePolar,
   sweep: computeSweep,
+  comparison: computeComparison,
   flatPlate: (inputs) => computeFlatPlate(inputs),
   leadingEdge: computeLeadingEdge,
 };

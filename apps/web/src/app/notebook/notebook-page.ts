@@ -47,6 +47,7 @@ import { PressureCell } from './pressure/pressure-cell';
 import { RemovedCells } from './removed-cells';
 import { SaveIndicator } from './save-indicator';
 import { Shortcuts } from './shortcuts';
+import { ComparisonCell } from './comparison/comparison-cell';
 import { SweepCell } from './sweep/sweep-cell';
 import { VersionBar } from '../versions/version-bar';
 
@@ -101,6 +102,7 @@ function isTextEntry(target: EventTarget | null): boolean {
     RouterLink,
     SaveIndicator,
     SweepCell,
+    ComparisonCell,
     VersionBar,
   ],
   providers: [DraftSession],
