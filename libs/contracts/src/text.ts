@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isUuid } from './values';
 
 /**
  * Safe text and safe JSON: what the API accepts from anyone, decided once. PostgreSQL stores neither
@@ -36,11 +37,9 @@ export function finiteNumber(label: string) {
   return z.number({ error: `${label} must be a number` }).finite(`${label} must be a finite number`);
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 /** Whether `value` has the form of the ids Laminote gives out (UUIDs). */
 export function isId(value: string): boolean {
-  return UUID.test(value);
+  return isUuid(value);
 }
 
 /**

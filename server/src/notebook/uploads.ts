@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm';
 import type { Request, Response } from 'express';
 import multer from 'multer';
 import { binaryTableFault } from '@laminote/aero';
-import { textFault, UPLOAD_LIMIT_BYTES, type UploadResponse } from '@laminote/contracts';
+import { isUuid, textFault, UPLOAD_LIMIT_BYTES, type UploadResponse } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
 import type { Db } from '../db/client';
@@ -73,10 +73,8 @@ export async function storeUpload(db: Db, actor: SessionUser, ids: { projectId: 
   return { uploadId: row.id, filename, size: bytes.length, sha256, contentType, encoding, text };
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 export async function findUpload(db: Db, uploadId: string) {
-  if (!UUID.test(uploadId)) throw notFound('upload');
+  if (!isUuid(uploadId)) throw notFound('upload');
   const [row] = await db.select().from(uploads).where(eq(uploads.id, uploadId));
   if (!row) throw notFound('upload');
   return row;
