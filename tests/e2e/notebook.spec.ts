@@ -1,4 +1,6 @@
-import { analyzeCase } from '@laminote/aero';
+import { readFileSync } from 'node:fs';
+import { analyzeCase, computeStudy } from '@laminote/aero';
+import { studyDocumentSchema } from '@laminote/contracts';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -140,6 +142,21 @@ describe('the study notebook', () => {
     await frame(ANALYSIS_TITLE).waitFor();
     await expect(frame(PRESSURE_TITLE).getByLabel(/Cp table/).inputValue()).resolves.toBe(TABLE);
     await expect.poll(() => frame(ANALYSIS_TITLE).locator('.run-state-label').textContent()).toBe('Up to date');
+  });
+
+  it('downloads the whole study as one document, which the engine computes again to the same numbers', async () => {
+    const link = page.getByRole('link', { name: 'Download the study' });
+    await link.scrollIntoViewIfNeeded();
+    await page.locator('header.notebook-head').screenshot({ path: '/tmp/laminote-e2e-notebook-head.png' });
+    const [download] = await Promise.all([page.waitForEvent('download'), link.click()]);
+    expect(download.suggestedFilename()).toMatch(/^outboard-section-.+-main-draft\.laminote\.json$/);
+    const document = studyDocumentSchema.parse(JSON.parse(readFileSync((await download.path())!, 'utf8')));
+    const stored = document.cells.find((c) => c.title === ANALYSIS_TITLE)!;
+    expect(stored.output?.status).toBe('ok');
+    // What `npm run aero -- study` does with the file: every cell again from its inputs alone.
+    const again = computeStudy(document).cells.find((c) => c.cellId === stored.cellId)!;
+    const transition = (doc: typeof stored) => (doc.output!.result as { surfaces: { transition: { s: number | null } }[] }).surfaces.map((s) => s.transition.s);
+    expect(transition(again)).toEqual(transition(stored));
   });
 
   it('met no script error and no content-security-policy violation', () => {
