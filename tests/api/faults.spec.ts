@@ -53,7 +53,9 @@ function serverEnv(databaseUrl: string): NodeJS.ProcessEnv {
 beforeAll(async () => {
   scratch = mkdtempSync(path.join(tmpdir(), 'laminote-faults-'));
   chmodSync(scratch, 0o755);
-  cluster = await startCluster(path.join(scratch, 'pg'), await freePort(), log, { mode: 'throwaway' });
+  // Durable, as `npm start` keeps it: with synchronous_commit off (the throw-away test clusters), an
+  // immediate shutdown loses commits that were already acknowledged, and this drill catches that.
+  cluster = await startCluster(path.join(scratch, 'pg'), await freePort(), log, { mode: 'durable', secretFile: path.join(scratch, 'pg-password') });
   await ensureDatabase(cluster.url('postgres'), 'laminote');
   smtpPort = await freePort();
   sink = await startSink({ smtpPort });
