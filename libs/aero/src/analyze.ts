@@ -20,7 +20,7 @@ import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './he
 import { hRexTransitionReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
 import { parsePressureTable } from './pressure-table';
-import { bodyAt, prepareSection, sectionAt, ShapeInputError } from './section-case';
+import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
 import { automaticHalfWidth, estimateScatter, leastSquaresSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
 import { squireYoungDrag } from './squire-young';
@@ -208,7 +208,7 @@ function surfacesFromShape(
       const prepared = prepareSection(engineCase.section);
       warnings.push(...prepared.warnings.map((w) => `section: ${w}`));
       const inviscid = sectionAt(prepared, engineCase.section, mach);
-      const table = inviscid.x.map((x, i) => `${x} ${inviscid.y[i]} ${inviscid.cp[i]}`).join('\n');
+      const table = inviscidTable(inviscid);
       const radius = prepared.geometry.leadingEdgeRadius;
       return { surfaces: surfacesFromTable(table, mach, sweep, warnings), inviscid, leadingEdgeRadius: Number.isFinite(radius) && radius > 0 ? radius : undefined };
     }

@@ -1,6 +1,6 @@
 import type { EngineCaseInput, EngineResult } from '@laminote/contracts';
 import { analyzeCase } from './analyze';
-import { sectionAt, type PreparedSection } from './section-case';
+import { inviscidTable, sectionAt, type PreparedSection } from './section-case';
 
 /**
  * A section's polar: at each incidence (or lift coefficient) of a range, the panel solution
@@ -48,11 +48,6 @@ export interface PolarFlow {
 export function polarValues(range: PolarRange): number[] {
   if (range.points === 1) return [range.from];
   return Array.from({ length: range.points }, (_, k) => range.from + ((range.to - range.from) * k) / (range.points - 1));
-}
-
-/** The closed-loop `x y cp` table of a panel solution, as the engine reads pasted tables. */
-export function inviscidTable(solution: { x: number[]; y: number[]; cp: number[] }): string {
-  return solution.x.map((x, i) => `${x.toPrecision(12)} ${solution.y[i].toPrecision(12)} ${solution.cp[i].toPrecision(12)}`).join('\n');
 }
 
 export function polarPoint(prepared: PreparedSection, at: { alphaDeg?: number; cl?: number }, flow: PolarFlow, options: Pick<EngineCaseInput, 'criteria' | 'governing'> = {}): PolarPoint {

@@ -1,6 +1,5 @@
 import { pressureInputsSchema, type FlowInputs, type PressureInputs, type SectionInputs, type SectionResult } from '@laminote/contracts';
-import { inviscidTable } from '../polar';
-import { prepareSection, sectionAt, ShapeInputError, type PreparedSection } from '../section-case';
+import { inviscidTable, prepareSection, sectionAt, ShapeInputError, type PreparedSection } from '../section-case';
 import { fail } from './errors';
 import { computeFlow } from './flow';
 import { optionalUpstreamOf, type Upstream } from './types';
