@@ -177,7 +177,17 @@ async function makeStudy(context: BrowserContext): Promise<string> {
     );
   }
   await api<Draft>(context, 'PUT', `/api/branches/${main!.id}/draft`, { baseRevision: draft.revision, cells });
-  await api<Draft>(context, 'POST', `/api/branches/${main!.id}/run`, {});
+  // A run of this many cells is a job (202): it is followed until it has finished, so every cell has its result.
+  const run = await api<{ jobId?: string }>(context, 'POST', `/api/branches/${main!.id}/run`, {});
+  if (run.jobId) {
+    for (let waited = 0; ; waited += 100) {
+      const job = await api<{ state: string; error?: string }>(context, 'GET', `/api/jobs/${run.jobId}`);
+      if (job.state === 'completed') break;
+      if (job.state !== 'queued' && job.state !== 'running') throw new Error(`the study's run ended ${job.state}: ${job.error ?? ''}`);
+      if (waited > 300_000) throw new Error('the study did not finish running in 5 minutes');
+      await new Promise((r) => setTimeout(r, 100));
+    }
+  }
   return study.id;
 }
 
