@@ -89,9 +89,8 @@ function table(kind: Exclude<DraftCell['kind'], 'note'>, result: unknown): { fie
       }
       return { fields: [r.parameter, 'surface', 'transitionS', 'transitionX', 'transitionBy', 'laminarSeparationS', 'cdSurface', 'cd', 'error'], rows };
     }
-    case 'flow':
-    case 'flatPlate':
-    case 'leadingEdge': {
+    default: {
+      // Flow, flat plate, leading edge, and any kind without a table of its own: its scalar results.
       const r = result as Record<string, unknown>;
       const rows: Cell[][] = [];
       for (const [name, value] of Object.entries(r)) {
