@@ -25,7 +25,12 @@ export function computePolar(p: PolarInputs, upstream: Upstream): PolarResult {
   const points = polarValues({ by: p.by, from: p.from, to: p.to, points: p.points }).map((value) => {
     try {
       const point = polarPoint(prepared, p.by === 'alpha' ? { alphaDeg: value } : { cl: value }, engineFlow, options);
-      for (const w of point.warnings) if (!warnings.includes(w)) warnings.push(w);
+      const at = p.by === 'alpha' ? `α = ${value.toFixed(2)}°` : `cl = ${value.toFixed(3)}`;
+      // Said once for the whole polar when every point says it (the closed trailing edge), else per point.
+      for (const w of point.warnings) {
+        const line = w.startsWith('section: ') ? w.slice('section: '.length) : `${at}: ${w}`;
+        if (!warnings.includes(line)) warnings.push(line);
+      }
       return { alphaDeg: point.alphaDeg, cl: point.cl, cm: point.cm, cd: point.cd, surfaces: point.surfaces, problem: null };
     } catch (error) {
       if (!(error instanceof CaseError || error instanceof ShapeInputError)) throw error;

@@ -1,0 +1,131 @@
+import { computeCell } from '@laminote/aero';
+import { CELL_SCHEMAS, type CellInputs } from '@laminote/contracts';
+import type { Browser, Locator, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
+
+/**
+ * From a shape to a drag polar in the browser: the demo engineer adds a flow condition, a section cell
+ * from a NACA designation, runs it and reads its lift; adds a polar of it, runs it and sees the drag
+ * bucket, the lift curve, the transition plot and the outline with transition marks; and points a
+ * transition analysis at the section cell instead of a pressure cell.
+ */
+
+const RUN = Date.now().toString(36);
+const FLOW_TITLE = `E2E ${RUN}: Re 6e6, M 0 (invented)`;
+const SECTION_TITLE = `E2E ${RUN}: NACA 2412 at 2°`;
+const POLAR_TITLE = `E2E ${RUN}: polar −4° to 8°`;
+const ANALYSIS_TITLE = `E2E ${RUN}: analysis of the section`;
+
+let browser: Browser;
+let page: Page;
+const problems: string[] = [];
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  page = await browser.newPage({ viewport: { width: 1400, height: 1000 } });
+  collectPageProblems(page, problems);
+});
+afterAll(async () => browser?.close());
+
+function frame(title: string): Locator {
+  return page.locator(`lam-cell-frame[data-cell-title="${title}"]`);
+}
+
+async function addCell(kind: string, title: string): Promise<Locator> {
+  const before = await page.locator('lam-cell-frame').count();
+  await page.getByRole('button', { name: 'Add cell' }).click();
+  await page.getByRole('menuitem', { name: new RegExp(kind) }).click();
+  await expect.poll(() => page.locator('lam-cell-frame').count()).toBe(before + 1);
+  const added = page.locator('lam-cell-frame').last();
+  await added.locator('input.title-input').fill(title);
+  return frame(title);
+}
+
+async function pick(cell: Locator, label: string | RegExp, option: string): Promise<void> {
+  await cell.getByRole('combobox', { name: label }).click();
+  await page.getByRole('option', { name: option }).click();
+}
+
+async function run(cell: Locator): Promise<void> {
+  await cell.getByRole('button', { name: 'Run' }).click();
+  await expect.poll(() => cell.locator('.run-state-label').textContent(), { timeout: 60_000 }).toBe('Up to date');
+}
+
+const inputs = <K extends 'section' | 'flow' | 'polar'>(kind: K, given: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
+
+describe('sections and polars in the notebook', () => {
+  it('opens the demo study', async () => {
+    await signInThroughProvider(page, 'engineer');
+    await page.getByRole('link', { name: /Larkspur T-62 wing/ }).first().click();
+    await page.getByRole('link', { name: /Outboard section, cruise/ }).first().click();
+    await page.getByRole('button', { name: 'Add cell' }).waitFor();
+  });
+
+  it('adds a flow condition and a NACA 2412 section, runs it and reads the engine’s lift', async () => {
+    const flow = await addCell('Flow condition', FLOW_TITLE);
+    await flow.getByText('Reynolds number', { exact: true }).click();
+    await flow.getByLabel(/Reynolds number Re/).fill('6e6');
+    await flow.getByLabel(/Mach number/).fill('0');
+
+    const section = await addCell('Section', SECTION_TITLE);
+    await expect(section.getByLabel('NACA designation').inputValue()).resolves.toBe('2412');
+    await section.getByLabel(/Incidence α/).fill('2');
+    await run(section);
+    const expected = computeCell('section', inputs('section', { naca: '2412', alphaDeg: 2 }), {});
+    const clCell = section.locator('table.quantities tr', { hasText: 'Lift coefficient' }).locator('td');
+    await expect(clCell.textContent()).resolves.toBe(expected.inviscid.cl.toFixed(4));
+    await section.locator('lam-plot').first().scrollIntoViewIfNeeded();
+    await section.locator('lam-plot .main-svg').nth(1).waitFor({ timeout: 30_000 });
+    await section.screenshot({ path: '/tmp/laminote-e2e-section.png' });
+  });
+
+  it('shows the line at fault in pasted coordinates and keeps the text as typed', async () => {
+    const section = frame(SECTION_TITLE);
+    await section.getByText('Coordinates', { exact: true }).click();
+    const text = 'Tamsk test shape (invented)\n1 0\n0.5 0.06\n0 0\n0.5 -0.04 x\n1 0';
+    await section.getByLabel(/Coordinates: x y/).fill(text);
+    await section.getByText(/Line 5: expected two numbers/).waitFor();
+    await expect(section.getByLabel(/Coordinates: x y/).inputValue()).resolves.toBe(text);
+    await section.screenshot({ path: '/tmp/laminote-e2e-section-bad-line.png' });
+    await section.getByText('NACA designation', { exact: true }).click();
+    await run(section);
+  });
+
+  it('adds a polar of the section, runs it and sees the bucket, the lift curve, transition and the outline', async () => {
+    const polar = await addCell('Polar', POLAR_TITLE);
+    await pick(polar, 'Section cell', SECTION_TITLE);
+    await pick(polar, 'Flow cell', FLOW_TITLE);
+    await polar.getByLabel('From', { exact: true }).fill('-4');
+    await polar.getByLabel('To', { exact: true }).fill('8');
+    await polar.getByLabel('Points', { exact: true }).fill('13');
+    await run(polar);
+    const rows = polar.locator('.points tbody tr');
+    await expect.poll(() => rows.count()).toBe(13);
+    const expected = computeCell('polar', inputs('polar', { flowCellId: '00000000-0000-4000-8000-000000000001', sectionCellId: '00000000-0000-4000-8000-000000000002', from: -4, to: 8, points: 13 }), {
+      flowCellId: { kind: 'flow', inputs: inputs('flow', { mode: 'reynolds', reynolds: 6e6, mach: 0 }), upstream: {} },
+      sectionCellId: { kind: 'section', inputs: inputs('section', { naca: '2412', alphaDeg: 2 }), upstream: {} },
+    });
+    const cdShown = await rows.nth(6).locator('td').nth(2).textContent();
+    expect(Number(cdShown)).toBeCloseTo(expected.points[6]!.cd!, 5);
+    await polar.locator('lam-plot').first().scrollIntoViewIfNeeded();
+    await expect.poll(() => polar.locator('lam-plot .main-svg').count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(3);
+    await polar.locator('lam-plot').nth(3).scrollIntoViewIfNeeded();
+    await expect.poll(() => polar.locator('lam-plot .main-svg').count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(4);
+    await polar.getByText(/Engineering estimates from integral methods/).waitFor();
+    await polar.screenshot({ path: '/tmp/laminote-e2e-polar.png' });
+  });
+
+  it('points a transition analysis at the section cell', async () => {
+    const analysis = await addCell('Transition analysis', ANALYSIS_TITLE);
+    await pick(analysis, 'Flow condition', FLOW_TITLE);
+    await pick(analysis, /Pressure distribution or section/, SECTION_TITLE);
+    await run(analysis);
+    await analysis.getByRole('table', { name: 'Transition summary per surface' }).waitFor();
+    await analysis.screenshot({ path: '/tmp/laminote-e2e-section-analysis.png' });
+  });
+
+  it('met no script error and no content-security-policy violation', () => {
+    expect(problems).toEqual([]);
+  });
+});
