@@ -21,7 +21,7 @@ export * from './stagnation';
 export * from './thwaites';
 export * from './arc-position';
 export * from './cells/index';
-export { METHODS, findMethod, type MethodEntry, type MethodSymbol } from './methods';
+export { METHODS, findMethod, resultMethods, type MethodEntry, type MethodSymbol } from './methods';
 export { VALIDATION_SUITES, runCase, runValidation, type ValidationCaseResult, type ValidationSuite, type ValidationSuiteResult, type Tolerance } from './validation';
 export * from './axisymmetric-panel';
 export * from './compressibility-correction';

@@ -14,6 +14,7 @@ import {
   type SweepResult,
   type VersionCell,
 } from '@laminote/contracts';
+import { resultMethods } from '@laminote/aero';
 import type { PlotSpec } from './svg-plot';
 
 /**
@@ -76,7 +77,6 @@ const CRITERION_NAMES: Record<string, string> = {
   trip: 'forced trip',
   laminarSeparation: 'laminar separation',
 };
-const CRITERION_METHODS: Record<string, string> = { eN: 'envelope-en', michel: 'michel', hRx: 'h-rex', granville: 'granville' };
 const VERDICT_WORDS: Record<string, string> = { laminar: 'stays laminar', contaminationRisk: 'contamination risk', unstable: 'unstable (turbulent)' };
 const LONG_TEXT = 160;
 
@@ -124,7 +124,7 @@ function atStation(surface: AnalysisResult['surfaces'][number], s: number | null
   return `x/c = ${num(x[i - 1]! + t * (x[i]! - x[i - 1]!), 3)}`;
 }
 
-function flowSections(r: FlowResult): Pick<ReportCell, 'tables' | 'methods'> {
+function flowSections(r: FlowResult): Pick<ReportCell, 'tables'> {
   const rows: [string, string][] = [
     ['Reynolds number', num(r.reynolds)],
     ['Mach number', num(r.mach)],
@@ -139,10 +139,10 @@ function flowSections(r: FlowResult): Pick<ReportCell, 'tables' | 'methods'> {
     ['N_crit', `${num(r.nCrit, 3)} (${r.nCritFrom === 'turbulenceIntensity' ? 'from the turbulence level, Mack' : 'given'})`],
     ['Sweep (°)', num(r.sweepDeg)],
   ];
-  return { tables: [{ caption: 'Free stream', columns: ['Quantity', 'Value'], rows, numeric: [1] }], methods: r.temperature_K !== null ? ['isa', 'sutherland', 'mack'] : ['mack'] };
+  return { tables: [{ caption: 'Free stream', columns: ['Quantity', 'Value'], rows, numeric: [1] }] };
 }
 
-function pressureSections(r: PressureResult): Pick<ReportCell, 'tables' | 'plots' | 'methods'> {
+function pressureSections(r: PressureResult): Pick<ReportCell, 'tables' | 'plots'> {
   const rows: [string, string][] = [
     ['Layout', r.layout === 'closedLoop' ? 'closed loop' : 'one surface'],
     ['Rows read', String(r.rowCount)],
@@ -151,10 +151,10 @@ function pressureSections(r: PressureResult): Pick<ReportCell, 'tables' | 'plots
     ['Lowest Cp', `${num(r.cpMin.cp)} at x/c = ${num(r.cpMin.x)} (${r.cpMin.surface})`],
   ];
   const plots: PlotSpec[] = [{ title: 'Pressure distribution', xLabel: 'x/c', yLabel: 'Cp', reverseY: true, series: r.surfaces.map((s) => ({ name: s.name, x: s.x, y: s.cp })) }];
-  return { tables: [{ caption: 'Table as read', columns: ['Quantity', 'Value'], rows }], plots, methods: r.layout === 'closedLoop' ? ['stagnation', 'isentropic'] : ['isentropic'] };
+  return { tables: [{ caption: 'Table as read', columns: ['Quantity', 'Value'], rows }], plots };
 }
 
-function analysisSections(r: AnalysisResult): Pick<ReportCell, 'tables' | 'plots' | 'methods'> {
+function analysisSections(r: AnalysisResult): Pick<ReportCell, 'tables' | 'plots'> {
   const summary: ReportTable = {
     caption: 'Transition, separation and drag per surface',
     columns: ['Surface', 'Transition', 'Set by', 'Laminar separation', 'Turbulent separation', 'cd', 'cd friction'],
@@ -206,12 +206,10 @@ function analysisSections(r: AnalysisResult): Pick<ReportCell, 'tables' | 'plots
     { title: 'Shape factor H', xLabel, yLabel: 'H', series: series((s) => s.stations.H), markers },
     { title: 'Skin friction cf', xLabel, yLabel: 'cf', series: series((s) => s.stations.cf), markers },
   ];
-  const methods = ['thwaites', 'head', 'squire-young', ...criteria.map((c) => CRITERION_METHODS[c]).filter((m): m is string => !!m)];
-  if (r.attachmentLine) methods.push('poll');
-  return { tables: [summary, criteriaTable, flow], plots, methods };
+  return { tables: [summary, criteriaTable, flow], plots };
 }
 
-function sweepSections(r: SweepResult): Pick<ReportCell, 'tables' | 'plots' | 'methods'> {
+function sweepSections(r: SweepResult): Pick<ReportCell, 'tables' | 'plots'> {
   const names = [...new Set(r.steps.flatMap((s) => s.surfaces.map((x) => x.name)))];
   const table: ReportTable = {
     caption: `Sweep of ${valueLabel('parameter', r.parameter)}`,
@@ -246,10 +244,10 @@ function sweepSections(r: SweepResult): Pick<ReportCell, 'tables' | 'plots' | 'm
     },
     { title: 'Profile drag against the swept parameter', xLabel: valueLabel('parameter', r.parameter), yLabel: 'cd', series: [{ name: 'cd', x: r.steps.map((s) => s.value), y: r.steps.map((s) => s.cd) }] },
   ];
-  return { tables: [table], plots, methods: ['thwaites', 'head', 'envelope-en', 'squire-young'] };
+  return { tables: [table], plots };
 }
 
-function flatPlateSections(r: FlatPlateResult): Pick<ReportCell, 'tables' | 'methods'> {
+function flatPlateSections(r: FlatPlateResult): Pick<ReportCell, 'tables'> {
   const rows: [string, string][] = [
     ['Reynolds number', num(r.reynolds)],
     ['Transition Reynolds number', num(r.transitionReynolds)],
@@ -261,10 +259,10 @@ function flatPlateSections(r: FlatPlateResult): Pick<ReportCell, 'tables' | 'met
     ['δ/L laminar, turbulent', `${num(r.deltaLaminar)}, ${num(r.deltaTurbulent)}`],
     ['Friction saved by the laminar run', `${num(r.laminarSaving * 100, 3)} %`],
   ];
-  return { tables: [{ caption: 'Mean friction per side on the free-stream dynamic pressure', columns: ['Quantity', 'Value'], rows, numeric: [1] }], methods: ['flat-plate'] };
+  return { tables: [{ caption: 'Mean friction per side on the free-stream dynamic pressure', columns: ['Quantity', 'Value'], rows, numeric: [1] }] };
 }
 
-function leadingEdgeSections(r: LeadingEdgeResult): Pick<ReportCell, 'tables' | 'methods'> {
+function leadingEdgeSections(r: LeadingEdgeResult): Pick<ReportCell, 'tables'> {
   const rows: [string, string][] = [
     ['Reynolds number', num(r.reynolds)],
     ['Sweep (°)', num(r.sweepDeg)],
@@ -273,7 +271,7 @@ function leadingEdgeSections(r: LeadingEdgeResult): Pick<ReportCell, 'tables' | 
     ['From', r.from === 'leadingEdgeRadius' ? 'leading-edge radius' : 'velocity gradient'],
     ['Thresholds (Poll)', `${r.thresholds.contamination} (contamination), ${r.thresholds.instability} (instability)`],
   ];
-  return { tables: [{ caption: 'Attachment line', columns: ['Quantity', 'Value'], rows, numeric: [1] }], methods: ['poll'] };
+  return { tables: [{ caption: 'Attachment line', columns: ['Quantity', 'Value'], rows, numeric: [1] }] };
 }
 
 /** Scalars of a result of a kind this report does not know yet, so nothing is left out. */
@@ -335,5 +333,6 @@ export function describeCell(cell: VersionCell, titles: ReadonlyMap<string, stri
         return genericSections(result);
     }
   })();
-  return { ...base, ...parts, warnings };
+  // The same methods the notebook links under the result (libs/aero resultMethods).
+  return { ...base, ...parts, warnings, methods: resultMethods(kind, result).map((m) => m.id) };
 }

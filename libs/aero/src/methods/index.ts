@@ -4,6 +4,7 @@ import { FLOW_METHODS } from './flow';
 import { TRANSITION_METHODS } from './transition';
 
 export type { MethodEntry, MethodSymbol } from './method';
+export { resultMethods } from './result-methods';
 
 /**
  * Every method of the engine, in the order the methods page lists them. A module that adds methods

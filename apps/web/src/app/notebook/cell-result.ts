@@ -5,6 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import type { CellOutput, DraftCell } from '@laminote/contracts';
 import { DraftSession } from '../shared/draft-session';
 import { NotebookApi } from '../shared/notebook-api';
+import { MethodLinks } from './method-links';
 
 /** The output a cell shows: the newest good one, and whether it still matches the inputs. */
 export interface ShownResult {
@@ -21,11 +22,12 @@ export function shownResult(cell: DraftCell): ShownResult | null {
 
 /**
  * The frame around a cell's result: when and how it was computed, a clear mark when it no longer
- * matches the inputs, and the export links. The kind's own tables and plots are projected inside.
+ * matches the inputs, the export links, and under it the methods its numbers come from. The kind's own
+ * tables and plots are projected inside.
  */
 @Component({
   selector: 'lam-cell-result',
-  imports: [DatePipe, DecimalPipe, MatButtonModule, MatIconModule],
+  imports: [DatePipe, DecimalPipe, MatButtonModule, MatIconModule, MethodLinks],
   template: `
     @if (shown(); as shown) {
       <section class="result" [class.stale]="shown.stale" [attr.aria-label]="'Result of ' + (cell().title || 'the cell')">
@@ -49,6 +51,7 @@ export function shownResult(cell: DraftCell): ShownResult | null {
           }
         </div>
         <ng-content />
+        <lam-method-links [kind]="cell().kind" [output]="shown.output" />
       </section>
     }
   `,

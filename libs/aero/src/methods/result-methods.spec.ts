@@ -1,0 +1,43 @@
+import { TRANSITION_CRITERIA } from '@laminote/contracts';
+import { describe, expect, it } from 'vitest';
+import { findMethod } from './index';
+import { CRITERION_METHODS, resultMethods } from './result-methods';
+
+const ids = (kind: string, result: unknown) => resultMethods(kind, result).map((m) => m.id);
+
+describe('resultMethods (the "Methods" links under each result)', () => {
+  it('names a catalogued method for every transition criterion an analysis can evaluate', () => {
+    for (const criterion of TRANSITION_CRITERIA) {
+      expect(CRITERION_METHODS[criterion], criterion).toBeDefined();
+      expect(findMethod(CRITERION_METHODS[criterion]!), criterion).toBeDefined();
+    }
+  });
+
+  it('links an analysis to the laminar and turbulent layers, the drag and exactly the criteria it evaluated', () => {
+    const result = {
+      flow: { reynolds: 6e6, mach: 0, nCrit: 9 },
+      surfaces: [{ transition: { criteria: { eN: 0.4, michel: 0.3 } } }, { transition: { criteria: { eN: null, michel: 0.5 } } }],
+      attachmentLine: null,
+    };
+    expect(ids('analysis', result)).toEqual(['thwaites', 'head', 'squire-young', 'envelope-en', 'michel']);
+  });
+
+  it('adds the compressible laminar layer above M = 0, the crossflow methods on a swept wing and Poll for an attachment line', () => {
+    const result = {
+      flow: { reynolds: 2e7, mach: 0.7, nCrit: 9 },
+      surfaces: [{ transition: { criteria: { eN: 0.4, crossflow: 0.1 } } }],
+      attachmentLine: { reBar: 180, verdict: 'laminar' },
+    };
+    expect(ids('analysis', result)).toEqual(['thwaites', 'compressible-thwaites', 'head', 'squire-young', 'envelope-en', 'owen-randall', 'simple-sweep', 'falkner-skan-cooke', 'poll']);
+  });
+
+  it('links the other kinds to their own methods and nothing for a result it cannot read', () => {
+    expect(ids('flow', { temperature_K: 223.15 })).toEqual(['isa', 'sutherland', 'mack']);
+    expect(ids('flow', { temperature_K: null })).toEqual(['mack']);
+    expect(ids('pressure', { layout: 'closedLoop' })).toEqual(['stagnation', 'isentropic']);
+    expect(ids('flatPlate', {})).toEqual(['flat-plate']);
+    expect(ids('leadingEdge', {})).toEqual(['poll']);
+    expect(ids('analysis', null)).toEqual([]);
+    expect(ids('note', { text: 'x' })).toEqual([]);
+  });
+});

@@ -1,0 +1,67 @@
+import { findMethod } from './index';
+import type { MethodEntry } from './method';
+
+/** Transition criterion key (as results name it) → the method that computes it. */
+export const CRITERION_METHODS: Record<string, string> = {
+  eN: 'envelope-en',
+  crossflow: 'owen-randall',
+  crossflowC1: 'arnal-c1',
+  michel: 'michel',
+  hRx: 'h-rex',
+  granville: 'granville',
+};
+
+function record(value: unknown): Record<string, unknown> | null {
+  return value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Record<string, unknown>) : null;
+}
+
+function analysisMethods(result: Record<string, unknown>): string[] {
+  const ids = ['thwaites'];
+  const flow = record(result['flow']);
+  if (typeof flow?.['mach'] === 'number' && flow['mach'] > 0) ids.push('compressible-thwaites');
+  ids.push('head', 'squire-young');
+  const surfaces = Array.isArray(result['surfaces']) ? result['surfaces'] : [];
+  const criteria = new Set<string>();
+  for (const surface of surfaces) {
+    const transition = record(record(surface)?.['transition']);
+    for (const key of Object.keys(record(transition?.['criteria']) ?? {})) criteria.add(key);
+  }
+  for (const key of criteria) if (CRITERION_METHODS[key]) ids.push(CRITERION_METHODS[key]);
+  if (criteria.has('crossflow') || criteria.has('crossflowC1')) ids.push('simple-sweep', 'falkner-skan-cooke');
+  if (result['attachmentLine']) ids.push('poll');
+  return ids;
+}
+
+/**
+ * The methods a cell's computed result comes from, in the order its numbers are worked out — what the
+ * notebook links under each result and the report lists per cell, so both name the same methods. Ids
+ * not in the catalogue (a kind whose methods have no page yet) are left out, never shown as dead links.
+ */
+export function resultMethods(kind: string, result: unknown): MethodEntry[] {
+  const r = record(result);
+  if (!r) return [];
+  let ids: string[];
+  switch (kind) {
+    case 'flow':
+      ids = r['temperature_K'] !== null && r['temperature_K'] !== undefined ? ['isa', 'sutherland', 'mack'] : ['mack'];
+      break;
+    case 'pressure':
+      ids = r['layout'] === 'closedLoop' ? ['stagnation', 'isentropic'] : ['isentropic'];
+      break;
+    case 'analysis':
+      ids = analysisMethods(r);
+      break;
+    case 'sweep':
+      ids = ['thwaites', 'head', 'envelope-en', 'squire-young'];
+      break;
+    case 'flatPlate':
+      ids = ['flat-plate'];
+      break;
+    case 'leadingEdge':
+      ids = ['poll'];
+      break;
+    default:
+      ids = [];
+  }
+  return [...new Set(ids)].map((id) => findMethod(id)).filter((m): m is MethodEntry => m !== undefined);
+}
