@@ -89,9 +89,13 @@ export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInp
 export function computeAnalysis(a: AnalysisInputs, upstream: Upstream): EngineResult {
   const flow = upstreamOf(upstream, 'flowCellId', 'flow').inputs;
   // A section cell stands in for a pressure cell: its panel solution at this flow's Mach number.
+  // The result then carries the panel solution (inviscid), whose x, y is the outline the screen marks.
   const named = upstream['pressureCellId'];
-  const pressure = named?.kind === 'section' ? sectionAsPressure(upstreamOf(upstream, 'pressureCellId', 'section').inputs, flow) : upstreamOf(upstream, 'pressureCellId', 'pressure').inputs;
-  return analyzeWith(a, flow, pressure);
+  if (named?.kind === 'section') {
+    const { pressure, inviscid } = sectionAsPressure(upstreamOf(upstream, 'pressureCellId', 'section').inputs, flow);
+    return { ...analyzeWith(a, flow, pressure), inviscid };
+  }
+  return analyzeWith(a, flow, upstreamOf(upstream, 'pressureCellId', 'pressure').inputs);
 }
 
 /** The analysis with the flow and pressure inputs given directly (a sweep varies the flow). */

@@ -44,6 +44,19 @@ describe('computeCell: analysis of a section cell', () => {
     const fromTable = computeCell('analysis', inputs('analysis', { flowCellId: ID, pressureCellId: ID2 }), { flowCellId: flow, pressureCellId: source('pressure', { text, layout: 'closedLoop' }) });
     expect(fromSection.cd).toBeCloseTo(fromTable.cd!, 6);
     expect(fromSection.surfaces[0].transition.s).toBeCloseTo(fromTable.surfaces[0].transition.s!, 5);
+    // The pasted table names no shape; the section's analysis carries the panel solution, so the
+    // screen can draw the outline and mark transition on it.
+    expect(fromTable.inviscid).toBeUndefined();
+    expect(CELL_SCHEMAS.analysis.result.safeParse(fromSection).success).toBe(true);
+    const inviscid = fromSection.inviscid!;
+    expect(inviscid.kind).toBe('section');
+    if (inviscid.kind !== 'section') return;
+    expect(inviscid.x).toEqual(solved.inviscid.x);
+    expect(inviscid.y).toEqual(solved.inviscid.y);
+    expect(inviscid.alphaDeg).toBe(2);
+    // NACA 2412: 12 % thick (Report 460), so the loop's extent in y is about 0.12 of the chord (plus camber).
+    expect(Math.max(...inviscid.y) - Math.min(...inviscid.y)).toBeGreaterThan(0.11);
+    expect(Math.max(...inviscid.y) - Math.min(...inviscid.y)).toBeLessThan(0.16);
   });
 });
 
@@ -60,4 +73,29 @@ describe('computeCell: polar', () => {
     expect(upper(4)).toBeLessThan(upper(2));
   });
 
+  it('follows the criteria and governing criterion chosen on the polar cell', () => {
+    const section = source('section', { naca: '0012' });
+    const run = (given: Record<string, unknown>) =>
+      computeCell('polar', inputs('polar', { flowCellId: ID, sectionCellId: ID2, from: 0, to: 4, points: 3, ...given }), { flowCellId: flow, sectionCellId: section });
+    const surfaceOf = (r: ReturnType<typeof run>, k: number, name: string) => r.points[k].surfaces.find((s) => s.name === name)!;
+    // Only the criteria asked for are reported at each point.
+    const two = run({ criteria: ['eN', 'michel'], governing: 'michel' });
+    for (const point of two.points) for (const s of point.surfaces) expect(Object.keys(s.criteria).sort()).toEqual(['eN', 'michel']);
+    // A named governing criterion sets the transition (unless separation comes first); 'earliest' takes the
+    // shorter laminar run of the two, so it can never lie aft of either one.
+    const earliest = run({ criteria: ['eN', 'michel'], governing: 'earliest' });
+    for (let k = 0; k < 3; k++) {
+      for (const name of ['upper', 'lower']) {
+        const m = surfaceOf(two, k, name);
+        if (m.transitionBy === 'michel') expect(m.transitionX!).toBeCloseTo(m.criteria['michel']!, 9);
+        const e = surfaceOf(earliest, k, name);
+        const located = Object.values(e.criteria).filter((x): x is number => x !== null);
+        if (e.transitionBy === 'eN' || e.transitionBy === 'michel') expect(e.transitionX!).toBeCloseTo(Math.min(...located), 9);
+      }
+    }
+    expect(two.points.some((p) => p.surfaces.some((s) => s.transitionBy === 'michel'))).toBe(true);
+    // The governing choice reaches the drag: Michel and eᴺ put transition at different places.
+    const byEN = run({ criteria: ['eN', 'michel'], governing: 'eN' });
+    expect(byEN.points[1].cd).not.toBeCloseTo(two.points[1].cd!, 6);
+  });
 });

@@ -51,9 +51,10 @@ export function computeSection(s: SectionInputs, upstream: Upstream): SectionRes
 
 /**
  * A section cell read as a closed-loop pressure cell, at the analysing flow's Mach number: what an
- * analysis uses when it names a section cell instead of a pressure cell.
+ * analysis uses when it names a section cell instead of a pressure cell. The panel solution comes with
+ * it so the analysis can carry the outline (x, y) its transition marks are drawn on.
  */
-export function sectionAsPressure(s: SectionInputs, flow: FlowInputs): PressureInputs {
+export function sectionAsPressure(s: SectionInputs, flow: FlowInputs): { pressure: PressureInputs; inviscid: SectionResult['inviscid'] } {
   const inviscid = solveSectionCell(prepareSectionCell(s), s, flow.mach);
-  return pressureInputsSchema.parse({ text: inviscidTable(inviscid), layout: 'closedLoop' });
+  return { pressure: pressureInputsSchema.parse({ text: inviscidTable(inviscid), layout: 'closedLoop' }), inviscid };
 }
