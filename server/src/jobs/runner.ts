@@ -212,34 +212,32 @@ export class JobRunner {
     const w = (row.work as JobWork[]).find((u) => u.cellId === message.cellId);
     if (!w?.key || !w.task) return;
     const key = w.key;
-    if (!(await this.outputs.get(this.db, key))) {
-      const have = await this.db
-        .select({ index: sweepCases.index })
-        .from(sweepCases)
-        .where(and(eq(sweepCases.sweepKey, key), gte(sweepCases.index, message.from), lt(sweepCases.index, message.to)));
-      const present = new Set(have.map((h) => h.index));
-      const missing = [];
-      for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
-      if (missing.length) {
-        const computed = await this.compute.sweepCases({ task: w.task, indices: missing });
-        await this.db
-          .insert(sweepCases)
-          .values(computed.map((c) => ({ sweepKey: key, index: c.index, step: sql`${c.json}::jsonb` })))
-          .onConflictDoNothing();
-        await notifyJob(this.db, { type: 'job', jobId: row.id, branchId: row.branchId });
-      }
-      await this.assembleIfComplete(row, w);
+    // A chunk handed out again (its worker died, or a run after a cancelled one) computes only what is missing.
+    const have = await this.db
+      .select({ index: sweepCases.index })
+      .from(sweepCases)
+      .where(and(eq(sweepCases.sweepKey, key), gte(sweepCases.index, message.from), lt(sweepCases.index, message.to)));
+    const present = new Set(have.map((h) => h.index));
+    const missing = [];
+    for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
+    if (missing.length) {
+      const computed = await this.compute.sweepCases({ task: w.task, indices: missing });
+      await this.db
+        .insert(sweepCases)
+        .values(computed.map((c) => ({ sweepKey: key, index: c.index, step: sql`${c.json}::jsonb` })))
+        .onConflictDoNothing();
+      await notifyJob(this.db, { type: 'job', jobId: row.id, branchId: row.branchId });
     }
-    await this.finishIfDone(row);
+    if (await this.assembleIfComplete(row, w)) await this.finishIfDone(row);
   }
 
-  /** Once every case of a sweep is stored, its output is put together from them, in order. */
-  private async assembleIfComplete(row: RunJobRow, w: JobWork): Promise<void> {
+  /** Once every case of a sweep is stored, its output is put together from them, in order (true then). */
+  private async assembleIfComplete(row: RunJobRow, w: JobWork): Promise<boolean> {
     const [{ n } = { n: 0 }] = await this.db
       .select({ n: sql<number>`count(*)::int` })
       .from(sweepCases)
       .where(eq(sweepCases.sweepKey, w.key!));
-    if (n < w.cases) return;
+    if (n < w.cases) return false;
     const rows = await this.db.select({ step: sweepCases.step }).from(sweepCases).where(eq(sweepCases.sweepKey, w.key!)).orderBy(asc(sweepCases.index));
     const started = row.startedAt ?? row.createdAt;
     const durationMs = Date.now() - started.getTime();
@@ -253,6 +251,7 @@ export class JobRunner {
       computed = { status: 'error', resultJson: null, error, durationMs };
     }
     await this.store(row, w, computed);
+    return true;
   }
 
   /** When every output of the job is stored: the draft shows them all, the job is completed with its reports. */

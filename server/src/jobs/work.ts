@@ -24,8 +24,12 @@ export interface JobWork {
   position: number;
 }
 
-/** Sweep cases per queue job: a few hundred milliseconds of work, so a lost worker costs little. */
-export const CASES_PER_CHUNK = 20;
+/**
+ * Sweep cases per queue job: about a tenth of a second of computing for a 2 × 300-station analysis, so
+ * a lost worker costs little, while the queue's round trips for a chunk are spread over enough cases
+ * (npm run bench -- jobs).
+ */
+export const CASES_PER_CHUNK = 50;
 
 export function planWork(order: readonly string[], plans: Map<string, CellPlan>, stored: ReadonlySet<string>, draftOrder: readonly string[]): JobWork[] {
   return order.map((cellId) => {
