@@ -21,5 +21,7 @@ describe('field words', () => {
     expect(readableMessage('give reynolds, or name a flow cell (flowCellId)', 'leadingEdge')).toBe('Give reynolds, or name a flow cell (Flow cell)');
     // Plain words are left alone, even when a field has the same name.
     expect(readableMessage('the laminar layer separates before transition')).toBe('The laminar layer separates before transition');
+    expect(readableMessage('at most 200 cells per run')).toBe('At most 200 cells per run');
+    expect(readableMessage('x/c runs 1.000 → 0.000 (line 22) → 1.000')).toBe('x/c runs 1.000 → 0.000 (line 22) → 1.000');
   });
 });

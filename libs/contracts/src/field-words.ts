@@ -51,8 +51,11 @@ export function fieldPathLabel(path: string, kind: CellKind | null = null): stri
 
 /** An identifier that is no English word: camelCase, snake_case or a dotted path. */
 const CODE_NAME = /\b[a-z][a-zA-Z0-9]*(?:(?:[A-Z]|_)[a-zA-Z0-9]*|\.[a-z][a-zA-Z0-9]*(?:\[\d+\])?)+\b/g;
-/** A message that starts with a field's name: "mach 0.5: …", "reynolds must be …". */
-const LEADING_NAME = /^([a-z][a-zA-Z0-9_]*(?:\.[a-zA-Z0-9_]+)*)(?=[ :])/;
+/**
+ * A message that starts with a field's name as its subject: "mach 0.5: …", "reynolds must be …",
+ * "nCrit is …" (not "at most …", whose first word only looks like a field).
+ */
+const LEADING_NAME = /^([a-z][a-zA-Z0-9_]*(?:\.[a-zA-Z0-9_]+)*)(?=:| (?:must|is|are|needs?|should|has)\b| [-−+]?\d)/;
 
 /**
  * A message from the engine, a schema or the API, with the field names in it said as their labels:
@@ -68,5 +71,6 @@ export function readableMessage(message: string, kind: CellKind | null = null): 
     if (label) text = label + text.slice(leading[1]!.length);
   }
   text = text.replace(CODE_NAME, (name) => fieldPathLabel(name, kind) ?? name);
-  return text.charAt(0).toUpperCase() + text.slice(1);
+  // A sentence starts with a capital; a symbol (x/c, c_d) keeps its case.
+  return /^[a-z]+[ ,;:]/.test(text) ? text.charAt(0).toUpperCase() + text.slice(1) : text;
 }

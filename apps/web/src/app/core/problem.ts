@@ -1,6 +1,6 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import type { AbstractControl } from '@angular/forms';
-import type { Problem } from '@laminote/contracts';
+import { type Problem, readableMessage } from '@laminote/contracts';
 
 function isProblem(body: unknown): body is Problem {
   return (
@@ -36,7 +36,8 @@ export function toProblem(error: unknown): Problem {
 
 /** One line for a snackbar: the title, then the detail when there is one. */
 export function problemMessage(problem: Problem): string {
-  return problem.detail ? `${problem.title}: ${problem.detail}` : problem.title;
+  // The API names fields by their paths for scripts; a person reads their labels.
+  return problem.detail ? `${problem.title}: ${readableMessage(problem.detail)}` : problem.title;
 }
 
 /** The messages a problem carries for named fields, from `errors[]` and from `field` with its detail. */

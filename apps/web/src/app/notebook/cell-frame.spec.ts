@@ -85,10 +85,27 @@ describe('CellFrame', () => {
     });
     const { harness } = await render(failed);
     const [message] = await harness.getFailures();
-    expect(message).toContain('laminar separation at the first station');
-    expect(message).toContain('pressureCellId');
+    expect(message).toContain('Laminar separation at the first station');
+    // The field by its label on the screen, not its name in the API.
+    expect(message).toContain('(Pressure or section cell)');
+    expect(message).not.toContain('pressureCellId');
     expect(message).toContain('last good result is kept');
     expect(await harness.getRunState()).toBe('Run failed');
+  });
+
+  it('says the fields in an engine message by their labels', async () => {
+    const failed = cell('flow', FLOW_ID, {
+      runState: 'failed',
+      output: output(null, {
+        status: 'error',
+        error: { message: "turbulenceIntensity 0.0002 is outside the range of Mack's relation; mach 0.5: the trip lies beyond the surface (trips.upper)", field: 'trips.upper' },
+      }),
+    });
+    const { harness } = await render(failed);
+    const [message] = await harness.getFailures();
+    expect(message).toContain("Turbulence level 0.0002 is outside the range of Mack's relation; mach 0.5: the trip lies beyond the surface (Trip on upper at x/c)");
+    expect(message).toContain('(Trip on upper at x/c)');
+    expect(message).not.toMatch(/turbulenceIntensity|trips\.upper/);
   });
 
   it('gives a reader no way to change or run the cell', async () => {

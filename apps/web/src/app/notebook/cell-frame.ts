@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import type { DraftCell, Problem } from '@laminote/contracts';
+import { type DraftCell, type Problem, fieldPathLabel, readableMessage } from '@laminote/contracts';
 import { problemMessage } from '../core/problem';
 import { CellThreads } from '../review/cell-threads';
 import { CellThreadsButton } from '../review/cell-threads-button';
@@ -59,7 +59,11 @@ export class CellFrame {
   /** The engine's message when the newest run failed. */
   protected readonly failure = computed(() => {
     const output = this.cell().output;
-    return output?.status === 'error' ? output.error : null;
+    const error = output?.status === 'error' ? output.error : null;
+    if (!error) return null;
+    // In the words of the screen: the field's label, not its path (the API keeps the path).
+    const kind = this.cell().kind;
+    return { message: readableMessage(error.message, kind), field: error.field ? (fieldPathLabel(error.field, kind) ?? error.field) : null };
   });
 
   protected titleInput(event: Event): void {

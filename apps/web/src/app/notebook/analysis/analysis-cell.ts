@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -42,6 +43,7 @@ type Governing = AnalysisInputs['governing'];
 @Component({
   selector: 'lam-analysis-cell',
   imports: [
+    ReadablePipe,
     CellResult,
     MatCheckboxModule,
     MatFormFieldModule,

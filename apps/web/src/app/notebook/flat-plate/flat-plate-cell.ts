@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -42,7 +43,7 @@ function num(value: unknown): number | undefined {
  */
 @Component({
   selector: 'lam-flat-plate-cell',
-  imports: [CellResult, MatButtonToggleModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, MatButtonToggleModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   templateUrl: './flat-plate-cell.html',
   styleUrl: '../simple-cell.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -45,7 +46,7 @@ function toNumber(value: unknown): number | undefined {
  */
 @Component({
   selector: 'lam-flow-cell',
-  imports: [CellResult, MatButtonToggleModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, MatButtonToggleModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule],
   templateUrl: './flow-cell.html',
   styleUrls: ['../simple-cell.scss', './flow-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -50,7 +51,7 @@ function num(value: unknown): number | undefined {
 /** Leading-edge check: Poll's attachment-line Reynolds number R̄ from sweep and radius or velocity gradient. */
 @Component({
   selector: 'lam-leading-edge-cell',
-  imports: [CellResult, MatButtonToggleModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, MatButtonToggleModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
   templateUrl: './leading-edge-cell.html',
   styleUrl: '../simple-cell.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -96,7 +96,7 @@ describe('PressureCell', () => {
     ]);
     await table.setValue('x/c Cp\n0.02 0.80\n0.1 -0.35\n0.5 -0.3\n1.0 0.1');
     const [warning] = await pressure.getWarnings();
-    expect(warning).toMatch(/^the surface does not start at a stagnation point: the first Cp \(line 2\) is 0\.80, where about 1 is expected/);
+    expect(warning).toMatch(/^The surface does not start at a stagnation point: the first Cp \(line 2\) is 0\.80, where about 1 is expected/);
   });
 
   it('reads a decimal-comma table with semicolons, and lists at most 20 problems with a count of the rest', async () => {

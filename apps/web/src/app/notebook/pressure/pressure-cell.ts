@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input, signal, viewChild } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
@@ -42,6 +43,7 @@ interface LineProblem {
 @Component({
   selector: 'lam-pressure-cell',
   imports: [
+    ReadablePipe,
     CellResult,
     DecimalPipe,
     MatButtonModule,

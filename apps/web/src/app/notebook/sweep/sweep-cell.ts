@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -27,7 +28,7 @@ interface SweepFormValue {
 /** Parameter sweep: one analysis re-run over a range of one parameter, to see whether the laminar run survives off-design. */
 @Component({
   selector: 'lam-sweep-cell',
-  imports: [CellResult, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './sweep-cell.html',
   styleUrl: '../simple-cell.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
