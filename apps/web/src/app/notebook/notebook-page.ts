@@ -1,4 +1,5 @@
 import { LiveAnnouncer } from '@angular/cdk/a11y';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { CdkDrag, type CdkDragDrop, CdkDropList } from '@angular/cdk/drag-drop';
 import {
   ChangeDetectionStrategy,
@@ -10,6 +11,7 @@ import {
   computed,
   effect,
   inject,
+  untracked,
   input,
   signal,
   viewChildren,
@@ -23,7 +25,7 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
 import { type Branch, type CellKind, type Draft, type ProjectAccess, type Study, can } from '@laminote/contracts';
-import { forkJoin, map, switchMap, throwError } from 'rxjs';
+import { debounceTime, forkJoin, map, switchMap, throwError } from 'rxjs';
 import { Auth } from '../core/auth';
 import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
@@ -36,6 +38,9 @@ import { CellFrame } from './cell-frame';
 import { cellKindInfo } from '../shared/cell-kinds';
 import { type ConflictChoice, ConflictDialog } from './conflict-dialog';
 import { DraftSession } from '../shared/draft-session';
+import { BranchJobs } from './branch-jobs';
+import { CellProgress } from './cell-progress';
+import { RunProgress } from './run-progress';
 import { FlatPlateCell } from './flat-plate/flat-plate-cell';
 import { FlowCell } from './flow/flow-cell';
 import { LeadingEdgeCell } from './leading-edge/leading-edge-cell';
@@ -85,6 +90,7 @@ function isTextEntry(target: EventTarget | null): boolean {
     CdkDrag,
     CdkDropList,
     CellFrame,
+    CellProgress,
     FlatPlateCell,
     FlowCell,
     LeadingEdgeCell,
@@ -100,12 +106,13 @@ function isTextEntry(target: EventTarget | null): boolean {
     ProblemBanner,
     RemovedCells,
     RouterLink,
+    RunProgress,
     SaveIndicator,
     SweepCell,
     ComparisonCell,
     VersionBar,
   ],
-  providers: [DraftSession],
+  providers: [DraftSession, BranchJobs],
   templateUrl: './notebook-page.html',
   styleUrl: './notebook-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -125,6 +132,10 @@ export class NotebookPage {
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   private readonly injector = inject(Injector);
   protected readonly session = inject(DraftSession);
+  /** The branch's run jobs, followed while the page is open by those who may run cells. */
+  protected readonly jobs = inject(BranchJobs);
+  protected readonly cancelling = signal<string | null>(null);
+  protected readonly cellTitles = computed(() => new Map(this.cells().map((cell) => [cell.cellId, cell.title.trim() || cellKindInfo(cell.kind).label])));
 
   /** From the route. */
   readonly studyId = input.required<string>();
@@ -213,6 +224,14 @@ export class NotebookPage {
       this.session.editable.set(this.editable());
       this.session.mayRun.set(this.mayRun());
     });
+    // Runs are jobs: follow the branch's while the page is open; outputs fill in as they land.
+    effect(() => {
+      const branchId = this.opened()?.branch.id;
+      const follow = this.mayRun();
+      untracked(() => (branchId && follow ? this.jobs.follow(branchId) : this.jobs.stop()));
+    });
+    this.session.queued.pipe(takeUntilDestroyed()).subscribe((job) => this.jobs.add(job));
+    this.jobs.outputs.pipe(debounceTime(250), takeUntilDestroyed()).subscribe(() => void this.session.refreshOutputs());
     effect(() => {
       const opened = this.opened();
       if (opened) this.title.setTitle(`${opened.study.title} · Laminote`);
@@ -224,6 +243,18 @@ export class NotebookPage {
 
   protected retry(): void {
     this.opening.reload();
+  }
+
+  protected async cancelRun(jobId: string): Promise<void> {
+    this.cancelling.set(jobId);
+    try {
+      await this.jobs.cancel(jobId);
+      this.announcer.announce('The run was stopped; what it had computed is kept');
+    } catch {
+      this.announcer.announce('The run could not be stopped');
+    } finally {
+      this.cancelling.set(null);
+    }
   }
 
   private drawBodiesProgressively(count: number): void {

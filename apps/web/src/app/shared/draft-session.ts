@@ -1,7 +1,7 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { DestroyRef, Injectable, InjectionToken, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { type CellKind, type Draft, type DraftCell, type Problem, type RunResponse, draftSchema, referenceFields, sameJson, upstreamCellIds } from '@laminote/contracts';
+import { type CellKind, type Draft, type DraftCell, type Job, type Problem, type RunResponse, draftSchema, referenceFields, sameJson, upstreamCellIds } from '@laminote/contracts';
 import {
   BehaviorSubject,
   EMPTY,
@@ -23,6 +23,7 @@ import {
 import { toProblem } from '../core/problem';
 import { defaultInputs, cellKindInfo } from './cell-kinds';
 import { type CellChange, type SavedCell, diffStacks, toSavedCell } from './draft-diff';
+import { JobsApi } from './jobs-api';
 import { NotebookApi } from './notebook-api';
 
 /** How long editing pauses before the draft is saved. */
@@ -84,6 +85,10 @@ function conflictDraft(error: unknown): Draft | null {
 @Injectable()
 export class DraftSession {
   private readonly api = inject(NotebookApi);
+  private readonly jobs = inject(JobsApi);
+  private readonly queuedJobs = new Subject<Job>();
+  /** Jobs this session's runs queued, as the server answered them. */
+  readonly queued = this.queuedJobs.asObservable();
   private readonly delay = inject(AUTOSAVE_DELAY_MS);
 
   private readonly draftSignal = signal<Draft | null>(null);
@@ -350,7 +355,14 @@ export class DraftSession {
     const seq = this.editSeq;
     try {
       const result = await firstValueFrom(this.api.run(branchId, cellIds ? { cellIds } : {}));
-      this.applyRun(result, seq);
+      if ('jobId' in result) {
+        // Queued: workers compute it; the page shows its progress meanwhile.
+        this.queuedJobs.next(result.job);
+        const job = await this.jobs.finished(result.jobId);
+        if (job.state === 'failed') throw { type: 'about:blank', title: 'The run failed', status: 500, detail: job.error } satisfies Problem;
+        const draft = await firstValueFrom(this.api.draft(branchId));
+        this.applyRun({ ...draft, ran: job.ran ?? [] }, seq);
+      } else this.applyRun(result, seq);
     } catch (error) {
       const problem = toProblem(error);
       this.runProblemsSignal.update((problems) => {
@@ -361,6 +373,20 @@ export class DraftSession {
     } finally {
       this.runningSignal.update((running) => new Set([...running].filter((id) => !ids.includes(id))));
     }
+  }
+
+  /**
+   * Takes the outputs that have landed since (a job's worker stored them): the server's draft, as long
+   * as nobody else saved meanwhile (their save is for the autosave's conflict dialog to show).
+   */
+  async refreshOutputs(): Promise<void> {
+    const branchId = this.branchId;
+    if (!branchId) return;
+    const seq = this.editSeq;
+    const draft = await firstValueFrom(this.api.draft(branchId)).catch(() => null);
+    if (!draft || draft.revision !== this.revisionSignal() || this.conflictSignal()) return;
+    const clean = seq === this.editSeq && this.editSeq === this.savedSeq;
+    this.acceptServerDraft(draft, { keepLocalCells: !clean });
   }
 
   // ── Internals ────────────────────────────────────────────────────────────────────────────────

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { branchSchema, draftSchema, uploadResponseSchema, type Branch, type Draft, type RunRequest, type RunResponse, type SaveDraft, type UploadResponse } from '@laminote/contracts';
+import { branchSchema, draftSchema, uploadResponseSchema, type Branch, type Draft, type RunQueued, type RunRequest, type RunResponse, type SaveDraft, type UploadResponse } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
@@ -30,9 +30,12 @@ export class NotebookApi {
     return this.http.put(`${this.branch(branchId)}/draft`, body).pipe(checked(draftSchema, 'a saved draft'));
   }
 
-  /** Runs the named cells (and what they need), or the whole study in dependency order. */
-  run(branchId: string, body: RunRequest): Observable<RunResponse> {
-    return this.http.post<RunResponse>(`${this.branch(branchId)}/run`, body);
+  /**
+   * Runs the named cells (and what they need), or the whole study in dependency order: the draft with
+   * what ran when it was done at once, or the job that was queued (follow it with JobsApi).
+   */
+  run(branchId: string, body: RunRequest): Observable<RunResponse | RunQueued> {
+    return this.http.post<RunResponse | RunQueued>(`${this.branch(branchId)}/run`, body);
   }
 
   upload(studyId: string, file: File): Observable<UploadResponse> {

@@ -50,12 +50,33 @@ export interface PlotMarker {
   readonly dash?: 'solid' | 'dot' | 'dash';
 }
 
+/**
+ * A map of a quantity over two parameters (a grid sweep): z[j][i] at x[i], y[j], null where it has no
+ * value; drawn as coloured cells with a colour bar, under any traces.
+ */
+export interface PlotMap {
+  readonly x: readonly number[];
+  readonly y: readonly number[];
+  readonly z: readonly (readonly (number | null)[])[];
+  /** The quantity, with its unit, for the colour bar. */
+  readonly title: string;
+  readonly range?: readonly [number, number];
+}
+
 export interface PlotFigure {
   readonly traces: readonly PlotTrace[];
   readonly x: PlotAxis;
   readonly y: PlotAxis;
   readonly markers?: readonly PlotMarker[];
+  readonly map?: PlotMap;
 }
+
+/** The maps' colours: Laminote's teal (low) through sand to its rust (high). */
+const MAP_COLOURS = [
+  [0, '#1b5e66'],
+  [0.5, '#e8dcc2'],
+  [1, '#b5652f'],
+] as const;
 
 /**
  * Loads the plotting library and answers the component that draws with it. A token so that component
@@ -156,6 +177,21 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
     text: trace.text,
     hovertemplate: `${trace.name}<br>${figure.x.title} %{x:.4g}<br>${figure.y.title} %{y:.4g}${trace.text ? '<br>%{text}' : ''}<extra></extra>`,
   }));
+  if (figure.map) {
+    const m = figure.map;
+    data.unshift({
+      type: 'heatmap',
+      x: m.x,
+      y: m.y,
+      z: m.z,
+      zmin: m.range?.[0],
+      zmax: m.range?.[1],
+      colorscale: MAP_COLOURS,
+      colorbar: { title: { text: m.title, side: 'right', font: { family: FONT, size: 11 } }, thickness: 12, tickfont: { family: MONO, size: 10 } },
+      hoverongaps: false,
+      hovertemplate: `${figure.x.title} %{x:.4g}<br>${figure.y.title} %{y:.4g}<br>${m.title} %{z:.3f}<extra></extra>`,
+    } as unknown as (typeof data)[number]);
+  }
   const markers = figure.markers ?? [];
   const shapes = markers.map((m) => ({
     type: 'line',

@@ -1,6 +1,7 @@
 import { ReadablePipe } from '../../shared/readable';
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
@@ -22,13 +23,25 @@ interface SweepFormValue {
   from: string;
   to: string;
   steps: string;
+  /** A second parameter varied at every value of the first: a grid. */
+  grid: boolean;
+  parameter2: Parameter;
+  from2: string;
+  to2: string;
+  steps2: string;
 }
+
+/** A grid's second parameter as its controls are named. */
+const SECOND_CONTROLS: Record<string, string> = { parameter: 'parameter2', from: 'from2', to: 'to2', steps: 'steps2' };
+
+/** Rows of a long sweep's table: beyond this, every n-th step (the download has them all). */
+const TABLE_ROWS = 120;
 
 
 /** Parameter sweep: one analysis re-run over a range of one parameter, to see whether the laminar run survives off-design. */
 @Component({
   selector: 'lam-sweep-cell',
-  imports: [ReadablePipe, CellResult, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './sweep-cell.html',
   styleUrl: '../simple-cell.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -50,6 +63,11 @@ export class SweepCell {
     from: new FormControl('', { nonNullable: true }),
     to: new FormControl('', { nonNullable: true }),
     steps: new FormControl('', { nonNullable: true }),
+    grid: new FormControl(false, { nonNullable: true }),
+    parameter2: new FormControl<Parameter>('mach', { nonNullable: true }),
+    from2: new FormControl('', { nonNullable: true }),
+    to2: new FormControl('', { nonNullable: true }),
+    steps2: new FormControl('', { nonNullable: true }),
   });
 
   private readonly binding = bindCellForm<SweepFormValue>({
@@ -61,6 +79,7 @@ export class SweepCell {
       from: numberText(inputs['from']),
       to: numberText(inputs['to']),
       steps: numberText(inputs['steps']),
+      ...secondForm(inputs['second']),
     }),
     fromForm: (value, previous) => {
       const inputs: Record<string, unknown> = {
@@ -70,10 +89,12 @@ export class SweepCell {
         from: numberInput(value.from),
         to: numberInput(value.to),
         steps: numberInput(value.steps),
+        second: value.grid ? { parameter: value.parameter2, from: numberInput(value.from2), to: numberInput(value.to2), steps: numberInput(value.steps2) } : undefined,
       };
       for (const key of Object.keys(inputs)) if (inputs[key] === undefined) delete inputs[key];
       return inputs;
     },
+    controlOf: (field) => (field.startsWith('second.') ? SECOND_CONTROLS[field.split('.')[1]!] : field.split('.')[0]),
   });
 
   protected readonly analysisCells = computed(() => this.session.cells().filter((c) => c.kind === 'analysis'));
@@ -86,9 +107,47 @@ export class SweepCell {
     return [...names];
   });
 
+  /** The steps the table lists: all of a short sweep, every n-th of a long one (the last always). */
+  protected readonly tableSteps = computed(() => {
+    const steps = this.result()?.steps ?? [];
+    if (steps.length <= TABLE_ROWS) return steps;
+    const every = Math.ceil(steps.length / TABLE_ROWS);
+    return steps.filter((_, i) => i % every === 0 || i === steps.length - 1);
+  });
+
+  /** For a grid: one map per surface of where transition is, over both parameters. */
+  protected readonly maps = computed((): { name: string; figure: PlotFigure }[] => {
+    const result = this.result();
+    if (!result?.second) return [];
+    const xs = result.values;
+    const ys = result.second.values;
+    const columns = ys.length;
+    return this.surfaceNames().map((name) => ({
+      name,
+      figure: {
+        x: { title: this.labels[result.parameter], log: result.parameter === 'reynolds' },
+        y: { title: this.labels[result.second!.parameter], log: result.second!.parameter === 'reynolds' },
+        traces: [],
+        map: {
+          x: xs,
+          y: ys,
+          // z[j][i]: row j is the second parameter's j-th value.
+          z: ys.map((_, j) =>
+            xs.map((__, i) => {
+              const surface = result.steps[i * columns + j]?.surfaces.find((x) => x.name === name);
+              return surface ? (surface.transitionX ?? surface.transitionS) : null;
+            }),
+          ),
+          title: `${name} transition x/c`,
+          range: [0, 1],
+        },
+      },
+    }));
+  });
+
   protected readonly figure = computed((): PlotFigure | null => {
     const result = this.result();
-    if (!result) return null;
+    if (!result || result.second) return null;
     const traces: PlotTrace[] = this.surfaceNames().map((name, i) => ({
       x: result.steps.map((s) => s.value),
       y: result.steps.map((s) => {
@@ -106,8 +165,8 @@ export class SweepCell {
     };
   });
 
-  protected value(value: number): string {
-    return this.parameter() === 'reynolds' ? sci(value) : String(Number(value.toPrecision(6)));
+  protected value(value: number, parameter: Parameter = this.parameter()): string {
+    return parameter === 'reynolds' ? sci(value) : String(Number(value.toPrecision(6)));
   }
 
   protected location(step: SweepResult['steps'][number], name: string): string {
@@ -128,4 +187,16 @@ export class SweepCell {
   protected problem(control: string): string {
     return this.binding.problems().get(control) ?? '';
   }
+}
+
+/** The grid's controls from a sweep's `second` input (absent: no grid, the controls keep a start). */
+function secondForm(second: unknown): Pick<SweepFormValue, 'grid' | 'parameter2' | 'from2' | 'to2' | 'steps2'> {
+  const s = (second && typeof second === 'object' ? second : null) as Record<string, unknown> | null;
+  return {
+    grid: s !== null,
+    parameter2: (s?.['parameter'] as Parameter | undefined) ?? 'mach',
+    from2: s ? numberText(s['from']) : '',
+    to2: s ? numberText(s['to']) : '',
+    steps2: s ? numberText(s['steps']) : '',
+  };
 }

@@ -1,0 +1,100 @@
+import { randomUUID } from 'node:crypto';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { joukowskiLoop } from '../../libs/aero/test/joukowski';
+import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
+import { testEnv } from '../support/env';
+
+/**
+ * A long sweep in the browser: the engineer runs a study whose sweep has 2,000 cases, follows the
+ * run's progress bar (the study's and the sweep cell's), stops it, opens the page again while a new
+ * run goes on (it shows how far the run is, not from zero), and sees the cells fill in as it ends.
+ * Screenshots go to SCREENSHOT_DIR when set.
+ */
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+const problems: string[] = [];
+const shots = process.env['SCREENSHOT_DIR'];
+const shot = async (name: string) => {
+  if (shots) await page.screenshot({ path: `${shots}/${name}.png`, fullPage: false });
+};
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  page = await context.newPage();
+  collectPageProblems(page, problems);
+  await signInThroughProvider(page, 'engineer');
+});
+afterAll(async () => browser?.close());
+
+async function api(method: 'GET' | 'POST' | 'PUT', path: string, body?: object) {
+  const xsrf = (await context.cookies()).find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
+  const res = await context.request.fetch(`${testEnv.appUrl}${path}`, { method, headers: { 'x-xsrf-token': xsrf, 'content-type': 'application/json' }, data: body ? JSON.stringify(body) : undefined });
+  return { status: res.status(), body: (await res.json()) as Record<string, unknown> };
+}
+
+const progressText = () => page.locator('lam-run-progress').first().textContent();
+const doneOf = async () => Number((/([\d,]+) of 2,003/.exec((await progressText()) ?? '')?.[1] ?? '-1').replace(/,/g, ''));
+
+describe('a long sweep as a job, in the browser', () => {
+  let studyId: string;
+  let ids: { flow: string; pressure: string; analysis: string; sweep: string };
+
+  it('shows the run with a progress bar on the study and on the sweep, and stops it', async () => {
+    const projects = (await api('GET', '/api/projects')).body as unknown as { id: string; name: string }[];
+    const project = projects.find((p) => /Larkspur T-62 wing/.test(p.name))!;
+    const title = `Off-design envelope ${randomUUID().slice(0, 6)} (invented)`;
+    studyId = ((await api('POST', `/api/projects/${project.id}/studies`, { title })).body as { id: string }).id;
+    const branchId = ((await api('GET', `/api/studies/${studyId}/branches`)).body as unknown as { id: string }[])[0]!.id;
+    // Exact potential flow past a symmetric Joukowski section (Milne-Thomson, "Theoretical Aerodynamics", ch. 7), 2 × 300 stations.
+    const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 601);
+    const table = [`# ${title}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
+    ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID(), sweep: randomUUID() };
+    const cells = [
+      { cellId: ids.flow, kind: 'flow', title: 'Cruise, Re 6 million', inputs: { mode: 'reynolds', reynolds: 6e6, mach: 0, nCrit: 9 } },
+      { cellId: ids.pressure, kind: 'pressure', title: 'Joukowski 12 % (exact)', inputs: { text: table } },
+      { cellId: ids.analysis, kind: 'analysis', title: 'Free transition', inputs: { flowCellId: ids.flow, pressureCellId: ids.pressure, criteria: ['eN', 'michel'] } },
+      { cellId: ids.sweep, kind: 'sweep', title: 'Reynolds number envelope', inputs: { analysisCellId: ids.analysis, parameter: 'reynolds', from: 1e6, to: 3e7, steps: 2000 } },
+    ].map((c) => ({ collapsed: false, ...c }));
+    expect((await api('PUT', `/api/branches/${branchId}/draft`, { baseRevision: 0, cells })).status).toBe(200);
+
+    await page.goto(`${testEnv.appUrl}/studies/${studyId}`);
+    await page.getByRole('heading', { level: 1, name: title }).waitFor();
+    await page.getByRole('button', { name: /Run study/ }).click();
+    await page.locator('lam-run-progress').waitFor();
+    await expect.poll(doneOf, { timeout: 60_000 }).toBeGreaterThan(40);
+    expect(await progressText()).toMatch(/Reynolds number envelope: [\d,]+ of 2,000 cases/);
+    // The sweep cell carries its own bar with the cases done.
+    await expect.poll(() => page.locator('lam-cell-progress').filter({ hasText: 'of 2,000 cases' }).count()).toBe(1);
+    await shot('jobs-1-running');
+
+    await page.getByRole('button', { name: 'Stop run' }).click();
+    await page.locator('lam-run-progress').waitFor({ state: 'detached', timeout: 30_000 });
+    // What it had computed is kept; the sweep has no output yet.
+    await expect.poll(async () => (await page.locator('lam-cell-frame[data-cell-title="Free transition"]').getAttribute('class')) ?? '', { timeout: 15_000 }).toContain('lam-cell-state-current');
+    expect(await page.locator('lam-cell-frame[data-cell-title="Reynolds number envelope"]').getAttribute('class')).toContain('lam-cell-state-idle');
+    await shot('jobs-2-stopped');
+  });
+
+  it('shows a run under way as it stands when the page is opened again, and fills the cells in as it ends', async () => {
+    await page.getByRole('button', { name: /Run study/ }).click();
+    await page.locator('lam-run-progress').waitFor();
+    await expect.poll(doneOf, { timeout: 60_000 }).toBeGreaterThan(100);
+    await page.reload();
+    await page.locator('lam-run-progress').waitFor();
+    // Not from zero: the stopped run's cases were kept, and the new run's count comes from the server.
+    expect(await doneOf()).toBeGreaterThan(100);
+    await shot('jobs-3-reopened');
+    await page.locator('lam-run-progress').waitFor({ state: 'detached', timeout: 240_000 });
+    const sweep = page.locator('lam-cell-frame[data-cell-title="Reynolds number envelope"]');
+    await expect.poll(async () => (await sweep.getAttribute('class')) ?? '', { timeout: 30_000 }).toContain('lam-cell-state-current');
+    await sweep.scrollIntoViewIfNeeded();
+    await shot('jobs-4-done');
+    // A long sweep's table lists a spread of its steps; the plot has them all.
+    await expect.poll(() => sweep.locator('table.quantities tbody tr').count()).toBeLessThanOrEqual(120);
+    await sweep.getByText(/The table lists \d+ of the 2,000 steps/).waitFor();
+    expect(problems).toEqual([]);
+  }, 300_000);
+});
