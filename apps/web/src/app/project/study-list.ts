@@ -11,12 +11,14 @@ import { Router, RouterLink } from '@angular/router';
 import type { Study } from '@laminote/contracts';
 import { type Observable, forkJoin, map } from 'rxjs';
 import { Notifier } from '../core/notifier';
+import { problemMessage, toProblem } from '../core/problem';
 import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
 import { StudyApi } from '../shared/study-api';
 import { StudyDialog, type StudyDialogData } from './study-dialog';
+import { STUDY_IMPORT_MAX_BYTES, readStudyFile } from './study-import';
 
-/** A project's studies; engineers and leads create, rename, archive and restore them. */
+/** A project's studies; engineers and leads create, import, rename, archive and restore them. */
 @Component({
   selector: 'lam-study-list',
   imports: [
@@ -69,6 +71,51 @@ export class StudyList {
   protected create(): void {
     this.openDialog({ projectId: this.projectId() }, (study) => `Study “${study.title}” created`, (study) => {
       void this.router.navigate(['/studies', study.id]);
+    });
+  }
+
+  protected readonly importing = signal(false);
+  /** Why the chosen file was not imported, naming the file and what is wrong; stays until dismissed. */
+  protected readonly importProblem = signal<string | null>(null);
+
+  /**
+   * "Import a study": reads the chosen study export in the browser (so a file that is not one is named
+   * at once), makes it a new study here and opens it.
+   */
+  protected async importChosen(event: Event): Promise<void> {
+    const field = event.target as HTMLInputElement;
+    const file = field.files?.[0];
+    field.value = ''; // the same file can be chosen again after fixing it
+    if (!file) return;
+    this.importProblem.set(null);
+    if (file.size > STUDY_IMPORT_MAX_BYTES) {
+      this.importProblem.set(`“${file.name}” is not imported: at ${(file.size / 1048576).toFixed(1)} MB it is larger than a study export can be (${STUDY_IMPORT_MAX_BYTES / 1048576} MB).`);
+      return;
+    }
+    let text: string;
+    try {
+      text = await file.text();
+    } catch {
+      this.importProblem.set(`“${file.name}” could not be read from your disk; choose it again.`);
+      return;
+    }
+    const reading = readStudyFile(file.name, text);
+    if (!reading.ok) {
+      this.importProblem.set(reading.message);
+      return;
+    }
+    this.importing.set(true);
+    this.api.importStudy(this.projectId(), { document: reading.document }).subscribe({
+      next: (made) => {
+        this.importing.set(false);
+        const rerun = made.outputsLeft > 0 ? `; ${made.outputsLeft} to run again here` : '';
+        this.notifier.done(`Study “${made.title}” imported: ${made.cellCount} cells, ${made.outputsKept} results kept${rerun}`);
+        void this.router.navigate(['/studies', made.studyId]);
+      },
+      error: (error: unknown) => {
+        this.importing.set(false);
+        this.importProblem.set(`“${file.name}” was not imported: ${problemMessage(toProblem(error))}`);
+      },
     });
   }
 

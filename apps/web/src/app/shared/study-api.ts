@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { studySchema, type CreateStudy, type Study, type UpdateStudy } from '@laminote/contracts';
+import { importStudyResultSchema, studySchema, type CreateStudy, type ImportStudy, type ImportStudyResult, type Study, type UpdateStudy } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
@@ -24,6 +24,11 @@ export class StudyApi {
 
   get(studyId: string): Observable<Study> {
     return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}`).pipe(checked(studySchema, 'a study'));
+  }
+
+  /** A study export (from here or another Laminote) made a new study in this project. */
+  importStudy(projectId: string, body: ImportStudy): Observable<ImportStudyResult> {
+    return this.http.post(`${this.base}/projects/${encodeURIComponent(projectId)}/studies/import`, body).pipe(checked(importStudyResultSchema, 'an imported study'));
   }
 
   /** Rename, describe, archive or restore. */
