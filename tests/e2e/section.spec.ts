@@ -116,12 +116,43 @@ describe('sections and polars in the notebook', () => {
     await polar.screenshot({ path: '/tmp/laminote-e2e-polar.png' });
   });
 
+  it('runs the polar again with two criteria and Michel governing, and reads the drag the engine gives for that choice', async () => {
+    const polar = frame(POLAR_TITLE);
+    for (const name of ['Crossflow R_cf', 'Crossflow C1', 'H–Re_x', 'Granville']) await polar.getByRole('checkbox', { name }).uncheck();
+    await pick(polar, 'Governing criterion', 'Michel');
+    await run(polar);
+    const expected = computeCell(
+      'polar',
+      inputs('polar', { flowCellId: '00000000-0000-4000-8000-000000000001', sectionCellId: '00000000-0000-4000-8000-000000000002', from: -4, to: 8, points: 13, criteria: ['eN', 'michel'], governing: 'michel' }),
+      {
+        flowCellId: { kind: 'flow', inputs: inputs('flow', { mode: 'reynolds', reynolds: 6e6, mach: 0 }), upstream: {} },
+        sectionCellId: { kind: 'section', inputs: inputs('section', { naca: '2412', alphaDeg: 2 }), upstream: {} },
+      },
+    );
+    const rows = polar.locator('.points tbody tr');
+    await expect.poll(async () => Number(await rows.nth(6).locator('td').nth(2).textContent())).toBeCloseTo(expected.points[6]!.cd!, 5);
+    // After a reload the choice is still there (it is in the cell's inputs, not only the form).
+    await page.reload();
+    await frame(POLAR_TITLE).getByRole('checkbox', { name: 'Michel' }).waitFor();
+    expect(await frame(POLAR_TITLE).getByRole('checkbox', { name: 'Granville' }).isChecked()).toBe(false);
+    expect(await frame(POLAR_TITLE).getByRole('checkbox', { name: 'Envelope eᴺ' }).isChecked()).toBe(true);
+    await expect.poll(() => frame(POLAR_TITLE).getByRole('combobox', { name: 'Governing criterion' }).textContent()).toContain('Michel');
+    await frame(POLAR_TITLE).locator('form').screenshot({ path: '/tmp/laminote-e2e-polar-criteria.png' });
+  });
+
   it('points a transition analysis at the section cell', async () => {
     const analysis = await addCell('Transition analysis', ANALYSIS_TITLE);
     await pick(analysis, 'Flow condition', FLOW_TITLE);
     await pick(analysis, /Pressure distribution or section/, SECTION_TITLE);
     await run(analysis);
     await analysis.getByRole('table', { name: 'Transition summary per surface' }).waitFor();
+    // The section's outline with the governing transition of each surface (two diamonds) and the others' ticks.
+    const outline = analysis.locator('lam-plot[data-plot="outline"]');
+    await outline.scrollIntoViewIfNeeded();
+    await expect.poll(() => outline.locator('.main-svg').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+    await expect.poll(() => outline.locator('.scatterlayer .trace').count()).toBeGreaterThanOrEqual(3);
+    await expect.poll(() => outline.locator('.scatterlayer .trace').nth(1).locator('path.point').count()).toBe(2);
+    await analysis.getByText(/◆ governing transition/).waitFor();
     await analysis.screenshot({ path: '/tmp/laminote-e2e-section-analysis.png' });
   });
 

@@ -2,10 +2,11 @@ import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { SECTION_LIMITS, type DraftCell, type PolarResult } from '@laminote/contracts';
+import { SECTION_LIMITS, TRANSITION_CRITERIA, type DraftCell, type PolarInputs, type PolarResult, type TransitionCriterion } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
 import { CRITERION_LABELS } from '../../shared/analysis-summary';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
@@ -20,6 +21,8 @@ interface PolarFormValue {
   from: string;
   to: string;
   points: string;
+  criteria: Record<TransitionCriterion, boolean>;
+  governing: PolarInputs['governing'];
 }
 
 type Point = PolarResult['points'][number];
@@ -31,7 +34,7 @@ type Point = PolarResult['points'][number];
  */
 @Component({
   selector: 'lam-polar-cell',
-  imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
+  imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './polar-cell.html',
   styleUrls: ['../simple-cell.scss', '../section/section-cell.scss', './polar-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -42,6 +45,8 @@ export class PolarCell {
   readonly cell = input.required<DraftCell>();
 
   protected readonly maxPoints = SECTION_LIMITS.maxPolarPoints;
+  protected readonly criteriaIds = TRANSITION_CRITERIA;
+  protected readonly criterionLabels = CRITERION_LABELS;
   protected readonly form = new FormGroup({
     flowCellId: new FormControl('', { nonNullable: true }),
     sectionCellId: new FormControl('', { nonNullable: true }),
@@ -49,6 +54,10 @@ export class PolarCell {
     from: new FormControl('', { nonNullable: true }),
     to: new FormControl('', { nonNullable: true }),
     points: new FormControl('', { nonNullable: true }),
+    criteria: new FormGroup(
+      Object.fromEntries(TRANSITION_CRITERIA.map((id) => [id, new FormControl(true, { nonNullable: true })])) as Record<TransitionCriterion, FormControl<boolean>>,
+    ),
+    governing: new FormControl<PolarInputs['governing']>('auto', { nonNullable: true }),
   });
 
   private readonly binding = bindCellForm<PolarFormValue>({
@@ -61,6 +70,11 @@ export class PolarCell {
       from: numberText(inputs['from']),
       to: numberText(inputs['to']),
       points: numberText(inputs['points']),
+      // No list stored means the schema's default: every criterion.
+      criteria: Object.fromEntries(
+        TRANSITION_CRITERIA.map((id) => [id, Array.isArray(inputs['criteria']) ? (inputs['criteria'] as string[]).includes(id) : true]),
+      ) as Record<TransitionCriterion, boolean>,
+      governing: (typeof inputs['governing'] === 'string' ? inputs['governing'] : 'auto') as PolarInputs['governing'],
     }),
     fromForm: (value, previous) => {
       const inputs: Record<string, unknown> = {
@@ -71,10 +85,17 @@ export class PolarCell {
         from: numberInput(value.from),
         to: numberInput(value.to),
         points: numberInput(value.points),
+        criteria: TRANSITION_CRITERIA.filter((id) => value.criteria[id]),
+        governing: value.governing,
       };
       for (const key of Object.keys(inputs)) if (inputs[key] === undefined) delete inputs[key];
       return inputs;
     },
+  });
+
+  protected readonly criteriaProblem = computed(() => {
+    for (const [field, message] of this.binding.problems()) if (field.startsWith('criteria')) return message;
+    return null;
   });
 
   protected readonly flowCells = computed(() => this.session.cells().filter((c) => c.kind === 'flow'));

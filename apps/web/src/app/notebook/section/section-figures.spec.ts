@@ -1,5 +1,7 @@
-import { nacaSection } from '@laminote/aero';
-import { outlineFigure, splitOutline } from './section-figures';
+import { computeCell, nacaSection } from '@laminote/aero';
+import { CELL_SCHEMAS, TRANSITION_CRITERIA, type EngineResult } from '@laminote/contracts';
+import { summarise } from '../../shared/analysis-summary';
+import { analysisOutlineFigure, outlineFigure, splitOutline } from './section-figures';
 
 describe('section figures', () => {
   const naca = nacaSection('2412', 40);
@@ -23,5 +25,34 @@ describe('section figures', () => {
     expect(marks.x).toEqual([0.4, 0.6]);
     expect(marks.y[0]!).toBeGreaterThan(0.05);
     expect(marks.y[1]!).toBeLessThan(0);
+  });
+});
+
+describe('the outline of an analysis that names a section cell', () => {
+  const ID = '00000000-0000-4000-8000-000000000001';
+  const ID2 = '00000000-0000-4000-8000-000000000002';
+  const flow = { kind: 'flow' as const, inputs: CELL_SCHEMAS.flow.inputs.parse({ mode: 'reynolds', reynolds: 6e6, mach: 0, nCrit: 9 }), upstream: {} };
+  const section = { kind: 'section' as const, inputs: CELL_SCHEMAS.section.inputs.parse({ naca: '2412', alphaDeg: 2 }), upstream: {} };
+  const analysis = CELL_SCHEMAS.analysis.inputs.parse({ flowCellId: ID, pressureCellId: ID2 });
+  const result = computeCell('analysis', analysis, { flowCellId: flow, pressureCellId: section }) as EngineResult;
+
+  it('marks the governing transition of each surface on that surface, at the x/c the summary table gives', () => {
+    const figure = analysisOutlineFigure(result, TRANSITION_CRITERIA)!;
+    const summary = summarise(result, TRANSITION_CRITERIA);
+    const governing = figure.traces.find((t) => t.name === 'Transition (governing)')!;
+    const upper = summary.find((s) => s.name === 'upper')!.governing!;
+    const lower = summary.find((s) => s.name === 'lower')!.governing!;
+    expect(governing.x).toEqual([upper.value, lower.value]);
+    // Positive incidence on a cambered section: the upper surface's mark lies above the chord, the lower's below.
+    expect(governing.y[0]!).toBeGreaterThan(0);
+    expect(governing.y[1]!).toBeLessThan(0);
+    // Each criterion that found transition away from the governing one has its own tick.
+    const others = figure.traces.find((t) => t.name === 'Other criteria');
+    const located = summary.flatMap((s) => TRANSITION_CRITERIA.filter((id) => s.criteria[id] && Math.abs(s.criteria[id]!.value - s.governing!.value) > 1e-9));
+    expect(others?.x.length ?? 0).toBe(located.length);
+  });
+
+  it('draws nothing for an analysis of a pasted pressure table (no shape to mark)', () => {
+    expect(analysisOutlineFigure({ ...result, inviscid: undefined }, TRANSITION_CRITERIA)).toBeNull();
   });
 });

@@ -1,4 +1,5 @@
-import type { PolarResult, SectionResult } from '@laminote/contracts';
+import type { EngineResult, PolarResult, SectionResult, TransitionCriterion } from '@laminote/contracts';
+import { CRITERION_LABELS, summarise } from '../../shared/analysis-summary';
 import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from '../../shared/plot';
 
 /** The loop split at its foremost point: upper from the nose aft, lower from the nose aft. */
@@ -68,6 +69,33 @@ export function outlineFigure(outline: { x: readonly number[]; y: readonly numbe
     });
   }
   return { x: { title: 'x/c', range: [-0.02, 1.02] }, y: { title: 'y/c', range: [-0.22, 0.22] }, traces };
+}
+
+/**
+ * The outline an analysis of a section cell carries (its panel solution's x, y), with where each
+ * criterion puts transition on each surface, the governing one, and separation. Null when the analysis
+ * names a pressure cell (no shape) or a surface is located along s/c rather than x/c.
+ */
+export function analysisOutlineFigure(result: EngineResult, criteria: readonly TransitionCriterion[]): PlotFigure | null {
+  const inviscid = result.inviscid;
+  if (!inviscid || inviscid.kind !== 'section') return null;
+  const marks: OutlineMark[] = [];
+  for (const s of summarise(result, criteria)) {
+    if (s.name !== 'upper' && s.name !== 'lower') continue;
+    const surface = s.name;
+    const at = (v: { value: number; along: string } | null) => (v && v.along === 'x/c' ? v.value : null);
+    const governing = at(s.governing);
+    if (governing !== null) marks.push({ surface, x: governing, kind: 'transition', label: `${surface}: transition x/c ${governing.toFixed(3)} (${s.governingBy})` });
+    for (const id of criteria) {
+      const x = at(s.criteria[id] ?? null);
+      if (x !== null && !(governing !== null && Math.abs(x - governing) < 1e-9)) marks.push({ surface, x, kind: 'criterion', label: `${surface}: ${CRITERION_LABELS[id]} x/c ${x.toFixed(3)}` });
+    }
+    const laminar = at(s.laminarSeparation);
+    if (laminar !== null) marks.push({ surface, x: laminar, kind: 'separation', label: `${surface}: laminar separation x/c ${laminar.toFixed(3)}` });
+    const turbulent = at(s.turbulentSeparation);
+    if (turbulent !== null) marks.push({ surface, x: turbulent, kind: 'separation', label: `${surface}: turbulent separation x/c ${turbulent.toFixed(3)}` });
+  }
+  return outlineFigure({ x: inviscid.x, y: inviscid.y }, marks);
 }
 
 /** Cp along x/c for each surface, negative up; Prandtl–Glauert dashed beside Kármán–Tsien; Cp* marked. */
