@@ -17,6 +17,7 @@ import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../../shared/draft-session';
 import { sci } from '../../shared/format';
 import { CRITERION_LABELS, type Location, analysisFigures, summarise } from '../../shared/analysis-summary';
+import { analysisOutlineFigure } from '../section/section-figures';
 
 interface AnalysisFormValue {
   flowCellId: string;
@@ -173,6 +174,11 @@ export class AnalysisCell {
     return result ? analysisFigures(result) : [];
   });
   protected readonly flow = computed(() => this.result()?.flow ?? null);
+  /** With a section cell named: its outline, marked where each criterion puts transition (issue 14). */
+  protected readonly outline = computed(() => {
+    const result = this.result();
+    return result ? analysisOutlineFigure(result, this.resultCriteria()) : null;
+  });
 
   protected problem(control: string): string {
     const problems = this.binding.problems();
