@@ -75,13 +75,15 @@ export function bearerAuth({ db, logger, perMinute }: { db: Db; logger: Logger; 
       await markUsed(db, token.id).catch((err: unknown) => logger.warn({ err }, 'could not record the token’s last use'));
     }
     if (!READ_METHODS.has(req.method)) {
+      // The routers below strip their mount prefix from req.url; the audit names the whole path.
+      const path = req.originalUrl.split('?')[0];
       res.on('finish', () => {
         audit(db, {
           actorId: user.id,
           action: 'api_token.request',
           targetType: 'api_token',
           targetId: token.id,
-          detail: { method: req.method, path: `/api${req.path}`, status: res.statusCode, token: token.name },
+          detail: { method: req.method, path, status: res.statusCode, token: token.name },
         }).catch((err: unknown) => logger.error({ err }, 'could not audit a token request'));
       });
     }

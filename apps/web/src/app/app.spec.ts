@@ -43,8 +43,9 @@ describe('App shell', () => {
     const menu = await loader.getHarness(MatMenuHarness.with({ selector: '[aria-label="Account: Ines Varga"]' }));
     await menu.open();
     const items = await menu.getItems();
-    expect(await Promise.all(items.map((item) => item.getText()))).toEqual([expect.stringContaining('Sign out')]);
-    await items[0].click();
+    const texts = await Promise.all(items.map((item) => item.getText()));
+    expect(texts).toEqual([expect.stringContaining('API tokens'), expect.stringContaining('Sign out')]);
+    await items[1].click();
 
     const logout = http.expectOne({ method: 'POST', url: '/auth/logout' });
     expect(logout.request.headers.get('X-XSRF-TOKEN')).toBe('token-from-server');
