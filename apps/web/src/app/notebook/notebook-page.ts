@@ -55,6 +55,7 @@ import { Shortcuts } from './shortcuts';
 import { ComparisonCell } from './comparison/comparison-cell';
 import { SweepCell } from './sweep/sweep-cell';
 import { VersionBar } from '../versions/version-bar';
+import { SinceLastLook } from './since-last-look';
 
 interface OpenedStudy {
   readonly study: Study;
@@ -111,6 +112,7 @@ function isTextEntry(target: EventTarget | null): boolean {
     SweepCell,
     ComparisonCell,
     VersionBar,
+    SinceLastLook,
   ],
   providers: [DraftSession, BranchJobs],
   templateUrl: './notebook-page.html',
