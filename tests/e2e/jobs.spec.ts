@@ -97,4 +97,32 @@ describe('a long sweep as a job, in the browser', () => {
     await sweep.getByText(/The table lists \d+ of the 2,000 steps/).waitFor();
     expect(problems).toEqual([]);
   }, 300_000);
+
+  it('runs a grid of two parameters and draws where transition is over both', async () => {
+    const branchId = ((await api('GET', `/api/studies/${studyId}/branches`)).body as unknown as { id: string }[])[0]!.id;
+    const draft = (await api('GET', `/api/branches/${branchId}/draft`)).body as { revision: number; cells: { cellId: string; kind: string; title: string; collapsed: boolean; inputs: Record<string, unknown> }[] };
+    const cells = draft.cells.map(({ cellId, kind, title, collapsed, inputs }) => ({ cellId, kind, title, collapsed, inputs }));
+    const gridId = randomUUID();
+    cells.push({
+      cellId: gridId,
+      kind: 'sweep',
+      title: 'Reynolds number and N_crit grid',
+      collapsed: false,
+      inputs: { analysisCellId: ids.analysis, parameter: 'reynolds', from: 2e6, to: 2e7, steps: 20, second: { parameter: 'nCrit', from: 5, to: 12, steps: 15 } },
+    });
+    expect((await api('PUT', `/api/branches/${branchId}/draft`, { baseRevision: draft.revision, cells })).status).toBe(200);
+    await page.reload();
+    const grid = page.locator('lam-cell-frame[data-cell-title="Reynolds number and N_crit grid"]');
+    await grid.scrollIntoViewIfNeeded();
+    await grid.getByRole('button', { name: 'Run' }).first().click();
+    await expect.poll(async () => (await grid.getAttribute('class')) ?? '', { timeout: 120_000 }).toContain('lam-cell-state-current');
+    await grid.getByRole('checkbox', { name: /Vary a second parameter/ }).isChecked().then((checked) => expect(checked).toBe(true));
+    const map = grid.locator('lam-plot[aria-label^="Map of the upper transition"]');
+    await map.scrollIntoViewIfNeeded();
+    // The map is drawn as an image of coloured cells, with its colour bar.
+    await expect.poll(() => map.locator('svg image').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+    await expect.poll(() => map.locator('.colorbar').count()).toBeGreaterThan(0);
+    await shot('jobs-5-grid-map');
+    expect(problems).toEqual([]);
+  }, 180_000);
 });
