@@ -7,7 +7,7 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { provideTestApp } from '../../../testing/test-app';
 import { PLOT_RENDERER } from '../../shared/plot';
 import { DraftSession } from '../../shared/draft-session';
-import { ANALYSIS_ID, BRANCH_ID, cell, draft } from '../../../testing/notebook-fixtures';
+import { ANALYSIS_ID, BRANCH_ID, cell, draft, output } from '../../../testing/notebook-fixtures';
 import { SweepCell } from './sweep-cell';
 
 const SWEEP_ID = '11111111-2222-4333-8444-555555555505';
@@ -50,5 +50,29 @@ describe('SweepCell', () => {
     await select.open();
     await select.clickOptions({ text: 'Reynolds number Re' });
     expect(await parameter.getTextHints()).toEqual(['1 × 10⁴ to 1 × 10¹⁰']);
+  });
+
+  it('plots every criterion, the laminar extent and the drag against the swept parameter', async () => {
+    const step = (value: number, eN: number, michel: number, cd: number) => ({
+      value,
+      status: 'ok' as const,
+      error: null,
+      reynolds: value,
+      cd,
+      surfaces: [{ name: 'upper', transitionS: eN, transitionX: eN, by: 'eN', laminarSeparationS: null, cd: cd / 2, criteria: { eN, michel }, laminarExtent: eN }],
+      attachmentLine: null,
+    });
+    // Invented numbers: transition moving forward with Reynolds number, drag rising.
+    const result = { parameter: 'reynolds' as const, values: [5e6, 1e7, 2e7], steps: [step(5e6, 0.62, 0.55, 0.0042), step(1e7, 0.41, 0.36, 0.0049), step(2e7, 0.22, 0.19, 0.0056)], warnings: [] };
+    const { fixture } = await render(
+      cell('sweep', SWEEP_ID, { title: 'Re sweep', inputs: { analysisCellId: ANALYSIS_ID, parameter: 'reynolds', from: 5e6, to: 2e7, steps: 3 }, output: output(result), runState: 'current' }),
+    );
+    const labels = Array.from((fixture.nativeElement as HTMLElement).querySelectorAll('lam-plot')).map((p) => p.getAttribute('aria-label'));
+    expect(labels).toEqual([
+      'Governing transition location against the swept parameter',
+      'Transition by every criterion against the swept parameter',
+      'Laminar extent against the swept parameter',
+      'Profile drag against the swept parameter',
+    ]);
   });
 });

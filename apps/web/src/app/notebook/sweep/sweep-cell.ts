@@ -11,7 +11,7 @@ import { PLOT_COLOURS, Plot, type PlotFigure, type PlotTrace } from '../../share
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../../shared/draft-session';
-import { CAUSE_LABELS } from '../../shared/analysis-summary';
+import { CAUSE_LABELS, CRITERION_LABELS } from '../../shared/analysis-summary';
 import { rangeText, sci } from '../../shared/format';
 import { PARAMETER_LABELS } from '../../shared/sweep-parameters';
 
@@ -163,6 +163,50 @@ export class SweepCell {
       y: { title: 'governing transition x/c', range: [0, 1] },
       traces,
     };
+  });
+
+  /**
+   * Beside the governing transition: every evaluated criterion's transition, the laminar extent and the
+   * drag against the swept parameter (one-parameter sweeps; older results without them show none).
+   */
+  protected readonly moreFigures = computed((): { id: string; label: string; figure: PlotFigure }[] => {
+    const result = this.result();
+    if (!result || result.second) return [];
+    const x = { title: this.labels[result.parameter], log: result.parameter === 'reynolds' };
+    const values = result.steps.map((s) => s.value);
+    const names = this.surfaceNames();
+    const dashes = ['dash', 'dot', 'dashdot', 'solid'] as const;
+    const criteria = [...new Set(result.steps.flatMap((s) => s.surfaces.flatMap((surface) => Object.keys(surface.criteria ?? {}))))];
+    const at = (name: string, pick: (surface: SweepResult['steps'][number]['surfaces'][number]) => number | null | undefined) =>
+      result.steps.map((s) => {
+        const surface = s.status === 'ok' ? s.surfaces.find((x) => x.name === name) : undefined;
+        return surface ? (pick(surface) ?? null) : null;
+      });
+    const figures: { id: string; label: string; figure: PlotFigure }[] = [];
+    if (criteria.length > 0) {
+      const traces: PlotTrace[] = names.flatMap((name, i) =>
+        criteria.map((criterion, k) => ({
+          x: values,
+          y: at(name, (surface) => surface.criteria?.[criterion]),
+          name: `${name}: ${CRITERION_LABELS[criterion as keyof typeof CRITERION_LABELS] ?? criterion}`,
+          mode: 'lines+markers' as const,
+          color: PLOT_COLOURS[i % PLOT_COLOURS.length],
+          dash: dashes[k % dashes.length],
+          markerSize: 4,
+        })),
+      );
+      figures.push({ id: 'criteria', label: 'Transition by every criterion against the swept parameter', figure: { x, y: { title: 'transition x/c', range: [0, 1] }, traces } });
+    }
+    if (result.steps.some((s) => s.surfaces.some((surface) => surface.laminarExtent !== undefined))) {
+      const traces: PlotTrace[] = names.map((name, i) => ({ x: values, y: at(name, (surface) => surface.laminarExtent), name: `${name} laminar run`, mode: 'lines+markers', color: PLOT_COLOURS[i % PLOT_COLOURS.length] }));
+      figures.push({ id: 'extent', label: 'Laminar extent against the swept parameter', figure: { x, y: { title: 'laminar to x/c', range: [0, 1] }, traces } });
+    }
+    const drag: PlotTrace[] = [
+      { x: values, y: result.steps.map((s) => (s.cd === null ? null : s.cd * 1e4)), name: 'section c_d', mode: 'lines+markers', color: PLOT_COLOURS[1], width: 2.25 },
+      ...names.map((name, i) => ({ x: values, y: at(name, (surface) => (surface.cd === null ? null : surface.cd * 1e4)), name: `${name} c_d`, mode: 'lines+markers' as const, color: PLOT_COLOURS[(i + 2) % PLOT_COLOURS.length], dash: 'dash' as const })),
+    ];
+    figures.push({ id: 'drag', label: 'Profile drag against the swept parameter', figure: { x, y: { title: 'c_d (counts, 1 count = 0.0001)' }, traces: drag } });
+    return figures;
   });
 
   protected value(value: number, parameter: Parameter = this.parameter()): string {
