@@ -161,6 +161,7 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   op('POST', '/api/versions/:versionId/review-requests', 'Review', 'Send a version for review to named reviewers', { body: named('RequestReview', requestReviewSchema), status: 201, response: named('VersionReviewDetail', versionReviewDetailSchema) }),
   op('POST', '/api/versions/:versionId/verdicts', 'Review', 'Give a verdict on a version (reviewers)', { body: named('GiveVerdict', giveVerdictSchema), status: 201, response: named('VersionReviewDetail', versionReviewDetailSchema) }),
   op('GET', '/api/compare', 'Versions', 'Compare two versions cell by cell (?a=&b=)', { query: named('CompareQuery', compareQuerySchema), response: named('Comparison', comparisonSchema) }),
+  op('GET', '/api/compare/report.html', 'Reports', 'The comparison of two versions as one self-contained HTML file (?a=&b=, ?download=1 to save it)', { query: named('CompareQuery', compareQuerySchema), response: { contentType: 'text/html', description: 'What changed cell by cell, transition and drag of A against B with overlay plots as SVG, warnings and the caution.' } }),
 
   op('GET', '/api/threads/:threadId', 'Review', 'A thread with its comments', { response: named('Thread', threadSchema) }),
   op('POST', '/api/threads/:threadId/comments', 'Review', 'Reply in a thread', { body: named('CommentText', commentTextSchema), status: 201, response: named('Thread', threadSchema) }),

@@ -62,7 +62,13 @@ footer{margin-top:32px;font-size:12px;color:#5d5f66;border-top:1px solid #d5d6dc
 @page{size:A4;margin:16mm 14mm}
 `;
 
-function tableHtml(t: ReportTable): string {
+/** The report's style sheet with the Lato face inside, for every report this folder writes. */
+export function reportStyle(): string {
+  fonts ??= fontFace(400) + fontFace(700);
+  return fonts + STYLE;
+}
+
+export function tableHtml(t: ReportTable): string {
   const numeric = new Set(t.numeric ?? []);
   const head = t.columns.map((c) => `<th scope="col">${escapeHtml(c)}</th>`).join('');
   const body = t.rows.map((r) => `<tr>${r.map((v, i) => `<td${numeric.has(i) ? ' class="num"' : ''}>${escapeHtml(v)}</td>`).join('')}</tr>`).join('');
@@ -88,7 +94,6 @@ function cellHtml(cell: ReportCell, index: number, methodNames: ReadonlyMap<stri
 }
 
 export function renderReportHtml(model: VersionReportModel): string {
-  fonts ??= fontFace(400) + fontFace(700);
   const v = model.version;
   const methodNames = new Map(model.methods.map((m) => [m.id, m.name]));
   const title = `${model.study.title} — v${v.number} (${v.branchName})`;
@@ -103,7 +108,7 @@ export function renderReportHtml(model: VersionReportModel): string {
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
 <meta name="generator" content="Laminote engine ${escapeHtml(model.engineVersion)}">
 <title>${escapeHtml(title)} · Laminote report</title>
-<style>${fonts}${STYLE}</style></head>
+<style>${reportStyle()}</style></head>
 <body><main>
 <p class="kicker">Laminote version report · ${escapeHtml(model.project)}</p>
 <h1>${escapeHtml(title)}</h1>

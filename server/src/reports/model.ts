@@ -65,13 +65,18 @@ export async function buildVersionReport(
   };
 }
 
-export function reportFileName(model: VersionReportModel, extension: 'html' | 'pdf'): string {
-  const slug = `${model.study.title} v${model.version.number} ${model.version.branchName}`
+/** A file name from words: ASCII letters, digits and hyphens, at most 80 characters. */
+export function fileSlug(words: string): string {
+  return words
     .normalize('NFKD')
     .replace(/[^\w\s-]/g, '')
     .trim()
     .replace(/\s+/g, '-')
     .slice(0, 80);
+}
+
+export function reportFileName(model: VersionReportModel, extension: 'html' | 'pdf'): string {
+  const slug = fileSlug(`${model.study.title} v${model.version.number} ${model.version.branchName}`);
   return `${slug || 'laminote-report'}.${extension}`;
 }
 

@@ -72,6 +72,16 @@ describe('ComparePage', () => {
     expect(await cells.getItems()).toEqual([{ change: 'changed', title: 'Cruise flow', fields: ['Reynolds number: 4e6 → 8e6 (+100.0 %)'] }]);
   });
 
+  it('offers the comparison as a report that opens in a new tab', async () => {
+    const { fixture } = await render({ a: V1_ID, b: V2_ID });
+    const c = comparison();
+    http.expectOne((r) => r.url === '/api/compare').flush(c);
+    await fixture.whenStable();
+    const link = Array.from((fixture.nativeElement as HTMLElement).querySelectorAll<HTMLAnchorElement>('.head-actions a')).find((a) => a.textContent?.includes('Report'));
+    expect(link?.getAttribute('href')).toBe(`/api/compare/report.html?a=${c.a.id}&b=${c.b.id}`);
+    expect(link?.getAttribute('target')).toBe('_blank');
+  });
+
   it('folds an analysis whose numbers did not change into one line', async () => {
     const { fixture, loader } = await render({ a: V1_ID, b: V2_ID });
     const c = comparison();

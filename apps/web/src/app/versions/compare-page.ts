@@ -131,6 +131,11 @@ export class ComparePage {
     void this.router.navigate([], { queryParams: { a: this.b(), b: this.a() } });
   }
 
+  /** The comparison as a report to keep or send (HTML from the server, plots drawn in it). */
+  protected reportUrl(a: string, b: string): string {
+    return this.api.compareReportUrl(a, b);
+  }
+
   protected copyLink(): void {
     const url = new URL(this.router.serializeUrl(this.router.createUrlTree(['/studies', this.studyId(), 'compare'], { queryParams: { a: this.a(), b: this.b() } })), window.location.origin);
     this.notifier.done(this.clipboard.copy(url.href) ? 'Link to this comparison copied.' : `Copy this link: ${url.href}`);
