@@ -67,7 +67,7 @@ export function num(value: number | null | undefined, digits = 4): string {
   return Number(value.toPrecision(digits)).toString();
 }
 
-const CRITERION_NAMES: Record<string, string> = {
+export const CRITERION_NAMES: Record<string, string> = {
   eN: 'envelope eᴺ',
   crossflow: 'crossflow R_cf',
   crossflowC1: 'crossflow C1',
