@@ -61,9 +61,10 @@ const LEADING_NAME = /^([a-z][a-zA-Z0-9_]*(?:\.[a-zA-Z0-9_]+)*)(?=:| (?:must|is|
  * A message from the engine, a schema or the API, with the field names in it said as their labels:
  * "turbulenceIntensity 0.0002 is outside …" reads "Turbulence level 0.0002 is outside …", "mach 0.5: …"
  * reads "Mach number 0.5: …", "(trips.upper)" reads "(Trip on upper at x/c)". Words that are only
- * English stay as they are.
+ * English stay as they are. `startsSentence` false keeps the first letter's case, for a message that
+ * follows a title ("Internal error: request id 42").
  */
-export function readableMessage(message: string, kind: CellKind | null = null): string {
+export function readableMessage(message: string, kind: CellKind | null = null, startsSentence = true): string {
   let text = message.replace(/\b(?:pressureTable|text) line (\d+)\b/g, 'Pressure table, line $1');
   const leading = LEADING_NAME.exec(text);
   if (leading) {
@@ -72,5 +73,5 @@ export function readableMessage(message: string, kind: CellKind | null = null): 
   }
   text = text.replace(CODE_NAME, (name) => fieldPathLabel(name, kind) ?? name);
   // A sentence starts with a capital; a symbol (x/c, c_d) keeps its case.
-  return /^[a-z]+[ ,;:]/.test(text) ? text.charAt(0).toUpperCase() + text.slice(1) : text;
+  return startsSentence && /^[a-z]+[ ,;:]/.test(text) ? text.charAt(0).toUpperCase() + text.slice(1) : text;
 }

@@ -37,7 +37,7 @@ export function toProblem(error: unknown): Problem {
 /** One line for a snackbar: the title, then the detail when there is one. */
 export function problemMessage(problem: Problem): string {
   // The API names fields by their paths for scripts; a person reads their labels.
-  return problem.detail ? `${problem.title}: ${readableMessage(problem.detail)}` : problem.title;
+  return problem.detail ? `${problem.title}: ${readableMessage(problem.detail, null, false)}` : problem.title;
 }
 
 /** The messages a problem carries for named fields, from `errors[]` and from `field` with its detail. */
