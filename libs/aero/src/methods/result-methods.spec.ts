@@ -31,6 +31,14 @@ describe('resultMethods (the "Methods" links under each result)', () => {
     expect(ids('analysis', result)).toEqual(['thwaites', 'compressible-thwaites', 'head', 'squire-young', 'envelope-en', 'owen-randall', 'simple-sweep', 'falkner-skan-cooke', 'poll']);
   });
 
+  it('links a section, a polar and an analysis of a section to the panel method and the compressibility correction', () => {
+    expect(ids('section', { outline: { x: [], y: [] }, inviscid: {} })).toEqual(['vortex-panel', 'compressibility-correction']);
+    const polar = { points: [{ surfaces: [{ criteria: { eN: 0.3, michel: 0.2 } }] }, { surfaces: [{ criteria: { eN: 0.35 } }] }] };
+    expect(ids('polar', polar)).toEqual(['vortex-panel', 'compressibility-correction', 'thwaites', 'head', 'squire-young', 'envelope-en', 'michel']);
+    const analysisOfSection = { flow: { mach: 0 }, inviscid: { cl: 0.5 }, surfaces: [{ transition: { criteria: { eN: 0.3 } } }] };
+    expect(ids('analysis', analysisOfSection)).toEqual(['vortex-panel', 'compressibility-correction', 'thwaites', 'head', 'squire-young', 'envelope-en']);
+  });
+
   it('links the other kinds to their own methods and nothing for a result it cannot read', () => {
     expect(ids('flow', { temperature_K: 223.15 })).toEqual(['isa', 'sutherland', 'mack']);
     expect(ids('flow', { temperature_K: null })).toEqual(['mack']);

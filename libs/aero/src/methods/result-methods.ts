@@ -16,7 +16,8 @@ function record(value: unknown): Record<string, unknown> | null {
 }
 
 function analysisMethods(result: Record<string, unknown>): string[] {
-  const ids = ['thwaites'];
+  // An analysis of a section cell carries the section's panel solution.
+  const ids = result['inviscid'] ? ['vortex-panel', 'compressibility-correction', 'thwaites'] : ['thwaites'];
   const flow = record(result['flow']);
   if (typeof flow?.['mach'] === 'number' && flow['mach'] > 0) ids.push('compressible-thwaites');
   ids.push('head', 'squire-young');
@@ -54,6 +55,20 @@ export function resultMethods(kind: string, result: unknown): MethodEntry[] {
     case 'sweep':
       ids = ['thwaites', 'head', 'envelope-en', 'squire-young'];
       break;
+    case 'section':
+      ids = ['vortex-panel', 'compressibility-correction'];
+      break;
+    case 'polar': {
+      const criteria = new Set<string>();
+      for (const point of Array.isArray(r['points']) ? r['points'] : []) {
+        for (const surface of Array.isArray(record(point)?.['surfaces']) ? (record(point)!['surfaces'] as unknown[]) : []) {
+          for (const key of Object.keys(record(record(surface)?.['criteria']) ?? {})) criteria.add(key);
+        }
+      }
+      ids = ['vortex-panel', 'compressibility-correction', 'thwaites', 'head', 'squire-young'];
+      for (const key of criteria) if (CRITERION_METHODS[key]) ids.push(CRITERION_METHODS[key]);
+      break;
+    }
     case 'flatPlate':
       ids = ['flat-plate'];
       break;
