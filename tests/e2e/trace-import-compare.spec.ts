@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -25,8 +26,8 @@ async function api(method: 'GET' | 'POST' | 'PUT', url: string, body?: object) {
   return { status: res.status(), body: res.headers()['content-type']?.includes('json') ? await res.json() : await res.text() };
 }
 
-async function runBranch() {
-  const run = await api('POST', `/api/branches/${branchId}/run`, {});
+async function runBranch(branch = branchId) {
+  const run = await api('POST', `/api/branches/${branch}/run`, {});
   expect([200, 202]).toContain(run.status);
   // Followed by hand: expect.poll is for inside a test, and beforeAll runs this too.
   for (let state = run.status === 202 ? 'queued' : 'completed', tries = 0; state !== 'completed'; tries++) {
@@ -37,10 +38,10 @@ async function runBranch() {
   }
 }
 
-async function saveVersion(message: string): Promise<string> {
+async function saveVersion(message: string, branch = branchId): Promise<string> {
   const history = (await api('GET', `/api/studies/${studyId}/versions`)).body as { versions: { id: string; branchId: string; number: number }[] };
-  const head = history.versions.filter((v) => v.branchId === branchId).sort((a, b) => b.number - a.number)[0]?.id ?? null;
-  const saved = await api('POST', `/api/branches/${branchId}/versions`, { message, expectedHeadVersionId: head });
+  const head = history.versions.filter((v) => v.branchId === branch).sort((a, b) => b.number - a.number)[0]?.id ?? null;
+  const saved = await api('POST', `/api/branches/${branch}/versions`, { message, expectedHeadVersionId: head });
   expect(saved.status, JSON.stringify(saved.body)).toBe(201);
   return (saved.body as { id: string }).id;
 }
@@ -105,12 +106,17 @@ describe('issue 16 follow-up', () => {
     const a = ((await api('GET', `/api/studies/${studyId}/versions`)).body as { versions: { id: string; branchId: string; number: number }[] }).versions
       .filter((v) => v.branchId === branchId)
       .sort((x, y) => y.number - x.number)[0]!.id;
-    const draft = (await api('GET', `/api/branches/${branchId}/draft`)).body as { revision: number; cells: { cellId: string; kind: string; title: string; inputs: Record<string, unknown> }[] };
+    // B is a variant on a branch of its own: the demo study's main draft is shared by the other browser
+    // tests, which read it as seeded (swept-wing, versions), so it is left as it was.
+    const created = await api('POST', `/api/versions/${a}/branches`, { name: `Cruise 2000 m lower ${randomUUID().slice(0, 6)} (e2e)`, purpose: 'Compare report (e2e)' });
+    expect(created.status, JSON.stringify(created.body)).toBe(201);
+    const variant = (created.body as { id: string }).id;
+    const draft = (await api('GET', `/api/branches/${variant}/draft`)).body as { revision: number; cells: { cellId: string; kind: string; title: string; inputs: Record<string, unknown> }[] };
     const cells = draft.cells.map((c) => ({ cellId: c.cellId, kind: c.kind, title: c.title, collapsed: false, inputs: c.kind === 'flow' ? { ...c.inputs, altitude_m: (c.inputs['altitude_m'] as number) - 2000 } : c.inputs }));
-    const put = await api('PUT', `/api/branches/${branchId}/draft`, { baseRevision: draft.revision, cells });
+    const put = await api('PUT', `/api/branches/${variant}/draft`, { baseRevision: draft.revision, cells });
     expect(put.status, JSON.stringify(put.body)).toBe(200);
-    await runBranch();
-    const b = await saveVersion('Cruise 2000 m lower (e2e)');
+    await runBranch(variant);
+    const b = await saveVersion('Cruise 2000 m lower (e2e)', variant);
 
     await page.goto(`${testEnv.appUrl}/studies/${studyId}/compare?a=${a}&b=${b}`);
     const link = page.getByRole('link', { name: 'Report of this comparison (opens in a new tab)' });
