@@ -127,7 +127,10 @@ describe('the study notebook', () => {
 
     await analysis.getByText(/Engineering estimates from integral boundary-layer methods/).waitFor();
     // Plots are drawn as they come into view, as the person scrolls to them.
+    // Each plot in view starts drawing on its own idle callback, so on a busy machine the N-factor plot
+    // can be drawn while the skin-friction plot scrolled to still waits: wait for both.
     await analysis.locator('lam-plot[data-plot="cf"]').scrollIntoViewIfNeeded();
+    await analysis.locator('lam-plot[data-plot="cf"] .main-svg').first().waitFor({ timeout: 30_000 });
     await analysis.locator('lam-plot[data-plot="n"] .main-svg').first().waitFor({ timeout: 30_000 });
     expect(await analysis.locator('lam-plot .main-svg').count()).toBeGreaterThanOrEqual(4);
     // The N-factor plot has its axis titles with what is plotted.

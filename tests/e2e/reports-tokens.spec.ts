@@ -36,9 +36,20 @@ async function api(method: 'GET' | 'POST', path: string, body?: object) {
 
 let studyId: string;
 
+/**
+ * The plots the report draws for a cell of each kind with a result, by their titles
+ * (server/src/reports/cell-sections.ts); other kinds, and cells not run or refused, have none.
+ */
+const REPORT_PLOTS: Record<string, string[]> = {
+  pressure: ['Pressure distribution'],
+  analysis: ['Amplification N (envelope eᴺ)', 'Shape factor H', 'Skin friction cf'],
+  sweep: ['Transition against the swept parameter', 'Profile drag against the swept parameter'],
+};
+
 describe('a version report', () => {
   let versionId: string;
   let cellIds: string[];
+  type SavedCell = { cellId: string; kind: string; title: string; output: { status: string } | null };
 
   it('is offered on a saved version of the demo study and shows every cell with its plots drawn', async () => {
     const projects = (await api('GET', '/api/projects')).body as { id: string; name: string }[];
@@ -56,7 +67,13 @@ describe('a version report', () => {
     const saved = await api('POST', `/api/branches/${branchId}/versions`, { message: 'Cruise as seeded, for the report (e2e)', expectedHeadVersionId: head });
     expect(saved.status, JSON.stringify(saved.body)).toBe(201);
     versionId = (saved.body as { id: string }).id;
-    cellIds = ((await api('GET', `/api/versions/${versionId}`)).body as { cells: { cellId: string }[] }).cells.map((c) => c.cellId);
+    const cells = ((await api('GET', `/api/versions/${versionId}`)).body as { cells: SavedCell[] }).cells;
+    cellIds = cells.map((c) => c.cellId);
+    // The demo's own pressure, analysis and sweep cells were computed (other browser tests may have
+    // added cells of their own to the demo study before this one, each with its plots).
+    for (const title of ['Larkspur T-62 wing section, cruise (invented)', 'Transition and drag at cruise', 'Sensitivity to N_crit']) {
+      expect(cells.find((c) => c.title === title)?.output?.status, title).toBe('ok');
+    }
 
     await page.goto(`${testEnv.appUrl}/studies/${studyId}/versions/${versionId}`);
     const link = page.getByRole('link', { name: 'Report of this version (opens in a new tab)' });
@@ -66,15 +83,24 @@ describe('a version report', () => {
     await report.waitForLoadState('load');
     await report.getByRole('heading', { level: 1 }).waitFor();
     for (const id of cellIds) expect(await report.locator(`section.cell[data-cell-id="${id}"]`).count(), id).toBe(1);
+    // Every cell with a result has the plots of its kind, named, and no other; so has the whole report.
+    let expected = 0;
+    for (const cell of cells) {
+      const want = cell.output?.status === 'ok' ? (REPORT_PLOTS[cell.kind] ?? []) : [];
+      const drawn = await report.locator(`section.cell[data-cell-id="${cell.cellId}"] figure.plot svg`).evaluateAll((svgs) => svgs.map((svg) => svg.getAttribute('aria-label')));
+      expect(drawn, `${cell.kind} cell '${cell.title}'`).toEqual(want);
+      expected += want.length;
+    }
     const plots = report.locator('figure.plot svg');
-    expect(await plots.count()).toBe(6);
+    expect(await plots.count()).toBe(expected);
     for (let i = 0; i < (await plots.count()); i++) {
       const box = await plots.nth(i).boundingBox();
       expect(box!.width).toBeGreaterThan(300);
       expect(await plots.nth(i).locator('path').count()).toBeGreaterThan(0);
     }
     await report.screenshot({ path: '/tmp/laminote-e2e-report-top.png' });
-    await report.locator('section.cell[data-kind="analysis"]').scrollIntoViewIfNeeded();
+    const demoAnalysis = cells.find((c) => c.title === 'Transition and drag at cruise')!;
+    await report.locator(`section.cell[data-cell-id="${demoAnalysis.cellId}"]`).scrollIntoViewIfNeeded();
     await report.screenshot({ path: '/tmp/laminote-e2e-report-analysis.png' });
     await report.screenshot({ path: '/tmp/laminote-e2e-report-full.png', fullPage: true });
     await report.close();
