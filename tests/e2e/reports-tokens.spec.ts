@@ -1,4 +1,5 @@
 import { execFile } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -140,7 +141,19 @@ describe('personal API tokens', () => {
     const script = /## Scripts: API tokens[\s\S]*?```js\n([\s\S]*?)```/.exec(readme)![1]!;
     expect(script.trim().split('\n').length).toBeLessThanOrEqual(12);
     const dir = mkdtempSync(path.join(tmpdir(), 'laminote-readme-'));
-    const branchId = ((await (await asScript(`/api/studies/${studyId}/branches`)).json()) as { id: string }[])[0]!.id;
+    // On a branch of its own, from the main branch's newest version: the demo study's main draft is
+    // read as seeded by other browser tests (the swept wing's crossflow transition against the engine).
+    const mainId = ((await api('GET', `/api/studies/${studyId}/branches`)).body as { id: string }[])[0]!.id;
+    const history = (await api('GET', `/api/studies/${studyId}/versions`)).body as { versions: { id: string; branchId: string; number: number }[] };
+    let from = history.versions.filter((v) => v.branchId === mainId).sort((x, y) => y.number - x.number)[0]?.id;
+    if (!from) {
+      const saved = await api('POST', `/api/branches/${mainId}/versions`, { message: 'Cruise as seeded, for the token script (e2e)', expectedHeadVersionId: null });
+      expect(saved.status, JSON.stringify(saved.body)).toBe(201);
+      from = (saved.body as { id: string }).id;
+    }
+    const created = await api('POST', `/api/versions/${from}/branches`, { name: `Tunnel rig ${randomUUID().slice(0, 6)} (e2e)`, purpose: 'The README script’s upload (e2e)' });
+    expect(created.status, JSON.stringify(created.body)).toBe(201);
+    const branchId = (created.body as { id: string }).id;
     const draft = (await (await asScript(`/api/branches/${branchId}/draft`)).json()) as { cells: { kind: string; inputs: { text?: string } }[] };
     // An invented variant of the demo table: every Cp 3 % stronger, so the run has something new to compute.
     const table = draft.cells.find((c) => c.kind === 'pressure')!.inputs.text!.replace(/^(\s*-?[\d.]+\s+-?[\d.]+\s+)(-?[\d.]+)\s*$/gm, (_m, head: string, cp: string) => `${head}${(Number(cp) * 1.03).toFixed(5)}`);
