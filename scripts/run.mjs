@@ -14,7 +14,10 @@ if (!existsSync(tsx)) {
   if (install.status !== 0) process.exit(install.status ?? 1);
 }
 const [script, ...args] = process.argv.slice(2);
-const child = spawn(tsx, [path.join(root, 'scripts', script), ...args], { cwd: root, stdio: 'inherit' });
+// Node with tsx as a loader, not the tsx command: the command relays a signal to its child and kills the
+// child outright when it does not answer within 30 ms, which a busy machine or a synchronous step (pg_ctl)
+// easily misses, and then the cluster the script started is never stopped.
+const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'scripts', script), ...args], { cwd: root, stdio: 'inherit' });
 // Ctrl-C reaches the child too (same process group); wait for it to stop its services cleanly.
 for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
 child.on('exit', (code, signal) => process.exit(code ?? (signal ? 1 : 0)));
