@@ -2,7 +2,7 @@ import { Component, input } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentHarness } from '@angular/cdk/testing';
-import { beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { provideTestApp } from '../../testing/test-app';
 import { PLOT_LIBRARY, PLOT_RENDERER, Plot, type PlotFigure, type PlotLibrary, plotlyFigure } from './plot';
 
@@ -87,5 +87,39 @@ describe('Plot', () => {
     expect(calls[1]!.args[1]).toMatchObject({ format: 'png', filename: 'pressure-coefficient-cp-along-x-c' });
     // x back to its fixed 0..1, Cp back to autorange upside down (negative values up).
     expect(calls[2]!.args[1]).toEqual({ 'xaxis.autorange': false, 'xaxis.range': [0, 1], 'yaxis.autorange': 'reversed' });
+  });
+
+  describe('away from the screen', () => {
+    const saved = { observer: window.IntersectionObserver, matchMedia: window.matchMedia };
+    /** A plot far below the screen: the observer never reports it in view. */
+    class NeverInView {
+      observe(): void {}
+      disconnect(): void {}
+    }
+    const printing = (matches: boolean) =>
+      ((query: string) => ({ matches: matches && query === 'print', media: query, addEventListener() {}, removeEventListener() {} })) as unknown as typeof window.matchMedia;
+
+    afterEach(() => {
+      window.IntersectionObserver = saved.observer;
+      window.matchMedia = saved.matchMedia;
+    });
+
+    it('waits until it comes into view to draw', async () => {
+      window.IntersectionObserver = NeverInView as unknown as typeof IntersectionObserver;
+      window.matchMedia = printing(false);
+      const { fixture } = await render();
+      const element = fixture.nativeElement as HTMLElement;
+      expect(element.querySelector('.js-plotly-plot')).toBeNull();
+      expect(element.querySelector('.placeholder')?.textContent).toContain('Plot is drawn when it comes into view');
+    });
+
+    it('draws at once when it appears while the page is already printing (a cell body drawn late)', async () => {
+      window.IntersectionObserver = NeverInView as unknown as typeof IntersectionObserver;
+      window.matchMedia = printing(true);
+      const { fixture } = await render();
+      const element = fixture.nativeElement as HTMLElement;
+      expect(element.querySelector('.js-plotly-plot')).not.toBeNull();
+      expect(element.querySelector('.placeholder')).toBeNull();
+    });
   });
 });

@@ -371,6 +371,11 @@ export class Plot {
         window.removeEventListener('beforeprint', drawForPrint);
         printMedia?.removeEventListener?.('change', onMedia);
       });
+      // A plot whose cell body is drawn while printing is already under way missed the change.
+      if (printMedia?.matches) {
+        drawForPrint();
+        return;
+      }
 
       if (typeof IntersectionObserver === 'undefined') {
         this.draw();
