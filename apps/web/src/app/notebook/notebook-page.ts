@@ -5,6 +5,7 @@ import {
   ChangeDetectionStrategy,
   Component,
   ElementRef,
+  DestroyRef,
   Injector,
   PendingTasks,
   afterNextRender,
@@ -133,6 +134,7 @@ export class NotebookPage {
   private readonly announcer = inject(LiveAnnouncer);
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   private readonly injector = inject(Injector);
+  private readonly destroyRef = inject(DestroyRef);
   protected readonly session = inject(DraftSession);
   /** The branch's run jobs, followed while the page is open by those who may run cells. */
   protected readonly jobs = inject(BranchJobs);
@@ -267,7 +269,8 @@ export class NotebookPage {
     const idle = (next: () => void) =>
       typeof requestIdleCallback === 'function' ? requestIdleCallback(next, { timeout: 500 }) : setTimeout(next, 16);
     const step = () => {
-      if (this.bodiesShown() >= count) return done();
+      // The person may have left the study before the browser was idle: nothing more to draw.
+      if (this.destroyRef.destroyed || this.bodiesShown() >= count) return done();
       this.bodiesShown.update((n) => n + BODIES_PER_BATCH);
       afterNextRender(() => idle(step), { injector: this.injector });
     };

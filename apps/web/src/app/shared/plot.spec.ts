@@ -97,7 +97,7 @@ describe('Plot', () => {
       disconnect(): void {}
     }
     const printing = (matches: boolean) =>
-      ((query: string) => ({ matches: matches && query === 'print', media: query, addEventListener() {}, removeEventListener() {} })) as unknown as typeof window.matchMedia;
+      ((query: string) => ({ matches: matches && query === 'print', media: query, addEventListener() {}, removeEventListener() {}, addListener() {}, removeListener() {} })) as unknown as typeof window.matchMedia;
 
     afterEach(() => {
       window.IntersectionObserver = saved.observer;
