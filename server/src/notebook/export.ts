@@ -25,7 +25,8 @@ export interface ExportFile {
 
 type Cell = string | number | null;
 
-function slug(text: string): string {
+/** A file-name part made from a title: ASCII letters and digits joined by hyphens, at most 60. */
+export function slug(text: string, fallback = 'cell'): string {
   return (
     text
       .normalize('NFKD')
@@ -33,7 +34,7 @@ function slug(text: string): string {
       .toLowerCase()
       .replace(/[^a-z0-9]+/g, '-')
       .replace(/^-+|-+$/g, '')
-      .slice(0, 60) || 'cell'
+      .slice(0, 60) || fallback
   );
 }
 

@@ -1,4 +1,5 @@
 import { ENGINE_CAUTION, ENGINE_VERSION } from '@laminote/aero';
+import { slug } from './export';
 import { STUDY_DOCUMENT_FORMAT, type CellOutput, type Draft, type StudyDocument, type VersionDetail } from '@laminote/contracts';
 
 /**
@@ -11,18 +12,6 @@ type Source = StudyDocument['source'];
 
 function storedOutput(output: CellOutput | null): StudyDocument['cells'][number]['output'] {
   return output ? { status: output.status, result: output.result ?? null, error: output.error, engineVersion: output.engineVersion } : null;
-}
-
-function slug(text: string): string {
-  return (
-    text
-      .normalize('NFKD')
-      .replace(/[\u0300-\u036f]/g, '')
-      .toLowerCase()
-      .replace(/[^a-z0-9]+/g, '-')
-      .replace(/^-+|-+$/g, '')
-      .slice(0, 60) || 'study'
-  );
 }
 
 function documentOf(study: { id: string; title: string }, source: Source, cells: StudyDocument['cells'], now: Date): StudyDocument {
@@ -54,5 +43,5 @@ export function versionDocument(study: { id: string; title: string }, version: V
 export function studyDocumentFilename(document: StudyDocument): string {
   const { source } = document;
   const version = source.versionNumber === null ? 'draft' : `v${source.versionNumber}`;
-  return `${slug(document.study.title)}-${slug(source.branchName ?? 'branch')}-${version}.laminote.json`;
+  return `${slug(document.study.title, 'study')}-${slug(source.branchName ?? 'branch', 'branch')}-${version}.laminote.json`;
 }
