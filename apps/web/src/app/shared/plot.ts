@@ -372,8 +372,9 @@ export class Plot {
         printMedia?.removeEventListener?.('change', onMedia);
       });
       // A plot whose cell body is drawn while printing is already under way missed the change.
+      // (Not drawNow: this runs inside a render, where a synchronous tick would be recursive.)
       if (printMedia?.matches) {
-        drawForPrint();
+        this.draw();
         return;
       }
 
