@@ -79,7 +79,12 @@ describe('a long sweep as a job, in the browser', () => {
   });
 
   it('shows a run under way as it stands when the page is opened again, and fills the cells in as it ends', async () => {
-    await page.getByRole('button', { name: /Run study/ }).click();
+    // The run is queued again (202); anything else is told with the server's answer and the page's messages.
+    const [answer] = await Promise.all([
+      page.waitForResponse((r) => r.request().method() === 'POST' && /\/api\/branches\/[^/]+\/run$/.test(r.url()), { timeout: 30_000 }),
+      page.getByRole('button', { name: /Run study/ }).click(),
+    ]);
+    expect(answer.status(), `${await answer.text().catch(() => '')} ${JSON.stringify(problems)}`).toBe(202);
     await page.locator('lam-run-progress').waitFor();
     await expect.poll(doneOf, { timeout: 60_000 }).toBeGreaterThan(100);
     await page.reload();
