@@ -72,7 +72,7 @@ describe('the HTML report of a comparison', () => {
     expect(plots.length).toBeGreaterThanOrEqual(comparison.results[0]!.surfaces.length * 2);
     expect(html).toContain('B − A');
     // Criteria in the words of the screen, not their keys.
-    expect(html).toContain('upper: envelope eᴺ');
+    expect(html).toContain('upper: Envelope eᴺ');
     expect(html).not.toMatch(/: (eN|hRx|crossflowC1)</);
     expect(html).not.toMatch(/<script/i);
     expect(html).not.toMatch(/(src|href)="(https?:)?\/\//i);

@@ -16,6 +16,30 @@ export type CellKind = (typeof CELL_KINDS)[number];
 export const TRANSITION_CRITERIA = ['eN', 'crossflow', 'crossflowC1', 'michel', 'hRx', 'granville'] as const;
 export type TransitionCriterion = (typeof TRANSITION_CRITERIA)[number];
 
+/** What set the governing transition location. */
+export const TRANSITION_CAUSES = [...TRANSITION_CRITERIA, 'trip', 'laminarSeparation'] as const;
+export type TransitionCause = (typeof TRANSITION_CAUSES)[number];
+
+/** Each criterion's name as a table cell or a legend shows it (capitalised; sentences use VALUE_LABELS). */
+export const CRITERION_LABELS: Readonly<Record<TransitionCriterion, string>> = {
+  eN: 'Envelope eᴺ',
+  crossflow: 'Crossflow R_cf',
+  crossflowC1: 'Crossflow C1',
+  michel: 'Michel',
+  hRx: 'H–Re_x',
+  granville: 'Granville',
+};
+
+/** What set a transition location, as a table cell shows it. */
+export const TRANSITION_CAUSE_LABELS: Readonly<Record<TransitionCause, string>> = {
+  ...CRITERION_LABELS,
+  trip: 'Trip',
+  laminarSeparation: 'Laminar separation',
+};
+
+/** A criterion's or cause's label; an id from a newer engine than this code shows as itself. */
+export const transitionCauseLabel = (id: string): string => (TRANSITION_CAUSE_LABELS as Record<string, string>)[id] ?? id;
+
 /** An input field that names another cell (its id), and the kinds it may name. */
 export interface CellReference {
   readonly kinds: readonly CellKind[];

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { TRANSITION_CRITERIA } from './cell-kinds';
+import { TRANSITION_CAUSES, TRANSITION_CRITERIA } from './cell-kinds';
 import { bodySpecSchema, inviscidResultSchema, sectionSpecSchema } from './section';
 
 /**
@@ -10,11 +10,7 @@ import { bodySpecSchema, inviscidResultSchema, sectionSpecSchema } from './secti
  * Lengths are divided by the reference length L (usually the chord); velocities by V∞.
  */
 
-export { TRANSITION_CRITERIA, type TransitionCriterion } from './cell-kinds';
-
-/** What set the governing transition location. */
-export const TRANSITION_CAUSES = [...TRANSITION_CRITERIA, 'trip', 'laminarSeparation'] as const;
-export type TransitionCause = (typeof TRANSITION_CAUSES)[number];
+export { TRANSITION_CAUSES, TRANSITION_CRITERIA, type TransitionCause, type TransitionCriterion } from './cell-kinds';
 
 /** Size limits of one case; larger input is refused with these numbers in the message. */
 export const ENGINE_LIMITS = {

@@ -4,6 +4,7 @@ import {
   fieldLabel,
   isCellKind,
   orderedFields,
+  transitionCauseLabel,
   valueLabel,
   type AnalysisResult,
   type CellKind,
@@ -67,16 +68,6 @@ export function num(value: number | null | undefined, digits = 4): string {
   return Number(value.toPrecision(digits)).toString();
 }
 
-export const CRITERION_NAMES: Record<string, string> = {
-  eN: 'envelope eᴺ',
-  crossflow: 'crossflow R_cf',
-  crossflowC1: 'crossflow C1',
-  michel: 'Michel',
-  hRx: 'H–Re_x',
-  granville: 'Granville',
-  trip: 'forced trip',
-  laminarSeparation: 'laminar separation',
-};
 const VERDICT_WORDS: Record<string, string> = { laminar: 'stays laminar', contaminationRisk: 'contamination risk', unstable: 'unstable (turbulent)' };
 const LONG_TEXT = 160;
 
@@ -162,7 +153,7 @@ function analysisSections(r: AnalysisResult): Pick<ReportCell, 'tables' | 'plots
     rows: r.surfaces.map((s) => [
       s.name,
       atStation(s, s.transition.s),
-      s.transition.by ? CRITERION_NAMES[s.transition.by] ?? s.transition.by : 'stays laminar',
+      s.transition.by ? transitionCauseLabel(s.transition.by) : 'stays laminar',
       atStation(s, s.laminarSeparation?.s),
       atStation(s, s.turbulentSeparation?.s),
       num(s.cd),
@@ -178,7 +169,7 @@ function analysisSections(r: AnalysisResult): Pick<ReportCell, 'tables' | 'plots
     rows: r.surfaces.flatMap((s) =>
       criteria.map((c) => {
         const hit = (s.transition.criteria as Record<string, { s: number; reTheta: number; reS: number } | null | undefined>)[c];
-        return [s.name, CRITERION_NAMES[c] ?? c, hit ? atStation(s, hit.s) : 'not reached', num(hit?.reTheta), num(hit?.reS)];
+        return [s.name, transitionCauseLabel(c), hit ? atStation(s, hit.s) : 'not reached', num(hit?.reTheta), num(hit?.reS)];
       }),
     ),
   };
@@ -223,7 +214,7 @@ function sweepSections(r: SweepResult): Pick<ReportCell, 'tables' | 'plots'> {
         const s = step.surfaces.find((x) => x.name === n);
         if (!s) return '—';
         const where = s.transitionX !== null ? `x/c = ${num(s.transitionX, 3)}` : s.transitionS !== null ? `s = ${num(s.transitionS, 3)}` : 'stays laminar';
-        return s.by ? `${where} (${CRITERION_NAMES[s.by] ?? s.by})` : where;
+        return s.by ? `${where} (${transitionCauseLabel(s.by)})` : where;
       }),
       num(step.cd),
     ]),

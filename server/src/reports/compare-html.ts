@@ -1,5 +1,4 @@
-import { CELL_KIND_LABELS, type Comparison, type Delta, type TransitionDelta } from '@laminote/contracts';
-import { CRITERION_NAMES } from './cell-sections';
+import { CELL_KIND_LABELS, transitionCauseLabel, type Comparison, type Delta, type TransitionDelta } from '@laminote/contracts';
 import { when } from './format';
 import { escapeHtml, reportStyle, tableHtml } from './html';
 import { renderSvgPlot, type PlotSpec } from './svg-plot';
@@ -29,7 +28,7 @@ function deltaRow(label: string, d: Delta, digits = 4): string[] {
 
 function transitionRow(label: string, t: TransitionDelta): string[] {
   const where = (v: number | null, by: string | null) =>
-    v === null ? 'stays laminar' : `${t.coordinate}${t.coordinate === 'x' ? '/c' : ''} = ${num(v)}${by ? ` (${CRITERION_NAMES[by] ?? by})` : ''}`;
+    v === null ? 'stays laminar' : `${t.coordinate}${t.coordinate === 'x' ? '/c' : ''} = ${num(v)}${by ? ` (${transitionCauseLabel(by)})` : ''}`;
   return [label, where(t.a, t.byA), where(t.b, t.byB), `${signed(t.delta)} · ${SHIFT_WORDS[t.shift] ?? t.shift}`, EFFECT_WORDS[t.effect] ?? t.effect];
 }
 
@@ -75,7 +74,7 @@ export function renderCompareReportHtml(c: Comparison, ctx: CompareReportContext
       rows.push(transitionRow(`${s.name}: transition`, s.transition));
       rows.push(deltaRow(`${s.name}: laminar extent`, s.laminarExtent, 3));
       rows.push(deltaRow(`${s.name}: cd`, s.cd));
-      for (const k of s.criteria) rows.push(transitionRow(`${s.name}: ${CRITERION_NAMES[k.criterion] ?? k.criterion}`, k));
+      for (const k of s.criteria) rows.push(transitionRow(`${s.name}: ${transitionCauseLabel(k.criterion)}`, k));
     }
     parts.push(tableHtml({ caption: 'A, B, B − A and what the change means for the design', columns: ['Quantity', 'A', 'B', 'B − A', 'Effect'], rows, numeric: [1, 2] }));
     const plots: PlotSpec[] = r.surfaces.flatMap((s) => {

@@ -1,21 +1,10 @@
 import { michelTransitionReTheta } from '@laminote/aero';
-import type { CriterionMissingReason, EngineResult, EngineSurfaceResult, TransitionCause, TransitionCriterion } from '@laminote/contracts';
+import { TRANSITION_CAUSE_LABELS, type TransitionCriterion } from '@laminote/contracts/cell-kinds';
+import type { CriterionMissingReason, EngineResult, EngineSurfaceResult } from '@laminote/contracts';
 import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from './plot';
 
-export const CRITERION_LABELS: Record<TransitionCriterion, string> = {
-  eN: 'Envelope eᴺ',
-  crossflow: 'Crossflow R_cf',
-  crossflowC1: 'Crossflow C1',
-  michel: 'Michel',
-  hRx: 'H–Re_x',
-  granville: 'Granville',
-};
-
-export const CAUSE_LABELS: Record<TransitionCause, string> = {
-  ...CRITERION_LABELS,
-  trip: 'Trip',
-  laminarSeparation: 'Laminar separation',
-};
+/** Criterion and cause names as the tables and legends show them (one home, in the contracts). */
+export { CRITERION_LABELS, TRANSITION_CAUSE_LABELS as CAUSE_LABELS } from '@laminote/contracts/cell-kinds';
 
 /** Why a criterion has no location, in the words of the summary table. */
 export const REASON_WORDS: Record<CriterionMissingReason, string> = {
@@ -104,7 +93,7 @@ export function summarise(result: EngineResult, criteria: readonly TransitionCri
       spread,
       wouldSeparate: separationAt && { at: separationAt, afterTransition: surface.transition.s !== null && separationS! > surface.transition.s },
       governing,
-      governingBy: surface.transition.by ? CAUSE_LABELS[surface.transition.by] : 'none: laminar to the end',
+      governingBy: surface.transition.by ? TRANSITION_CAUSE_LABELS[surface.transition.by] : 'none: laminar to the end',
       laminarSeparation: locate(surface, surface.laminarSeparation?.s),
       turbulentSeparation: locate(surface, surface.turbulentSeparation?.s),
       laminarExtent: governing ?? locate(surface, end),
