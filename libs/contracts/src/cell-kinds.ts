@@ -56,6 +56,13 @@ export interface CellKindSpec {
   readonly hint: string;
   /** Whether the kind computes something (has a run state, a Run button and a result schema). */
   readonly runs: boolean;
+  /**
+   * Whether one cell of the kind computes in one engine call of milliseconds to a few tens of
+   * milliseconds (no cases, no points): a run left with a few such cells is computed by the app server
+   * at once rather than queued, since waiting for a worker would cost more than the work. Sweeps and
+   * polars, and anything of that size, are not quick. False for a kind that does not run.
+   */
+  readonly quick: boolean;
   /** The input fields that name other cells. The run order follows from these. */
   readonly references: Readonly<Record<string, CellReference>>;
   /** Every input field by its label on screen, in the order the cell shows them. */
@@ -74,6 +81,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'air',
     hint: 'Altitude, Mach and length, or Reynolds; N_crit; sweep',
     runs: true,
+    quick: true,
     references: {},
     fields: {
       mode: 'Flow given by',
@@ -94,6 +102,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'ssid_chart',
     hint: 'Paste or upload a Cp table',
     runs: true,
+    quick: true,
     references: {},
     fields: {
       text: 'Pressure table',
@@ -112,6 +121,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'draw',
     hint: 'NACA designation or pasted coordinates; its Cp by the panel method',
     runs: true,
+    quick: true,
     references: { flowCellId: { kinds: ['flow'], required: false } },
     fields: {
       source: 'Shape given by',
@@ -130,6 +140,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'insights',
     hint: 'Boundary layer and transition along each surface',
     runs: true,
+    quick: true,
     references: { flowCellId: { kinds: ['flow'], required: true }, pressureCellId: { kinds: ['pressure', 'section'], required: true } },
     fields: {
       flowCellId: 'Flow cell',
@@ -146,6 +157,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'function',
     hint: 'Lift, drag and transition of a section over a range of incidence or lift',
     runs: true,
+    quick: false,
     references: { flowCellId: { kinds: ['flow'], required: true }, sectionCellId: { kinds: ['section'], required: true } },
     fields: {
       flowCellId: 'Flow cell',
@@ -164,6 +176,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'straighten',
     hint: 'Laminar, turbulent and mixed skin friction',
     runs: true,
+    quick: true,
     references: {},
     fields: {
       mode: 'Given as',
@@ -182,6 +195,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'change_history',
     hint: 'Attachment-line Reynolds number and verdict',
     runs: true,
+    quick: true,
     references: { flowCellId: { kinds: ['flow'], required: false } },
     fields: {
       flowCellId: 'Flow cell',
@@ -198,6 +212,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'tune',
     hint: 'Re-run an analysis over a range of one parameter, or a grid of two',
     runs: true,
+    quick: false,
     references: { analysisCellId: { kinds: ['analysis'], required: true } },
     fields: {
       analysisCellId: 'Analysis cell',
@@ -214,6 +229,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'stacked_line_chart',
     hint: 'Overlay the Cp, N-factor and H of several pressure cells or analyses',
     runs: true,
+    quick: true,
     references: {
       firstCellId: { kinds: ['pressure', 'analysis'], required: true },
       secondCellId: { kinds: ['pressure', 'analysis'], required: true },
@@ -228,6 +244,7 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     icon: 'notes',
     hint: 'Markdown text',
     runs: false,
+    quick: false,
     references: {},
     fields: { markdown: 'Text' },
     starter: { markdown: '' },

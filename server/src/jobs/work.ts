@@ -1,4 +1,4 @@
-import type { CellError, CellKind, SweepInputs } from '@laminote/contracts';
+import { CELL_KIND_REGISTRY, type CellError, type CellKind, type SweepInputs } from '@laminote/contracts';
 import { sweepCaseCount, type CellTask } from '@laminote/aero';
 import { taskOf, type CellPlan } from '../notebook/plan';
 
@@ -56,15 +56,15 @@ export const unitsOf = (work: JobWork): number => (work.cases > 0 ? work.cases :
 export const needsComputing = (work: readonly JobWork[]): boolean => work.some((w) => w.key !== null && !w.cached);
 
 /**
- * Kinds that compute in milliseconds (one engine call, no cases or points), and how many of them a
- * run may take to be computed at once by the server instead of queued: waiting for a worker to take a
- * job would cost the person more than the work itself. Sweeps, polars and anything larger are queued.
+ * How many cells a run may have left to compute and still be computed at once by the server instead
+ * of queued, when every one of them is of a quick kind (`quick` in the cell-kind registry: one engine
+ * call, no cases or points): waiting for a worker to take a job would cost the person more than the
+ * work itself. Sweeps, polars and anything larger are queued.
  */
-const QUICK_KINDS: ReadonlySet<CellKind> = new Set(['flow', 'pressure', 'analysis', 'flatPlate', 'leadingEdge']);
 export const QUICK_RUN_CELLS = 4;
 
 /** Whether what is left to compute is a few quick cells, which the server computes at once. */
 export function isQuickRun(work: readonly JobWork[]): boolean {
   const todo = work.filter((w) => w.key !== null && !w.cached);
-  return todo.length <= QUICK_RUN_CELLS && todo.every((w) => w.cases === 0 && QUICK_KINDS.has(w.kind));
+  return todo.length <= QUICK_RUN_CELLS && todo.every((w) => w.cases === 0 && CELL_KIND_REGISTRY[w.kind].quick);
 }
