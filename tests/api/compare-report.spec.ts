@@ -1,3 +1,4 @@
+import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Comparison, Draft, VersionSummary } from '@laminote/contracts';
 import { createTestApp, type TestApp } from '../support/app';
@@ -8,7 +9,7 @@ import { signIn, type SignedIn } from '../support/sign-in';
 /**
  * The compare page's report (issue 16 follow-up) through the real API on PostgreSQL: the demo study is
  * run and saved (A), its flow cell's altitude lowered by 2000 m, run and saved again (B), and the report of
- * A against B read as HTML.
+ * A against B read as HTML and as PDF (opened with Mozilla's PDF reader, pdfjs-dist).
  */
 
 let t: TestApp;
@@ -51,7 +52,8 @@ describe('the HTML report of a comparison', () => {
   beforeAll(async () => {
     const res = await as['viewer']!.get(`/api/compare/report.html?a=${a.id}&b=${b.id}`).expect(200);
     expect(res.headers['content-type']).toMatch(/text\/html/);
-    expect(res.headers['content-disposition']).toMatch(/^inline; filename=".+\.html"$/);
+    // RFC 6266: an ASCII name and the UTF-8 one.
+    expect(res.headers['content-disposition']).toMatch(/^inline; filename="[^"]+\.html"; filename\*=UTF-8''.+\.html$/);
     html = res.text;
   });
 
@@ -79,9 +81,40 @@ describe('the HTML report of a comparison', () => {
   });
 
   it('is 404 for an outsider and 400 naming the field for a malformed id', async () => {
+    await as['outsider']!.get(`/api/compare/report.pdf?a=${a.id}&b=${b.id}`).expect(404);
     const outsider = await as['outsider']!.get(`/api/compare/report.html?a=${a.id}&b=${b.id}`);
     expect(outsider.status).toBe(404);
     const bad = await as['viewer']!.get(`/api/compare/report.html?a=${a.id}&b=nope`).expect(400);
     expect(JSON.stringify(bad.body)).toContain('b must name a version');
+  });
+});
+
+describe('the PDF report of a comparison', () => {
+  it('opens, and holds the same content as the HTML report: both versions, the changed input, every analysis and the caution', async () => {
+    const res = await as['viewer']!.get(`/api/compare/report.pdf?a=${a.id}&b=${b.id}&download=1`).buffer(true).parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="[^"]+\.pdf"/);
+    const pdf = await getDocument({ data: new Uint8Array(res.body as Buffer), useSystemFonts: false, isEvalSupported: false }).promise;
+    let text = '';
+    for (let p = 1; p <= pdf.numPages; p++) {
+      const page = await pdf.getPage(p);
+      text += (await page.getTextContent()).items.map((i) => ('str' in i ? i.str : '')).join(' ') + '\n';
+    }
+    const flat = text.replace(/\s+/g, ' ');
+    expect(flat).toContain('Cruise as seeded');
+    expect(flat).toContain('Cruise 2000 m lower');
+    const altitude = comparison.cells.find((c) => c.kind === 'flow' && c.change === 'changed')!.fields.find((f) => f.path === 'altitude_m')!;
+    expect(flat).toContain(`${altitude.label}: ${altitude.oldText} → ${altitude.newText}`.replace(/\s+/g, ' '));
+    for (const r of comparison.results) expect(flat).toContain(r.title.replace(/\s+/g, ' '));
+    expect(flat).toContain('upper: Envelope eᴺ');
+    expect(flat).toContain('B − A');
+    expect(flat).toContain(comparison.caution.replace(/\s+/g, ' ').slice(0, 60));
+    expect(flat).toContain(`page ${pdf.numPages} of ${pdf.numPages}`);
+    await pdf.destroy();
   });
 });

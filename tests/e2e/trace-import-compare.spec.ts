@@ -134,6 +134,13 @@ describe('issue 16 follow-up', () => {
     await report.locator('section.cell[data-kind="analysis"]').first().scrollIntoViewIfNeeded();
     await report.screenshot({ path: '/tmp/laminote-e2e-compare-report-analysis.png' });
     await report.close();
+    // The same report as a PDF file, downloaded from the page.
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Report of this comparison as PDF' }).click()]);
+    expect(download.suggestedFilename()).toMatch(/\.pdf$/);
+    const stream = await download.createReadStream();
+    const chunks: Buffer[] = [];
+    for await (const chunk of stream) chunks.push(chunk as Buffer);
+    expect(Buffer.concat(chunks).subarray(0, 5).toString('latin1')).toBe('%PDF-');
     expect(problems).toEqual([]);
   });
 });

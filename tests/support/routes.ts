@@ -85,6 +85,7 @@ export const ACCESS_RULES: Readonly<Record<string, AccessRule>> = {
   'POST /api/versions/:versionId/verdicts': { project: 'giveVerdict' },
   'GET /api/compare': 'signedIn',
   'GET /api/compare/report.html': 'signedIn',
+  'GET /api/compare/report.pdf': 'signedIn',
   'GET /api/threads/:threadId': { project: 'read' },
   'POST /api/threads/:threadId/comments': { project: 'comment' },
   'POST /api/threads/:threadId/resolve': { project: 'comment' },

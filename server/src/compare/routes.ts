@@ -1,4 +1,4 @@
-import { Router, type Request } from 'express';
+import { Router, type Request, type Response } from 'express';
 import { eq } from 'drizzle-orm';
 import { ENGINE_VERSION } from '@laminote/aero';
 import { compareQuerySchema } from '@laminote/contracts';
@@ -7,7 +7,9 @@ import type { Db } from '../db/client';
 import { projects } from '../db/schema';
 import { badRequest, notFound, parse } from '../http/problem';
 import { renderCompareReportHtml } from '../reports/compare-html';
-import { fileSlug } from '../reports/model';
+import { buildCompareReport } from '../reports/compare-model';
+import { renderPdfOffThread } from '../reports/pdf-pool';
+import { disposition } from '../reports/respond';
 import { compareVersions, studiesOf } from '../versions/compare';
 
 /** /api/compare?a=…&b=…: two versions of one study side by side, cell by cell. */
@@ -35,16 +37,19 @@ export function compareRouter({ db }: { db: Db }): Router {
     res.json(await compareVersions(db, a, b));
   });
 
-  /** The comparison as one self-contained HTML file, to send on or print (?download=1 to save it). */
-  router.get('/report.html', async (req, res) => {
+  /** The comparison as a report: one self-contained HTML file to send on or print, or a PDF of the same (?download=1 to save it). */
+  async function report(req: Request, res: Response, format: 'html' | 'pdf') {
     const { a, b, context } = await access(req);
     const comparison = await compareVersions(db, a, b);
     const [project] = await db.select({ name: projects.name }).from(projects).where(eq(projects.id, context.study.projectId));
-    const name = fileSlug(`${context.study.title} v${comparison.a.number} against v${comparison.b.number}`) || 'laminote-comparison';
-    res.setHeader('content-disposition', `${req.query['download'] === '1' ? 'attachment' : 'inline'}; filename="${name}.html"`);
+    const model = buildCompareReport(comparison, { project: project?.name ?? '', studyTitle: context.study.title, generatedBy: req.user!.name, engineVersion: ENGINE_VERSION });
+    disposition(res, `${model.fileBase}.${format}`, req.query['download'] === '1');
     res.setHeader('cache-control', 'private, no-store');
-    res.type('html').send(renderCompareReportHtml(comparison, { project: project?.name ?? '', studyTitle: context.study.title, generatedBy: req.user!.name, engineVersion: ENGINE_VERSION }));
-  });
+    if (format === 'html') res.type('html').send(renderCompareReportHtml(model));
+    else res.type('application/pdf').send(await renderPdfOffThread({ kind: 'compare', model }));
+  }
+  router.get('/report.html', (req, res) => report(req, res, 'html'));
+  router.get('/report.pdf', (req, res) => report(req, res, 'pdf'));
 
   return router;
 }

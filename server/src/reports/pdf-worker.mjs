@@ -3,8 +3,9 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { renderReportPdf } = await import('./pdf.ts');
+const { renderPdf } = await import('./pdf.ts');
 
-export default async function render(model) {
-  return renderReportPdf(model);
+/** A version report or a comparison ({ kind, model }) as PDF bytes. */
+export default async function render(job) {
+  return renderPdf(job);
 }

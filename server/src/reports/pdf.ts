@@ -4,6 +4,7 @@ import pdfmake from 'pdfmake';
 import type { Content, TDocumentDefinitions, TableCell } from 'pdfmake/interfaces';
 import type { ReportCell, ReportTable } from './cell-sections';
 import { when } from './format';
+import type { CompareReportModel, CompareSection } from './compare-model';
 import type { VersionReportModel } from './model';
 import { PLOT_HEIGHT, PLOT_WIDTH, renderSvgPlot } from './svg-plot';
 
@@ -54,7 +55,7 @@ function cellContent(cell: ReportCell, index: number, methodNames: ReadonlyMap<s
   if (cell.status === 'notRun' && cell.kind !== 'note') out.push({ text: 'Not run when this version was saved: no results.', style: 'warning' });
   if (cell.error) out.push({ text: `The engine refused this cell: ${cell.error}`, style: 'error' });
   for (const t of cell.tables) out.push(table(t));
-  for (const p of cell.plots) out.push({ svg: renderSvgPlot(p), width: 480, height: (480 * PLOT_HEIGHT) / PLOT_WIDTH, margin: [0, 4, 0, 6] } as Content);
+  for (const p of cell.plots) out.push(plotContent(p));
   if (cell.warnings.length) out.push({ stack: [{ text: 'Warnings', bold: true }, { ul: cell.warnings }], style: 'warning' });
   if (cell.methods.length) out.push({ text: `Methods: ${cell.methods.map((m) => methodNames.get(m) ?? m).join(', ')}`, style: 'small' });
   if (cell.outputKey) out.push({ text: `output key ${cell.outputKey} · engine ${cell.engineVersion ?? '?'}${cell.computedAt ? ` · computed ${when(cell.computedAt)}` : ''}`, style: 'provenance' });
@@ -93,29 +94,40 @@ export function reportDocument(model: VersionReportModel): TDocumentDefinitions 
       { text: [{ text: 'Limits: ', italics: true }, m.limits.join(' ')], margin: [0, 0, 0, 8] },
     ]),
   ];
+  return framed(
+    { title: `${model.study.title} v${v.number} (${v.branchName})`, author: v.author, subject: 'Laminote version report', creator: `Laminote engine ${model.engineVersion}`, producer: 'Laminote (pdfmake)' },
+    `${model.study.title} v${v.number} · Laminote engine ${model.engineVersion} · engineering estimates, see the caution`,
+    content,
+  );
+}
+
+const STYLES: TDocumentDefinitions['styles'] = {
+  h1: { fontSize: 17, bold: true, margin: [0, 2, 0, 4] },
+  h2: { fontSize: 13, bold: true, color: BLUE, margin: [0, 14, 0, 4] },
+  h3: { fontSize: 11, bold: true, margin: [0, 2, 0, 4] },
+  kind: { fontSize: 7.5, bold: true, color: BLUE },
+  th: { bold: true, fillColor: '#f1f2f6' },
+  num: { font: 'DejaVu Sans Mono', fontSize: 8, alignment: 'right' },
+  caption: { bold: true, margin: [0, 4, 0, 2] },
+  pre: { font: 'DejaVu Sans Mono', fontSize: 6.5, background: '#f6f7f9', margin: [0, 0, 0, 6] },
+  warning: { fillColor: '#fff7e0', color: '#5c4a00', margin: [0, 4, 0, 4] },
+  error: { color: '#b3261e', margin: [0, 4, 0, 4] },
+  caution: { color: '#7a2e10', margin: [0, 6, 0, 6] },
+  small: { fontSize: 8, color: '#44474e' },
+  provenance: { font: 'DejaVu Sans Mono', fontSize: 6.5, color: '#5d5f66', margin: [0, 2, 0, 0] },
+};
+
+/** Every report's page: A4, the one face, the house styles, and a footer with its line and page count. */
+function framed(info: TDocumentDefinitions['info'], footerLine: string, content: Content[]): TDocumentDefinitions {
   return {
     pageSize: 'A4',
     pageMargins: [40, 48, 40, 48],
-    info: { title: `${model.study.title} v${v.number} (${v.branchName})`, author: v.author, subject: 'Laminote version report', creator: `Laminote engine ${model.engineVersion}`, producer: 'Laminote (pdfmake)' },
+    info,
     defaultStyle: { font: 'DejaVu Sans', fontSize: 9, lineHeight: 1.2 },
-    styles: {
-      h1: { fontSize: 17, bold: true, margin: [0, 2, 0, 4] },
-      h2: { fontSize: 13, bold: true, color: BLUE, margin: [0, 14, 0, 4] },
-      h3: { fontSize: 11, bold: true, margin: [0, 2, 0, 4] },
-      kind: { fontSize: 7.5, bold: true, color: BLUE },
-      th: { bold: true, fillColor: '#f1f2f6' },
-      num: { font: 'DejaVu Sans Mono', fontSize: 8, alignment: 'right' },
-      caption: { bold: true, margin: [0, 4, 0, 2] },
-      pre: { font: 'DejaVu Sans Mono', fontSize: 6.5, background: '#f6f7f9', margin: [0, 0, 0, 6] },
-      warning: { fillColor: '#fff7e0', color: '#5c4a00', margin: [0, 4, 0, 4] },
-      error: { color: '#b3261e', margin: [0, 4, 0, 4] },
-      caution: { color: '#7a2e10', margin: [0, 6, 0, 6] },
-      small: { fontSize: 8, color: '#44474e' },
-      provenance: { font: 'DejaVu Sans Mono', fontSize: 6.5, color: '#5d5f66', margin: [0, 2, 0, 0] },
-    },
+    styles: STYLES,
     footer: (page: number, pages: number) => ({
       columns: [
-        { text: `${model.study.title} v${v.number} · Laminote engine ${model.engineVersion} · engineering estimates, see the caution`, fontSize: 7, color: '#5d5f66' },
+        { text: footerLine, fontSize: 7, color: '#5d5f66' },
         { text: `page ${page} of ${pages}`, alignment: 'right', fontSize: 7, color: '#5d5f66' },
       ],
       margin: [40, 16, 40, 0],
@@ -124,6 +136,44 @@ export function reportDocument(model: VersionReportModel): TDocumentDefinitions 
   };
 }
 
-export async function renderReportPdf(model: VersionReportModel): Promise<Buffer> {
-  return pdfmake.createPdf(reportDocument(model)).getBuffer();
+const plotContent = (p: Parameters<typeof renderSvgPlot>[0]): Content => ({ svg: renderSvgPlot(p), width: 480, height: (480 * PLOT_HEIGHT) / PLOT_WIDTH, margin: [0, 4, 0, 6] }) as Content;
+
+function compareSection(section: CompareSection): Content[] {
+  return [
+    { text: section.kindLabel.toUpperCase(), style: 'kind', margin: [0, 14, 0, 0] },
+    { text: section.title, style: 'h3' },
+    ...(section.note ? [{ text: section.note, style: 'warning' } as Content] : []),
+    table(section.table),
+    ...section.plots.map(plotContent),
+    ...(section.warnings.length ? [{ stack: [{ text: 'Warnings', bold: true }, { ul: section.warnings }], style: 'warning' } as Content] : []),
+  ];
+}
+
+/** The comparison of two versions as PDF: the same model, hence the same content, as its HTML report. */
+export function compareDocument(m: CompareReportModel): TDocumentDefinitions {
+  const facts: [string, string][] = [['Study', m.studyTitle], ...m.sides.map((s): [string, string] => [s.label, s.text]), ['Cells', m.cellCounts], ['Made', `${when(m.generatedAt)} by ${m.generatedBy} · Laminote engine ${m.engineVersion}`]];
+  const content: Content[] = [
+    { text: `Laminote comparison report · ${m.project}`, style: 'small' },
+    { text: m.title, style: 'h1' },
+    { table: { widths: ['auto', '*'], body: facts.map(([k, val]) => [{ text: k, color: '#44474e' }, val]) }, layout: 'noBorders', margin: [0, 4, 0, 8] },
+    { text: [{ text: 'Caution. ', bold: true }, m.caution], style: 'caution' },
+    { text: 'What changed', style: 'h2' },
+    m.changes ? table(m.changes) : { text: 'The two versions hold the same cells with the same inputs and results.' },
+    { text: 'Transition and drag, A against B', style: 'h2' },
+    ...(m.results.length ? m.results.flatMap(compareSection) : [{ text: 'Neither version has a transition analysis to compare.' } as Content]),
+    ...(m.sweeps.length ? [{ text: 'Parameter sweeps', style: 'h2' } as Content, ...m.sweeps.flatMap(compareSection)] : []),
+    { text: `Made by Laminote from versions ${m.sides[0].id} (A) and ${m.sides[1].id} (B); each version's own report holds every cell in full. Invented demo data is labelled as such in its study.`, style: 'small', margin: [0, 16, 0, 0] },
+  ];
+  return framed(
+    { title: m.title, subject: 'Laminote comparison report', creator: `Laminote engine ${m.engineVersion}`, producer: 'Laminote (pdfmake)' },
+    `${m.studyTitle}: comparison · Laminote engine ${m.engineVersion} · engineering estimates, see the caution`,
+    content,
+  );
+}
+
+/** What a PDF is made of: a version report or a comparison. */
+export type PdfJob = { kind: 'version'; model: VersionReportModel } | { kind: 'compare'; model: CompareReportModel };
+
+export async function renderPdf(job: PdfJob): Promise<Buffer> {
+  return pdfmake.createPdf(job.kind === 'version' ? reportDocument(job.model) : compareDocument(job.model)).getBuffer();
 }

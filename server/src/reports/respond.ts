@@ -5,10 +5,10 @@ import { versionDetail } from '../versions/service';
 import { versionReview } from '../review/verdicts';
 import { buildVersionReport, reportFileName } from './model';
 import { renderReportHtml } from './html';
-import { renderReportPdfOffThread } from './pdf-pool';
+import { renderPdfOffThread } from './pdf-pool';
 
 /** RFC 6266: an ASCII fallback name and the UTF-8 one. */
-function disposition(res: Response, name: string, download: boolean) {
+export function disposition(res: Response, name: string, download: boolean) {
   const ascii = name.replace(/[^\x20-\x7e]/g, '_').replace(/"/g, '');
   res.setHeader('content-disposition', `${download ? 'attachment' : 'inline'}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`);
 }
@@ -31,5 +31,5 @@ export async function sendVersionReport(db: Db, req: Request, res: Response, ver
   disposition(res, reportFileName(m, format), req.query['download'] === '1');
   res.setHeader('cache-control', 'private, no-store');
   if (format === 'html') res.type('html').send(renderReportHtml(m));
-  else res.type('application/pdf').send(await renderReportPdfOffThread(m));
+  else res.type('application/pdf').send(await renderPdfOffThread({ kind: 'version', model: m }));
 }

@@ -80,6 +80,9 @@ describe('ComparePage', () => {
     const link = Array.from((fixture.nativeElement as HTMLElement).querySelectorAll<HTMLAnchorElement>('.head-actions a')).find((a) => a.textContent?.includes('Report'));
     expect(link?.getAttribute('href')).toBe(`/api/compare/report.html?a=${c.a.id}&b=${c.b.id}`);
     expect(link?.getAttribute('target')).toBe('_blank');
+    const pdf = Array.from((fixture.nativeElement as HTMLElement).querySelectorAll<HTMLAnchorElement>('.head-actions a')).find((a) => a.textContent?.includes('PDF'));
+    expect(pdf?.getAttribute('href')).toBe(`/api/compare/report.pdf?a=${c.a.id}&b=${c.b.id}&download=1`);
+    expect(pdf?.hasAttribute('download')).toBe(true);
   });
 
   it('folds an analysis whose numbers did not change into one line', async () => {

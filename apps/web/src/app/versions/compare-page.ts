@@ -131,9 +131,9 @@ export class ComparePage {
     void this.router.navigate([], { queryParams: { a: this.b(), b: this.a() } });
   }
 
-  /** The comparison as a report to keep or send (HTML from the server, plots drawn in it). */
-  protected reportUrl(a: string, b: string): string {
-    return this.api.compareReportUrl(a, b);
+  /** The comparison as a report to keep or send (HTML or PDF from the server, plots drawn in it). */
+  protected reportUrl(a: string, b: string, format: 'html' | 'pdf', download = false): string {
+    return this.api.compareReportUrl(a, b, format, download);
   }
 
   protected copyLink(): void {

@@ -66,9 +66,9 @@ export class VersionApi {
     return this.http.get(`${this.base}/compare`, { params: { a, b } }).pipe(checked(comparisonSchema, 'a comparison'));
   }
 
-  /** Where the report of A against B is (one self-contained HTML file), opened by the browser itself. */
-  compareReportUrl(a: string, b: string, download = false): string {
-    return `${this.base}/compare/report.html?a=${encodeURIComponent(a)}&b=${encodeURIComponent(b)}${download ? '&download=1' : ''}`;
+  /** Where the report of A against B is (one self-contained HTML file, or a PDF), opened by the browser itself. */
+  compareReportUrl(a: string, b: string, format: 'html' | 'pdf' = 'html', download = false): string {
+    return `${this.base}/compare/report.${format}?a=${encodeURIComponent(a)}&b=${encodeURIComponent(b)}${download ? '&download=1' : ''}`;
   }
 
   /** Where a version's report is: opened by the browser itself (a file to keep or send, not JSON). */
