@@ -116,7 +116,7 @@ export function analyzeCase(input: unknown): EngineResult {
   const compressibleLaminar = flow.mach > 0;
   if (flow.mach >= 0.3) {
     warnings.push(
-      `mach ${flow.mach}: the laminar layer is computed compressible; the Tollmien–Schlichting growth (e^N envelope), the single-point criteria and the turbulent layer (Head) are incompressible correlations applied to it`,
+      `mach ${flow.mach}: the laminar layer is computed compressible; the Tollmien–Schlichting growth (eᴺ envelope), the single-point criteria and the turbulent layer (Head) are incompressible correlations applied to it`,
     );
   }
 
