@@ -1,4 +1,4 @@
-import { index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { bigint, index, integer, pgTable, text, timestamp, uniqueIndex, uuid, varchar } from 'drizzle-orm/pg-core';
 import { users } from './identity';
 
 /**
@@ -26,3 +26,15 @@ export const apiTokens = pgTable(
   },
   (t) => [uniqueIndex('api_tokens_hash_key').on(t.tokenHash), index('api_tokens_user_idx').on(t.userId)],
 );
+
+/**
+ * Request budgets (sign-in attempts per client address, requests per API token), shared by every app
+ * server on the database so N servers do not give N budgets. The layout is the one rate-limiter-flexible's
+ * PostgreSQL store reads and writes: `key` (its prefix and the caller), the points used in the current
+ * window, and when that window ends (ms since the epoch). Expired rows are pruned by the retention job.
+ */
+export const rateLimits = pgTable('rate_limits', {
+  key: varchar('key', { length: 255 }).primaryKey(),
+  points: integer('points').notNull().default(0),
+  expire: bigint('expire', { mode: 'number' }),
+});
