@@ -1,8 +1,8 @@
-import { Solver } from './odex-solver';
+import { Odex } from './odex';
 
 /**
  * Head's entrainment method for the turbulent boundary layer, integrated with odex (Hairer & Wanner's
- * extrapolation code, Gragg–Bulirsch–Stoer).
+ * extrapolation code, Gragg–Bulirsch–Stoer; odex.ts, the npm package's algorithm step for step).
  *
  * Source: M. R. Head, "Entrainment in the turbulent boundary layer", ARC R&M 3152 (1958); correlations
  * as fitted by T. Cebeci & P. Bradshaw, "Momentum Transfer in Boundary Layers" (1977) (quoted from
@@ -76,6 +76,8 @@ export interface TurbulentMarchResult {
 }
 
 const H1_SEPARATION = entrainmentShapeFactor(TURBULENT_SEPARATION_SHAPE_FACTOR);
+/** One integrator for every march (headMarch is synchronous and does not call itself). */
+let integrator: Odex | undefined;
 // Trial steps of the integrator may overshoot separation; keep H1 where the correlations are defined.
 const H1_FLOOR = 3.35;
 
@@ -100,8 +102,7 @@ export function headMarch(input: TurbulentMarchInput, out: TurbulentStations): T
     while (k > 0 && x < s[k]) k--;
     return k;
   };
-  const dy = [0, 0];
-  const derivative = (x: number, y: number[]): number[] => {
+  const derivative = (x: number, y: Float64Array, dy: Float64Array): void => {
     const j = locate(x);
     const w = (x - s[j]) / (s[j + 1] - s[j]);
     const u = ue[j] + w * (ue[j + 1] - ue[j]);
@@ -119,15 +120,15 @@ export function headMarch(input: TurbulentMarchInput, out: TurbulentStations): T
     const dTheta = 0.5 * cf - (h + 2) * theta * logU - theta * logR;
     dy[0] = dTheta;
     dy[1] = (entrainmentRate(h1) - h1 * (dTheta + theta * (logU + logR))) / theta;
-    return dy;
   };
 
-  const solver = new Solver(2);
-  solver.denseOutput = true;
-  solver.relativeTolerance = 1e-6;
-  solver.absoluteTolerance = [1e-6 * startTheta, 1e-6];
-  solver.maxSteps = 1_000_000;
-  solver.initialStepSize = Math.min(s[first] - startS > 0 ? s[first] - startS : s[n - 1] - startS, (s[n - 1] - startS) / 8);
+  const odex = (integrator ??= new Odex(2));
+  const options = {
+    relativeTolerance: 1e-6,
+    absoluteTolerance: [1e-6 * startTheta, 1e-6],
+    maxSteps: 1_000_000,
+    initialStepSize: Math.min(s[first] - startS > 0 ? s[first] - startS : s[n - 1] - startS, (s[n - 1] - startS) / 8),
+  };
 
   let next = first;
   let separationS: number | null = null;
@@ -140,8 +141,8 @@ export function headMarch(input: TurbulentMarchInput, out: TurbulentStations): T
     out.skinFriction[j] = ludwiegTillmannCf(h, reynolds * ue[j] * theta);
   };
 
-  solver.solve(derivative, startS, [startTheta, h1Start], s[n - 1], (_step, xOld, x, y, dense) => {
-    if (x === xOld || !dense) return true;
+  odex.solve(derivative, startS, [startTheta, h1Start], s[n - 1], options, (xOld, x, y) => {
+    if (x === xOld) return true;
     const separated = y[1] <= H1_SEPARATION;
     let end = x;
     if (separated) {
@@ -150,18 +151,18 @@ export function headMarch(input: TurbulentMarchInput, out: TurbulentStations): T
       let b = x;
       for (let it = 0; it < 50; it++) {
         const mid = 0.5 * (a + b);
-        if (dense(1, mid) <= H1_SEPARATION) b = mid;
+        if (odex.dense(1, mid) <= H1_SEPARATION) b = mid;
         else a = mid;
       }
       end = 0.5 * (a + b);
     }
     while (next < n && s[next] <= end) {
-      fill(next, dense(0, s[next]), dense(1, s[next]));
+      fill(next, odex.dense(0, s[next]), odex.dense(1, s[next]));
       next++;
     }
     if (separated) {
       separationS = end;
-      endTheta = dense(0, end);
+      endTheta = odex.dense(0, end);
       endH1 = H1_SEPARATION;
       return false;
     }
