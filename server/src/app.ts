@@ -107,14 +107,14 @@ export function createApp(deps: AppDeps): Express {
   app.use(sessionMiddleware(config, database.pool));
   app.use(loadUser(db));
   // A personal API token (Authorization: Bearer) stands in for the session on /api.
-  app.use('/api', ...bearerAuth({ db, logger, perMinute: config.API_TOKEN_RATE_PER_MINUTE }));
+  app.use('/api', ...bearerAuth({ db, pool: database.pool, logger, perMinute: config.API_TOKEN_RATE_PER_MINUTE }));
   // Anonymous calls answer 401 before anything else is looked at; then anti-forgery.
   app.use('/api', requireUser, csrfProtection(config.PUBLIC_URL));
   app.use('/auth/logout', csrfProtection(config.PUBLIC_URL));
   // Hostile input (NUL, broken Unicode, deep nesting, non-finite numbers, unknown cell inputs) answers
   // 400 here, for every route, before any handler or the database sees it.
   app.use(inputGuard);
-  app.use(authRouter({ config, db, oidc: deps.oidc, logger }));
+  app.use(authRouter({ config, db, pool: database.pool, oidc: deps.oidc, logger }));
 
   const api = Router();
   const notebook = new NotebookService(db, deps.engine, logger);

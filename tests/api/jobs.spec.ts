@@ -148,7 +148,10 @@ describe('runs as jobs', () => {
     const processed = t.worker!.runner.processed;
     const again = await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(200);
     expect(again.body.ran.map((r: { reused: boolean }) => r.reused)).toEqual([true, true, true, true]);
-    expect(cellOf(again.body as Draft, ids.sweep).runState).toBe('current');
+    // Nothing changed: the answer names no cell, and the draft has every output, current.
+    expect(again.body.cells).toEqual([]);
+    const draft = (await as['engineer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    expect(cellOf(draft, ids.sweep).runState).toBe('current');
     expect(t.worker!.runner.processed).toBe(processed);
     // One cell and what it uses: all stored too.
     const one = await as['engineer']!.post(`/api/branches/${branchId}/run`, { cellIds: [ids.analysis] }).expect(200);
@@ -261,7 +264,7 @@ describe('runs as jobs', () => {
 });
 
 describe('retention', () => {
-  it('prunes outputs no draft or version refers to, and sent mail, once old enough; keeps the rest', async () => {
+  it('prunes outputs no draft or version refers to, sent mail and spent request budgets, once old enough; keeps the rest', async () => {
     const { branchId, ids, draft } = await sweepStudy({ parameter: 'nCrit', from: 6, to: 12, steps: 6 });
     const ran = await runAndWait(as['engineer']!, branchId);
     const keys = Object.fromEntries(ran.cells.map((c: DraftCell) => [c.cellId, c.output!.key]));
@@ -270,6 +273,8 @@ describe('retention', () => {
     await as['engineer']!.put(`/api/branches/${branchId}/draft`, { baseRevision: draft.revision, cells: kept }).expect(200);
     await t.database.db.execute(sql`update drafts set trash = '[]'::jsonb where branch_id = ${branchId}`);
     await t.database.db.execute(sql`insert into mail_outbox (to_email, subject, text, sent_at) values ('a@tamsk.example', 'sent', 'x', now() - interval '20 days'), ('b@tamsk.example', 'waiting', 'x', null)`);
+    // Request budgets: one whose minute ended two hours ago, one still counting.
+    await t.database.db.execute(sql`insert into rate_limits (key, points, expire) values ('sign-in:old', 3, (extract(epoch from now()) * 1000)::bigint - 7200000), ('sign-in:now', 1, (extract(epoch from now()) * 1000)::bigint + 60000)`);
     const young = await pruneRetained(t.database.db, { outputAgeDays: 1, mailAgeDays: 30 });
     expect(young).toMatchObject({ outputs: 0, mail: 0 });
     const pruned = await pruneRetained(t.database.db, { outputAgeDays: 0, mailAgeDays: 14 });
@@ -280,5 +285,8 @@ describe('retention', () => {
     for (const id of [ids.flow, ids.pressure, ids.analysis]) expect(left.has(keys[id]!)).toBe(true);
     const mail = (await t.database.db.execute<{ subject: string }>(sql`select subject from mail_outbox where subject in ('sent', 'waiting')`)).rows.map((r) => r.subject);
     expect(mail).toEqual(['waiting']);
+    expect(young.rateLimits).toBe(1);
+    const budgets = (await t.database.db.execute<{ key: string }>(sql`select key from rate_limits where key in ('sign-in:old', 'sign-in:now')`)).rows.map((r) => r.key);
+    expect(budgets).toEqual(['sign-in:now']);
   });
 });

@@ -53,6 +53,27 @@ describe('sessions', () => {
     expect(Number(last!.headers['retry-after'])).toBeGreaterThan(0);
   });
 
+  it('keeps one sign-in budget for every app server on the database, not one each', async () => {
+    // A database of its own, so the attempts of the tests before do not count; 8 a minute across both servers.
+    const shared = await createTestApp({ SIGN_IN_RATE_PER_MINUTE: '8' }, { worker: false });
+    try {
+      const other = shared.anotherServer();
+      const statuses: number[] = [];
+      for (let i = 0; i < 6; i++) {
+        statuses.push((await request(shared.app).get('/auth/login')).status);
+        statuses.push((await request(other).get('/auth/login')).status);
+      }
+      expect(statuses.slice(0, 8).every((s) => s === 302)).toBe(true);
+      expect(statuses.slice(8).every((s) => s === 429)).toBe(true);
+      const refused = await request(other).get('/auth/login');
+      expect(refused.status).toBe(429);
+      expect(refused.headers['ratelimit-policy']).toBe('"sign-in";q=8;w=60');
+      expect(Number(refused.headers['retry-after'])).toBeGreaterThan(0);
+    } finally {
+      await shared.close();
+    }
+  });
+
   it("asks who is signing in after a sign-out, and sends the browser to the provider's end-session page", async () => {
     const app = await createTestApp();
     try {

@@ -18,6 +18,8 @@ export interface TestApp {
   engine: EnginePool;
   /** The job worker running in this process (null when started without one). */
   worker: JobWorker | null;
+  /** Another app server on the same database (as a second machine behind a balancer would run it). */
+  anotherServer(): Express;
   close(): Promise<void>;
 }
 
@@ -48,6 +50,7 @@ export async function createTestApp(overrides: Record<string, string> = {}, opti
     demo,
     engine,
     worker,
+    anotherServer: () => createApp({ config, database, logger, oidc: createOidcClient(config), engine, jobs }),
     close: async () => {
       await worker?.stop();
       await jobs.stop();

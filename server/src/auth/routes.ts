@@ -1,3 +1,4 @@
+import type pg from 'pg';
 import { Router, type Request, type RequestHandler } from 'express';
 import * as client from 'openid-client';
 import type { Config } from '../config';
@@ -14,6 +15,8 @@ import { EmailTakenError, findSessionUser, UnverifiedEmailError, upsertUserFromI
 interface AuthDeps {
   config: Config;
   db: Db;
+  /** The database's pool, where request budgets are kept. */
+  pool: pg.Pool;
   oidc: OidcClient;
   logger: Logger;
 }
@@ -41,7 +44,7 @@ function destroy(req: Request): Promise<void> {
   return new Promise((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
 }
 
-export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
+export function authRouter({ config, db, pool, oidc, logger }: AuthDeps): Router {
   const router = Router();
   const redirectUri = `${config.PUBLIC_URL}/auth/callback`;
   const secure = config.PUBLIC_URL.startsWith('https://');
@@ -54,7 +57,12 @@ export function authRouter({ config, db, oidc, logger }: AuthDeps): Router {
   };
 
   // Anonymous routes that write a session row: a budget per client address.
-  const signInBudget = limitRequests({ perMinute: config.SIGN_IN_RATE_PER_MINUTE, what: 'sign-in attempts' });
+  const signInBudget = limitRequests({
+    pool,
+    name: 'sign-in',
+    perMinute: config.SIGN_IN_RATE_PER_MINUTE,
+    refuse: (n) => ({ title: 'Too many requests', detail: `At most ${n} sign-in attempts a minute from one place; wait a minute and try again.` }),
+  });
 
   // Authorization code flow with PKCE; state and nonce are checked on the way back.
   router.get('/auth/login', signInBudget, async (req, res) => {

@@ -4,7 +4,8 @@ import type { Tx } from '../db/client';
 /**
  * The scheduled clean-up: outputs that no draft (cells or trash) and no version refers to, and that no
  * job under way will read, once older than `outputAgeDays`; the sweep cases and finished jobs of that
- * age; and mail the outbox has sent, once older than `mailAgeDays`. Each statement is one transaction,
+ * age; mail the outbox has sent, once older than `mailAgeDays`; and request budgets whose minute has
+ * passed (rate_limits, kept an hour for the record). Each statement is one transaction,
  * so a clean-up cut short by a restart leaves everything consistent and the next one goes on.
  */
 export interface RetentionPolicy {
@@ -17,6 +18,7 @@ export interface Pruned {
   sweepCases: number;
   jobs: number;
   mail: number;
+  rateLimits: number;
 }
 
 export async function pruneRetained(tx: Tx, policy: RetentionPolicy): Promise<Pruned> {
@@ -39,5 +41,6 @@ export async function pruneRetained(tx: Tx, policy: RetentionPolicy): Promise<Pr
       and not exists (select 1 from run_jobs, jsonb_array_elements(run_jobs.work) w where ${active} and w ->> 'key' = s.sweep_key)`);
   const jobs = await tx.execute(sql`delete from run_jobs where finished_at < now() - ${outputAge} and not (${active})`);
   const mail = await tx.execute(sql`delete from mail_outbox where sent_at is not null and sent_at < now() - ${mailAge}`);
-  return { outputs: outputs.rowCount ?? 0, sweepCases: cases.rowCount ?? 0, jobs: jobs.rowCount ?? 0, mail: mail.rowCount ?? 0 };
+  const budgets = await tx.execute(sql`delete from rate_limits where expire < (extract(epoch from now()) * 1000)::bigint - 3600000`);
+  return { outputs: outputs.rowCount ?? 0, sweepCases: cases.rowCount ?? 0, jobs: jobs.rowCount ?? 0, mail: mail.rowCount ?? 0, rateLimits: budgets.rowCount ?? 0 };
 }

@@ -1,9 +1,10 @@
 import type { RequestHandler } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import type pg from 'pg';
 import type { TokenScope } from '@laminote/contracts';
 import { audit } from '../audit/audit';
 import type { Db } from '../db/client';
 import { ProblemError } from '../http/problem';
+import { limitRequests } from '../http/rate-limit';
 import type { Logger } from '../logger';
 import { findActiveToken, markUsed } from './service';
 
@@ -48,7 +49,7 @@ export function scopeAllows(scope: TokenScope, method: string, path: string): bo
  * request outside the scope 403, more than `perMinute` requests in a minute 429. Every change made
  * with a token is written to the audit log with the token named.
  */
-export function bearerAuth({ db, logger, perMinute }: { db: Db; logger: Logger; perMinute: number }): RequestHandler[] {
+export function bearerAuth({ db, pool, logger, perMinute }: { db: Db; pool: pg.Pool; logger: Logger; perMinute: number }): RequestHandler[] {
   const authenticate: RequestHandler = async (req, res, next) => {
     const header = req.get('authorization');
     if (!header) return next();
@@ -89,20 +90,13 @@ export function bearerAuth({ db, logger, perMinute }: { db: Db; logger: Logger; 
     }
     next();
   };
-  const limit = rateLimit({
-    windowMs: 60_000,
-    limit: perMinute,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
+  const limit = limitRequests({
+    pool,
+    name: 'token',
+    perMinute,
     skip: (req) => !req.apiToken,
-    keyGenerator: (req) => req.apiToken!.id,
-    handler: (_req, _res, next, options) =>
-      next(
-        new ProblemError(429, 'rate-limited', 'Too many requests with this API token', {
-          detail: `A token may make ${options.limit} requests a minute; wait and try again.`,
-          retryAfter: Math.ceil(options.windowMs / 1000),
-        }),
-      ),
+    key: (req) => req.apiToken!.id,
+    refuse: (n) => ({ title: 'Too many requests with this API token', detail: `A token may make ${n} requests a minute; wait and try again.` }),
   });
   return [authenticate, limit];
 }
