@@ -257,7 +257,7 @@ function caseErrorFromIssue(issue: z.core.$ZodIssue): CaseError {
 
 function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number], index: number, mach: number, sweep: number, warnings: string[]): PreparedSurface {
   let n = surface.s.length;
-  const s = Float64Array.from(surface.s);
+  const s = new Float64Array(surface.s);
   const ue = new Float64Array(n);
   const prefix = `surfaces[${index}]`;
   let maxLocalMach = 0;
@@ -295,7 +295,7 @@ function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number],
     s: s.subarray(0, n),
     ue: ue.subarray(0, n),
     x: null,
-    radius: surface.r === undefined ? null : Float64Array.from(surface.r).subarray(0, n),
+    radius: surface.r === undefined ? null : new Float64Array(surface.r).subarray(0, n),
     trip: surface.trip !== undefined && surface.trip <= s[n - 1] ? surface.trip : null,
     stagnationGradient: null,
   };
@@ -476,7 +476,9 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     const reAt = localRe(i - 1) + f * (localRe(i) - localRe(i - 1));
     if (laminarSeparationS !== null && si > laminarSeparationS) return;
     found[criterion] = { s: si, reTheta: reThetaPrev + f * (reThetaHere - reThetaPrev), reS: reAt * uAt * si, ...extra };
+    located++;
   };
+  let located = 0;
   let gEN = -Infinity;
   let gMichel = -Infinity;
   let gHRx = -Infinity;
@@ -567,6 +569,10 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     }
     reCfPrev = cross.reCf;
     reDelta2Prev = cross.reDelta2;
+    // Every chosen criterion is located at or before this station, so the governing transition is too,
+    // and the N and crossflow curves end no later than the next station (curveEnd): nothing further
+    // down the laminar solution is shown, and the loop stops.
+    if (located === criteria.length && located > 0) break;
   }
 
   // The governing transition: the earliest of the governing criteria, then a trip or laminar
@@ -665,8 +671,8 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     for (let i = 0; i < Math.min(firstTurbulent, n); i++) outputShape[i] = physicalShape[i];
   }
   const stations: EngineSurfaceResult['stations'] = {
-    s: Array.from(s),
-    ue: Array.from(ue),
+    s: numbers(s),
+    ue: numbers(ue),
     theta: nullable(theta, n),
     deltaStar: product(theta, outputShape, n),
     H: nullable(outputShape, n),
@@ -674,7 +680,7 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     n: nullable(nFactor, n),
     reCf: reCf === null ? new Array<null>(n).fill(null) : nullable(reCf, n),
   };
-  if (surface.x !== null) stations.x = Array.from(surface.x);
+  if (surface.x !== null) stations.x = numbers(surface.x);
   return {
     name: surface.name,
     stations,
@@ -727,6 +733,14 @@ function curveEnd(s: Float64Array, last: number, transitionS: number | null, cri
 
 function markFrom(a: Float64Array, from: number, n: number): void {
   for (let i = from; i < n; i++) a[i] = NaN;
+}
+
+/** A plain array of a typed one's values (an indexed copy: `Array.from` goes through the iterator). */
+function numbers(a: Float64Array): number[] {
+  const n = a.length;
+  const out = new Array<number>(n);
+  for (let i = 0; i < n; i++) out[i] = a[i];
+  return out;
 }
 
 function nullable(a: Float64Array, n: number): (number | null)[] {

@@ -78,13 +78,16 @@ const STEP_SAFETY_FACTOR1 = 0.65;
 const STEP_SAFETY_FACTOR2 = 0.94;
 const LF_SAFE = 2 * KM * KM + KM;
 
-// Tables that depend on the step-size sequence only, computed as the package computes them inline.
+// Tables that depend on the step-size sequence and the controls only, each computed as the package
+// computes it inline.
 const NJ = new Float64Array(KM + 1); // 1-based step-number sequence 4i − 2
 const A = new Float64Array(KM + 1); // work per column, for the order selection
 const I_POINT = new Int32Array(KM + 2);
 const ERR_FAC = new Float64Array(2 * KM + 1);
 /** EXTRAPOLATION_FACTOR[j * (KM + 1) + l] = (nj[j] / nj[l − 1])² − 1. */
 const EXTRAPOLATION_FACTOR = new Float64Array((KM + 1) * (KM + 1));
+/** STEP_FAC_MIN[j] = fac1^(1 / (2j − 1)), the smallest step-size factor after line j. */
+const STEP_FAC_MIN = new Float64Array(KM + 1);
 /** DERIVATIVE_SCALE[kk * (2 * KM + 2) + kmi] = (nj[kk] / 2)^(kmi − 1). */
 const DERIVATIVE_SCALE = new Float64Array((KM + 1) * (2 * KM + 2));
 {
@@ -106,6 +109,7 @@ const DERIVATIVE_SCALE = new Float64Array((KM + 1) * (2 * KM + 2));
   for (let j = 2; j <= KM; ++j) {
     for (let l = j; l >= 2; --l) EXTRAPOLATION_FACTOR[j * (KM + 1) + l] = Math.pow(NJ[j] / NJ[l - 1], 2) - 1;
   }
+  for (let j = 1; j <= KM; ++j) STEP_FAC_MIN[j] = Math.pow(STEP_SIZE_FAC1, 1 / (2 * j - 1));
   for (let kk = 1; kk <= KM; ++kk) {
     for (let kmi = 1; kmi <= 2 * KM + 1; ++kmi) DERIVATIVE_SCALE[kk * (2 * KM + 2) + kmi] = Math.pow(NJ[kk] / 2, kmi - 1);
   }
@@ -448,7 +452,7 @@ export class Odex {
     this.errOld = Math.max(4 * err, 1);
     // compute optimal step sizes
     const exp0 = 1 / (2 * j - 1);
-    const facMin = Math.pow(STEP_SIZE_FAC1, exp0);
+    const facMin = STEP_FAC_MIN[j];
     fac = Math.min(STEP_SIZE_FAC2 / facMin, Math.max(facMin, Math.pow(err / STEP_SAFETY_FACTOR1, exp0) / STEP_SAFETY_FACTOR2));
     fac = 1 / fac;
     hh[j] = Math.min(Math.abs(h) * fac, this.hMax);

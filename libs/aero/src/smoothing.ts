@@ -132,10 +132,11 @@ export function estimateScatter(s: ArrayLike<number>, f: ArrayLike<number>): num
     const r = f[i] - fit;
     r2[k] = (r * r) / (1 - leverage);
   }
-  const median = medianOf(Float64Array.from(r2));
+  const median = medianOf(r2.slice());
   let sum = 0;
   let count = 0;
-  for (const v of r2) {
+  for (let k = 0; k < r2.length; k++) {
+    const v = r2[k];
     if (v <= 9 * median) {
       sum += v;
       count++;
