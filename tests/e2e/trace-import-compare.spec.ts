@@ -97,8 +97,18 @@ describe('issue 16 follow-up', () => {
     await page.screenshot({ path: '/tmp/laminote-e2e-import-bad.png' });
 
     await page.locator('input[type="file"]').setInputFiles(good);
+    // The dialog says what the file holds and offers the export's title, which the engineer changes.
+    const dialog = page.getByRole('dialog', { name: 'Import a study' });
+    await dialog.waitFor();
+    expect(await dialog.textContent()).toMatch(/“outboard-cruise\.json”: \d+ cells from version \d+ on main of “/);
+    const title = dialog.getByRole('textbox', { name: 'Title of the new study' });
+    const imported = `Outboard cruise, imported ${randomUUID().slice(0, 6)} (invented)`;
+    await title.fill(imported);
+    await page.screenshot({ path: '/tmp/laminote-e2e-import-dialog.png' });
+    await dialog.getByRole('button', { name: 'Import study' }).click();
     await page.waitForURL((url) => /\/studies\/[0-9a-f-]{36}$/.test(url.pathname) && !url.pathname.endsWith(studyId), { timeout: 30_000 });
     await page.locator('.method-links').first().waitFor({ timeout: 30_000 });
+    await page.getByRole('heading', { level: 1, name: imported }).waitFor();
     await page.screenshot({ path: '/tmp/laminote-e2e-import-opened.png' });
   });
 

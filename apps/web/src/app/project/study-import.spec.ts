@@ -66,14 +66,60 @@ describe('StudyList: Import a study', () => {
     return { fixture, el };
   }
 
-  it('sends the export, then opens the imported study', async () => {
+  /** The import dialog, once it is open over the page. */
+  async function dialog(fixture: { detectChanges(): void }) {
+    return vi.waitFor(() => {
+      fixture.detectChanges();
+      const found = document.querySelector<HTMLElement>('lam-study-import-dialog');
+      if (!found) throw new Error('no import dialog yet');
+      return found;
+    });
+  }
+
+  function submit(box: HTMLElement, fixture: { detectChanges(): void }) {
+    Array.from(box.querySelectorAll('button')).find((b) => b.textContent?.includes('Import study'))!.click();
+    fixture.detectChanges();
+  }
+
+  it('says what the export holds, lets the study be named, sends it, then opens the imported study', async () => {
     const navigate = vi.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
     const { fixture } = await renderAndChoose('root.json', JSON.stringify(exportDocument()));
+    const box = await dialog(fixture);
+    expect(box.textContent).toContain('“root.json”: 1 cell from version 3 of “Larkspur T-62 wing root (invented)”, exported 2026-12-01.');
+    const title = box.querySelector<HTMLInputElement>('input[formcontrolname="title"]')!;
+    expect(title.value).toBe('Larkspur T-62 wing root (invented)');
+    title.value = 'Wing root, second look (invented)';
+    title.dispatchEvent(new Event('input'));
+    submit(box, fixture);
     const post = await vi.waitFor(() => http.expectOne({ method: 'POST', url: `/api/projects/${PROJECT_ID}/studies/import` }));
     expect(post.request.body.document.study.title).toBe('Larkspur T-62 wing root (invented)');
-    post.flush({ studyId: STUDY_ID, branchId: BRANCH_ID, title: 'Larkspur T-62 wing root (invented)', cellCount: 1, outputsKept: 0, outputsLeft: 0 });
-    await fixture.whenStable();
-    expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID]);
+    expect(post.request.body.title).toBe('Wing root, second look (invented)');
+    post.flush({ studyId: STUDY_ID, branchId: BRANCH_ID, title: 'Wing root, second look (invented)', cellCount: 1, outputsKept: 0, outputsLeft: 0 });
+    await vi.waitFor(() => expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID]));
+  });
+
+  it('keeps the dialog open with the server’s words on the title when the title is refused', async () => {
+    const { fixture } = await renderAndChoose('root.json', JSON.stringify(exportDocument()));
+    const box = await dialog(fixture);
+    submit(box, fixture);
+    const post = await vi.waitFor(() => http.expectOne({ method: 'POST', url: `/api/projects/${PROJECT_ID}/studies/import` }));
+    post.flush(problem(400, 'Invalid input', { errors: [{ field: 'title', message: 'title must be at most 200 characters' }] }), problemResponse(400, 'Bad Request'));
+    await vi.waitFor(() => {
+      fixture.detectChanges();
+      expect(box.querySelector('mat-error')?.textContent).toContain('at most 200 characters');
+    });
+    expect(document.querySelector('lam-study-import-dialog')).not.toBeNull();
+  });
+
+  it('sends nothing when the dialog is cancelled', async () => {
+    const { fixture } = await renderAndChoose('root.json', JSON.stringify(exportDocument()));
+    const box = await dialog(fixture);
+    Array.from(box.querySelectorAll('button')).find((b) => b.textContent?.includes('Cancel'))!.click();
+    await vi.waitFor(() => {
+      fixture.detectChanges();
+      expect(document.querySelector('lam-study-import-dialog')).toBeNull();
+    });
+    http.expectNone(`/api/projects/${PROJECT_ID}/studies/import`);
   });
 
   it('says which file is not an export and sends nothing', async () => {
@@ -87,10 +133,12 @@ describe('StudyList: Import a study', () => {
 
   it('shows the server’s reason when the import is refused', async () => {
     const { fixture, el } = await renderAndChoose('root.json', JSON.stringify(exportDocument([{ cellId: 'c1', kind: 'wingBox', inputs: {} }])));
+    submit(await dialog(fixture), fixture);
     const post = await vi.waitFor(() => http.expectOne({ method: 'POST', url: `/api/projects/${PROJECT_ID}/studies/import` }));
     post.flush(problem(400, 'Invalid study export', { detail: 'cells[0].kind: unknown cell kind "wingBox"' }), problemResponse(400, 'Bad Request'));
-    await fixture.whenStable();
-    fixture.detectChanges();
-    expect(el.querySelector('[role="alert"]')?.textContent).toContain('“root.json” was not imported: Invalid study export');
+    await vi.waitFor(() => {
+      fixture.detectChanges();
+      expect(el.querySelector('[role="alert"]')?.textContent).toContain('“root.json” was not imported: Invalid study export');
+    });
   });
 });

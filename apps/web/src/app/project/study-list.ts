@@ -11,11 +11,11 @@ import { Router, RouterLink } from '@angular/router';
 import type { Study } from '@laminote/contracts';
 import { type Observable, forkJoin, map } from 'rxjs';
 import { Notifier } from '../core/notifier';
-import { problemMessage, toProblem } from '../core/problem';
 import { loader } from '../shared/load-state';
 import { ProblemBanner } from '../shared/problem-banner';
 import { StudyApi } from '../shared/study-api';
 import { StudyDialog, type StudyDialogData } from './study-dialog';
+import { StudyImportDialog, type StudyImportDialogData, type StudyImportOutcome } from './study-import-dialog';
 import { STUDY_IMPORT_MAX_BYTES, readStudyFile } from './study-import';
 
 /** A project's studies; engineers and leads create, import, rename, archive and restore them. */
@@ -80,7 +80,7 @@ export class StudyList {
 
   /**
    * "Import a study": reads the chosen study export in the browser (so a file that is not one is named
-   * at once), makes it a new study here and opens it.
+   * at once), asks for the new study's title (the export's to begin with), makes it here and opens it.
    */
   protected async importChosen(event: Event): Promise<void> {
     const field = event.target as HTMLInputElement;
@@ -105,18 +105,21 @@ export class StudyList {
       return;
     }
     this.importing.set(true);
-    this.api.importStudy(this.projectId(), { document: reading.document }).subscribe({
-      next: (made) => {
+    this.dialog
+      .open<StudyImportDialog, StudyImportDialogData, StudyImportOutcome>(StudyImportDialog, { data: { projectId: this.projectId(), fileName: file.name, document: reading.document }, width: '34rem' })
+      .afterClosed()
+      .subscribe((outcome) => {
         this.importing.set(false);
+        if (!outcome) return;
+        if ('problem' in outcome) {
+          this.importProblem.set(`“${file.name}” was not imported: ${outcome.problem}`);
+          return;
+        }
+        const made = outcome.made;
         const rerun = made.outputsLeft > 0 ? `; ${made.outputsLeft} to run again here` : '';
         this.notifier.done(`Study “${made.title}” imported: ${made.cellCount} cells, ${made.outputsKept} results kept${rerun}`);
         void this.router.navigate(['/studies', made.studyId]);
-      },
-      error: (error: unknown) => {
-        this.importing.set(false);
-        this.importProblem.set(`“${file.name}” was not imported: ${problemMessage(toProblem(error))}`);
-      },
-    });
+      });
   }
 
   protected rename(study: Study): void {
