@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CELL_KINDS, TRANSITION_CRITERIA, type CellKind, CELL_KIND_REGISTRY } from './cell-kinds';
 import { engineResultSchema, type EngineResult } from './engine';
+import { PRESSURE_TEXT_LIMIT, SWEEP_RANGES } from './limits';
 import { SECTION_LIMITS, sectionGeometrySchema, sectionInviscidSchema } from './section';
 
 /**
@@ -38,9 +39,7 @@ export const flowInputsSchema = z.object({
 });
 export type FlowInputs = z.infer<typeof flowInputsSchema>;
 
-/** Largest pasted or uploaded table a pressure cell holds (characters), and largest uploaded file (bytes). */
-export const PRESSURE_TEXT_LIMIT = 5_000_000;
-export const UPLOAD_LIMIT_BYTES = 5 * 1024 * 1024;
+export { PRESSURE_TEXT_LIMIT, UPLOAD_LIMIT_BYTES, SWEEP_RANGES } from './limits';
 
 /**
  * Pressure distribution: a pasted or uploaded table, one closed loop or one surface. A closed loop runs
@@ -131,13 +130,6 @@ export const sweepInputsSchema = z.object({
   }
 });
 
-/** What a sweep may vary over (the engine's own limits). */
-export const SWEEP_RANGES: Record<SweepInputs['parameter'], { min: number; max: number; note: string }> = {
-  reynolds: { min: 1e4, max: 1e10, note: '' },
-  mach: { min: 0, max: 0.95, note: ' (subsonic free stream)' },
-  nCrit: { min: 1, max: 20, note: '' },
-  sweepDeg: { min: 0, max: 70, note: '°' },
-};
 export type SweepInputs = z.infer<typeof sweepInputsSchema>;
 
 /** Comparison: two to four pressure cells or analyses of the study, overlaid. */

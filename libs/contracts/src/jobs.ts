@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { JOB_STATES } from './limits';
 import { cellRunReportSchema } from './notebook';
 
 /**
@@ -7,12 +8,8 @@ import { cellRunReportSchema } from './notebook';
  * same as server-sent events while the study is open.
  */
 
-export const JOB_STATES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
+export { JOB_STATES, jobIsActive, type JobState } from './limits';
 export const jobStateSchema = z.enum(JOB_STATES);
-export type JobState = z.infer<typeof jobStateSchema>;
-
-/** Whether a job in this state may still change. */
-export const jobIsActive = (state: JobState): boolean => state === 'queued' || state === 'running';
 
 /** How far one cell of a job is: one unit for most cells, one per case for a sweep. */
 export const jobCellSchema = z.object({

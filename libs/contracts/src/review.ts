@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { COMMENT_MAX_LENGTH } from './limits';
 import { safeText } from './text';
 
 /**
@@ -23,7 +24,7 @@ export const plotAnchorSchema = z.object({
 });
 export type PlotAnchor = z.infer<typeof plotAnchorSchema>;
 
-export const COMMENT_MAX_LENGTH = 20_000;
+export { COMMENT_MAX_LENGTH } from './limits';
 export const commentBodySchema = safeText('body')
   .trim()
   .min(1, 'body must not be empty')

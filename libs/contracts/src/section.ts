@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { SECTION_LIMITS } from './limits';
 
 /**
  * Sections and bodies of revolution given by their shape (issue 14): the inviscid solution the engine
@@ -6,8 +7,7 @@ import { z } from 'zod';
  * `section` or `body` instead of `surfaces` or `pressureTable` (engine.ts).
  */
 
-/** Largest pasted coordinate text (characters) and the panel counts offered. */
-export const SECTION_LIMITS = { maxCoordinateCharacters: 400_000, minPanels: 40, maxPanels: 400, maxPolarPoints: 61 } as const;
+export { SECTION_LIMITS } from './limits';
 
 const finite = (label: string) => z.number({ error: `${label} must be a number` }).refine(Number.isFinite, { error: `${label} must be a finite number` });
 
