@@ -1,12 +1,16 @@
 import type { Routes } from '@angular/router';
 import { landingWhenSignedOut, requireSignIn } from './core/guards';
 import { Landing } from './landing/landing';
-import { ProjectList } from './projects/project-list';
 import { NotFound } from './shared/not-found';
 
 export const routes: Routes = [
   { path: '', pathMatch: 'full', component: Landing, canActivate: [landingWhenSignedOut], title: 'Laminote' },
-  { path: 'projects', component: ProjectList, canActivate: [requireSignIn], title: 'Projects · Laminote' },
+  {
+    path: 'projects',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./projects/project-list').then((m) => m.ProjectList),
+    title: 'Projects · Laminote',
+  },
   {
     path: 'projects/:projectId',
     canActivate: [requireSignIn],

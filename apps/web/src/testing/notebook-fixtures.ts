@@ -1,6 +1,5 @@
-import type { CellKind, CellOutput, Draft, DraftCell } from '@laminote/contracts';
+import { newCellInputs, type CellKind, type CellOutput, type Draft, type DraftCell } from '@laminote/contracts';
 import { STUDY_ID } from './test-app';
-import { defaultInputs } from '../app/shared/cell-kinds';
 
 // Invented ids of the demo scenario's notebook (Tamsk Aerodynamics, Larkspur T-62).
 export const BRANCH_ID = '4b7d2e91-8c3a-4f5e-9a1b-2c3d4e5f6a70';
@@ -15,7 +14,8 @@ export function cell(kind: CellKind, cellId: string, overrides: Partial<DraftCel
     kind,
     title: overrides.title ?? kind,
     collapsed: false,
-    inputs: defaultInputs(kind),
+    // What a new cell starts with (the app's `defaultInputs`, which waits for the schemas to load).
+    inputs: newCellInputs(kind),
     runState: 'idle',
     problems: [],
     output: null,

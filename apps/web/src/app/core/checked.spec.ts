@@ -24,7 +24,7 @@ describe('checked responses', () => {
 
   it('passes a response that has its contract shape through unchanged', async () => {
     const { http, server } = setUp();
-    const answer = firstValueFrom(http.get('/api/studies/x').pipe(checked(studySchema, 'GET /api/studies/:id')));
+    const answer = firstValueFrom(http.get('/api/studies/x').pipe(checked('study', 'GET /api/studies/:id')));
     const body = { ...study, extra: 'kept' };
     server.expectOne('/api/studies/x').flush(body);
     const parsed = studySchema.safeParse(study);
@@ -35,7 +35,7 @@ describe('checked responses', () => {
 
   it('fails a response that drifted from its contract, naming the field, in tests and development builds', async () => {
     const { http, server } = setUp();
-    const answer = firstValueFrom(http.get('/api/studies/x').pipe(checked(studySchema, 'GET /api/studies/:id')));
+    const answer = firstValueFrom(http.get('/api/studies/x').pipe(checked('study', 'GET /api/studies/:id')));
     server.expectOne('/api/studies/x').flush({ ...study, title: 42 });
     const error = await answer.catch((e: unknown) => e);
     expect(error).toBeInstanceOf(ContractDriftError);

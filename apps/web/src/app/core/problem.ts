@@ -1,6 +1,7 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import type { AbstractControl } from '@angular/forms';
-import { type Problem, readableMessage } from '@laminote/contracts';
+import type { Problem } from '@laminote/contracts';
+import { readableMessage } from '@laminote/contracts/field-words';
 
 function isProblem(body: unknown): body is Problem {
   return (

@@ -1,9 +1,10 @@
-import { ChangeDetectionStrategy, Component, input, output, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, PendingTasks, computed, inject, input, output, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule, MatMenuTrigger } from '@angular/material/menu';
-import type { CellKind } from '@laminote/contracts';
+import type { CellKind } from '@laminote/contracts/cell-kinds';
 import { ADDABLE_KINDS, cellKindInfo } from '../shared/cell-kinds';
+import { loadRuntimeChecks, runtimeChecks } from '../shared/runtime-checks';
 
 /**
  * Adds a cell at one place in the stack: a thin insertion line between cells, or the full button at
@@ -33,7 +34,7 @@ import { ADDABLE_KINDS, cellKindInfo } from '../shared/cell-kinds';
     }
     <mat-menu #kinds="matMenu" class="lam-add-cell-menu">
       @for (kind of kinds_; track kind.kind) {
-        <button mat-menu-item type="button" class="kind-item" (click)="add.emit(kind.kind)">
+        <button mat-menu-item type="button" class="kind-item" [disabled]="!ready()" (click)="add.emit(kind.kind)">
           <mat-icon aria-hidden="true">{{ kind.icon }}</mat-icon>
           <span class="kind-name">{{ kind.label }}</span>
           <span class="kind-hint">{{ kind.hint }}</span>
@@ -51,7 +52,13 @@ export class AddCell {
   readonly add = output<CellKind>();
 
   protected readonly kinds_ = ADDABLE_KINDS.map(cellKindInfo);
+  /** A new cell takes its defaults from its kind's schema, loaded apart from the first screen. */
+  protected readonly ready = computed(() => runtimeChecks() !== null);
   private readonly trigger = viewChild.required(MatMenuTrigger);
+
+  constructor() {
+    inject(PendingTasks).run(() => loadRuntimeChecks());
+  }
 
   /** Opens the list of kinds (the Alt+Enter shortcut). */
   open(): void {

@@ -1,5 +1,6 @@
 import { DestroyRef, Injectable, computed, inject, signal } from '@angular/core';
-import { jobIsActive, type Job, type JobEvent } from '@laminote/contracts';
+import type { Job, JobEvent } from '@laminote/contracts';
+import { jobIsActive } from '@laminote/contracts/limits';
 import { Subject, type Subscription, firstValueFrom } from 'rxjs';
 import { JobsApi } from '../shared/jobs-api';
 

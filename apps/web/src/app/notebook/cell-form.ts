@@ -1,8 +1,10 @@
-import { DestroyRef, type Signal, computed, effect, inject, untracked } from '@angular/core';
+import { DestroyRef, PendingTasks, type Signal, computed, effect, inject, untracked } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import type { FormGroup } from '@angular/forms';
-import { CELL_INPUT_SCHEMAS, sameJson, type DraftCell } from '@laminote/contracts';
+import type { DraftCell } from '@laminote/contracts';
+import { sameJson } from '@laminote/contracts/values';
 import { DraftSession } from '../shared/draft-session';
+import { type RuntimeChecks, loadRuntimeChecks, runtimeChecks } from '../shared/runtime-checks';
 
 const PLAIN_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -42,11 +44,14 @@ export function fieldMessage(field: string, message: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
-/** The problems of a cell's inputs as they stand: the kind's schema here, and what the server reported. */
-export function cellProblems(cell: DraftCell): Map<string, string> {
+/**
+ * The problems of a cell's inputs as they stand: the kind's schema here (once the schemas are loaded,
+ * `runtime-checks.ts`), and what the server reported.
+ */
+export function cellProblems(cell: DraftCell, checks: RuntimeChecks | null): Map<string, string> {
   const problems = new Map<string, string>();
-  const parsed = CELL_INPUT_SCHEMAS[cell.kind].safeParse(cell.inputs);
-  if (!parsed.success) {
+  const parsed = checks?.CELL_INPUT_SCHEMAS[cell.kind].safeParse(cell.inputs);
+  if (parsed && !parsed.success) {
     for (const issue of parsed.error.issues) {
       const field = issue.path.map(String).join('.') || 'inputs';
       if (!problems.has(field)) problems.set(field, fieldMessage(String(issue.path[0] ?? ''), issue.message));
@@ -67,16 +72,21 @@ export interface CellFormOptions<V> {
   readonly fromForm: (value: V, previous: Record<string, unknown>) => Record<string, unknown>;
   /** Which control shows the problem of an input field (default: the control of the same name). */
   readonly controlOf?: (field: string) => string | null;
+  /** Whether the cell's own checks of what is typed (beyond the schema) have loaded; the form waits for them. */
+  readonly ready?: Signal<boolean>;
 }
 
 /**
  * Ties a cell's form to the draft: typing updates the cell's inputs (and so the autosave), a change that
  * comes from elsewhere (the other side of a conflict) updates the form, problems land on their fields,
- * and the form is read-only for people who may not edit. Call in an injection context.
+ * and the form is read-only for people who may not edit, and for everyone until the schemas that check
+ * it have loaded (so nothing typed looks valid before it has been checked). Call in an injection context.
  */
 export function bindCellForm<V>(options: CellFormOptions<V>): { readonly problems: Signal<Map<string, string>> } {
   const session = inject(DraftSession);
   const { form, cell, toForm, fromForm } = options;
+  // Unit tests and server-side stability wait for the schemas like any other pending work.
+  inject(PendingTasks).run(() => loadRuntimeChecks());
   let shown: Record<string, unknown> | null = null;
 
   effect(() => {
@@ -94,11 +104,11 @@ export function bindCellForm<V>(options: CellFormOptions<V>): { readonly problem
   });
 
   effect(() => {
-    if (session.editable()) form.enable({ emitEvent: false });
+    if (session.editable() && runtimeChecks() && (options.ready?.() ?? true)) form.enable({ emitEvent: false });
     else form.disable({ emitEvent: false });
   });
 
-  const problems = computed(() => cellProblems(cell()));
+  const problems = computed(() => cellProblems(cell(), runtimeChecks()));
   effect(() => {
     const byControl = new Map<string, string>();
     for (const [field, message] of problems()) {

@@ -8,7 +8,11 @@ import { CellFrameHarness } from './testing/cell-frame-harness';
 import { FLOW_ID, cell, output } from '../../testing/notebook-fixtures';
 
 describe('CellFrame', () => {
-  beforeEach(() => TestBed.configureTestingModule({ providers: provideTestApp() }));
+  beforeEach(async () => {
+    // The comments are a deferred block (loaded apart from the first screen): its components resolve here.
+    TestBed.configureTestingModule({ imports: [CellFrame], providers: provideTestApp() });
+    await TestBed.compileComponents();
+  });
 
   async function render(frameCell: DraftCell, options: { index?: number; count?: number; editable?: boolean; mayRun?: boolean } = {}) {
     const fixture = TestBed.createComponent(CellFrame);

@@ -1,12 +1,16 @@
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, PendingTasks, computed, inject, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
-import { resultMethods } from '@laminote/aero';
 import type { CellOutput } from '@laminote/contracts';
+import { lazyModule } from '../shared/lazy-module';
+
+/** The methods catalogue (every method's formula and sources), fetched once, after the first screen. */
+const catalogue = lazyModule(() => import('@laminote/aero/methods/result-methods'));
 
 /**
  * The "Methods" line under a cell's result: one link per method its numbers come from, to the page with
  * the formula, symbols, validity, sources and limits — so every number on the screen can be traced.
- * The same list the report prints per cell (`resultMethods` in libs/aero).
+ * The same list the report prints per cell (`resultMethods` in libs/aero). The catalogue loads apart
+ * from the first screen, so the line appears a moment after the result.
  */
 @Component({
   selector: 'lam-method-links',
@@ -47,6 +51,11 @@ export class MethodLinks {
 
   protected readonly methods = computed(() => {
     const output = this.output();
-    return output && output.status === 'ok' ? resultMethods(this.kind(), output.result) : [];
+    const methods = catalogue.module();
+    return methods && output && output.status === 'ok' ? methods.resultMethods(this.kind(), output.result) : [];
   });
+
+  constructor() {
+    if (!catalogue.module()) inject(PendingTasks).run(catalogue.load);
+  }
 }

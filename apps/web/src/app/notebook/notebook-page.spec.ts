@@ -44,14 +44,17 @@ const settle = (ms = 20) => new Promise((resolve) => setTimeout(resolve, ms));
 describe('NotebookPage', () => {
   let http: HttpTestingController;
 
-  beforeEach(() => {
+  beforeEach(async () => {
     TestBed.configureTestingModule({
+      imports: [NotebookPage],
       providers: [
         ...provideTestApp(),
         { provide: AUTOSAVE_DELAY_MS, useValue: 5 },
         { provide: PLOT_RENDERER, useValue: () => new Promise<never>(() => undefined) },
       ],
     });
+    // The cell bodies are deferred blocks (loaded apart from the page): their components resolve here.
+    await TestBed.compileComponents();
     http = TestBed.inject(HttpTestingController);
   });
 

@@ -1,7 +1,8 @@
 import { type Signal, computed, effect, inject, signal, untracked } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { ActivatedRoute } from '@angular/router';
-import { type Member, type ProjectAccess, type Thread, can } from '@laminote/contracts';
+import type { Member, ProjectAccess, Thread } from '@laminote/contracts';
+import { can } from '@laminote/contracts/access';
 import { catchError, of, switchMap } from 'rxjs';
 import { Auth } from '../core/auth';
 import { DraftSession } from '../shared/draft-session';

@@ -1,16 +1,6 @@
-import { ChangeDetectionStrategy, Component, ViewEncapsulation, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, PendingTasks, ViewEncapsulation, computed, inject, input } from '@angular/core';
 import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
-import DOMPurify from 'dompurify';
-import { marked } from 'marked';
-
-/**
- * A comment's Markdown as HTML with no script, handler, frame, form or image (DOMPurify after marked).
- * Single line breaks are kept, as people write comments; the stored text stays exactly as typed.
- */
-export function renderComment(markdown: string): string {
-  const html = marked.parse(markdown, { async: false, gfm: true, breaks: true });
-  return DOMPurify.sanitize(html, { USE_PROFILES: { html: true }, FORBID_TAGS: ['style', 'form', 'input', 'button', 'img', 'iframe'] });
-}
+import { lazyModule } from '../shared/lazy-module';
 
 /**
  * Marks `@Name` of the given people in rendered, already sanitised HTML, in text only (never inside a
@@ -50,10 +40,13 @@ export function markMentions(html: string, names: readonly string[]): string {
   return template.innerHTML;
 }
 
+/** The comment renderer (marked and DOMPurify), fetched once, apart from the first screen. */
+const renderer = lazyModule(() => import('./comment-markdown'));
+
 /** A comment's text, rendered, with the mentioned people marked. */
 @Component({
   selector: 'lam-comment-body',
-  template: `<div class="markdown" [innerHTML]="html()"></div>`,
+  template: `<div class="markdown" [innerHTML]="html()" [attr.aria-busy]="html() === null"></div>`,
   // The rendered HTML comes in through innerHTML, which emulated encapsulation does not reach.
   encapsulation: ViewEncapsulation.None,
   styles: `
@@ -76,5 +69,12 @@ export class CommentBody {
   /** Names of the people who can be mentioned (the project's members). */
   readonly people = input<readonly string[]>([]);
   // DOMPurify has already removed everything unsafe; Angular's own pass would only strip more.
-  protected readonly html = computed((): SafeHtml => this.sanitizer.bypassSecurityTrustHtml(markMentions(renderComment(this.text()), this.people())));
+  protected readonly html = computed((): SafeHtml | null => {
+    const render = renderer.module();
+    return render ? this.sanitizer.bypassSecurityTrustHtml(markMentions(render.renderComment(this.text()), this.people())) : null;
+  });
+
+  constructor() {
+    if (!renderer.module()) inject(PendingTasks).run(renderer.load);
+  }
 }

@@ -3,7 +3,8 @@ import { ChangeDetectionStrategy, Component, ElementRef, computed, input, linked
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { COMMENT_MAX_LENGTH, type Member } from '@laminote/contracts';
+import type { Member } from '@laminote/contracts';
+import { COMMENT_MAX_LENGTH } from '@laminote/contracts/limits';
 
 let nextId = 0;
 

@@ -1,4 +1,4 @@
-import { michelTransitionReTheta } from '@laminote/aero';
+import { michelTransitionReTheta } from '@laminote/aero/michel';
 import { TRANSITION_CAUSE_LABELS, type TransitionCriterion } from '@laminote/contracts/cell-kinds';
 import type { CriterionMissingReason, EngineResult, EngineSurfaceResult } from '@laminote/contracts';
 import { PLOT_COLOURS, type PlotFigure, type PlotMarker, type PlotTrace } from './plot';

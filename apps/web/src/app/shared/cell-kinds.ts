@@ -1,4 +1,6 @@
-import { CELL_KIND_REGISTRY, newCellInputs, type CellKind, type RunState } from '@laminote/contracts';
+import type { RunState } from '@laminote/contracts';
+import { CELL_KIND_REGISTRY, type CellKind } from '@laminote/contracts/cell-kinds';
+import { runtimeChecks } from './runtime-checks';
 
 /** How each kind of cell shows itself in the stack (from the cell-kind registry in libs/contracts). */
 export interface CellKindInfo {
@@ -12,16 +14,22 @@ export interface CellKindInfo {
   readonly runs: boolean;
 }
 
-export { ADDABLE_KINDS } from '@laminote/contracts';
+export { ADDABLE_KINDS } from '@laminote/contracts/cell-kinds';
 
 export function cellKindInfo(kind: CellKind): CellKindInfo {
   const { label, icon, hint, runs } = CELL_KIND_REGISTRY[kind];
   return { kind, label, icon, hint, runs };
 }
 
-/** Inputs of a new cell: every field filled, so nothing falls back to a default the user never saw. */
+/**
+ * Inputs of a new cell: every field filled, so nothing falls back to a default the user never saw. The
+ * defaults come from the kind's schema, so the notebook offers to add a cell only once the schemas have
+ * loaded (`loadRuntimeChecks`).
+ */
 export function defaultInputs(kind: CellKind): Record<string, unknown> {
-  return newCellInputs(kind);
+  const checks = runtimeChecks();
+  if (!checks) throw new Error(`A ${CELL_KIND_REGISTRY[kind].label} cell cannot be added before the cell schemas have loaded`);
+  return checks.newCellInputs(kind);
 }
 
 /** Laminote's words for a cell's run state, with the symbol shown beside them. */

@@ -1,4 +1,6 @@
-import { sameJson, type CellKind, type DraftCellInput } from '@laminote/contracts';
+import type { DraftCellInput } from '@laminote/contracts';
+import { sameJson } from '@laminote/contracts/values';
+import type { CellKind } from '@laminote/contracts/cell-kinds';
 
 /** The parts of a cell that a save carries. */
 export interface SavedCell {

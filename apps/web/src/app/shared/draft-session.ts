@@ -1,7 +1,9 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { DestroyRef, Injectable, InjectionToken, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { type CellKind, type Draft, type DraftCell, type Job, type Problem, type RunResponse, draftSchema, referenceFields, sameJson, upstreamCellIds } from '@laminote/contracts';
+import type { Draft, DraftCell, Job, Problem, RunResponse } from '@laminote/contracts';
+import { type CellKind, referenceFields, upstreamCellIds } from '@laminote/contracts/cell-kinds';
+import { sameJson } from '@laminote/contracts/values';
 import {
   BehaviorSubject,
   EMPTY,
@@ -12,6 +14,8 @@ import {
   debounceTime,
   defer,
   filter,
+  from,
+  ignoreElements,
   firstValueFrom,
   map,
   merge,
@@ -25,6 +29,7 @@ import { defaultInputs, cellKindInfo } from './cell-kinds';
 import { type CellChange, type SavedCell, diffStacks, toSavedCell } from './draft-diff';
 import { JobsApi } from './jobs-api';
 import { NotebookApi } from './notebook-api';
+import { type RuntimeChecks, loadRuntimeChecks, runtimeChecks } from './runtime-checks';
 
 /** How long editing pauses before the draft is saved. */
 export const AUTOSAVE_DELAY_MS = new InjectionToken<number>('AUTOSAVE_DELAY_MS', { factory: () => 900 });
@@ -68,12 +73,16 @@ function isUnreachable(error: unknown): boolean {
   return error instanceof HttpErrorResponse && (error.status === 0 || error.status === 502 || error.status === 503 || error.status === 504);
 }
 
+function isConflict(error: unknown): boolean {
+  return error instanceof HttpErrorResponse && error.status === 409;
+}
+
 /** The server's draft inside a 409 problem (`current`), when it sent one that reads as a draft. */
-function conflictDraft(error: unknown): Draft | null {
-  if (!(error instanceof HttpErrorResponse) || error.status !== 409) return null;
-  const body: unknown = error.error;
+function conflictDraft(error: unknown, checks: RuntimeChecks | null): Draft | null {
+  if (!checks || !isConflict(error)) return null;
+  const body: unknown = (error as HttpErrorResponse).error;
   if (typeof body !== 'object' || body === null) return null;
-  const parsed = draftSchema.safeParse((body as { current?: unknown }).current);
+  const parsed = checks.draftSchema.safeParse((body as { current?: unknown }).current);
   return parsed.success ? parsed.data : null;
 }
 
@@ -469,13 +478,21 @@ export class DraftSession {
       map(() => undefined),
       catchError((error: unknown) => {
         this.inFlight = false;
-        const theirs = conflictDraft(error);
-        if (theirs) this.openConflict(theirs);
-        else {
-          this.saveProblemSignal.set(toProblem(error));
-          this.setStatus('failed');
+        const settle = (checks: RuntimeChecks | null) => {
+          const theirs = conflictDraft(error, checks);
+          if (theirs) this.openConflict(theirs);
+          else {
+            this.saveProblemSignal.set(toProblem(error));
+            this.setStatus('failed');
+          }
+        };
+        const checks = runtimeChecks();
+        if (checks || !isConflict(error)) {
+          settle(checks);
+          return EMPTY;
         }
-        return EMPTY;
+        // A conflict before the draft's schema has loaded (it loads apart from the first screen).
+        return from(loadRuntimeChecks().catch(() => null)).pipe(tap(settle), ignoreElements());
       }),
     );
   }

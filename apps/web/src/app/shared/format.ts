@@ -1,7 +1,7 @@
-import { powerOfTen } from '@laminote/contracts';
+import { powerOfTen } from '@laminote/contracts/values';
 
 /** A number in engineering notation as the trade writes it: 2.31 × 10⁷; plain when 0.01 ≤ |x| < 10⁵. */
-export { sci } from '@laminote/contracts';
+export { sci } from '@laminote/contracts/values';
 
 /** A number with a fixed count of decimals, or a dash when there is none. */
 export function fixed(value: number | null | undefined, decimals: number): string {

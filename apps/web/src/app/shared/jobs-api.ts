@@ -1,9 +1,11 @@
 import { HttpClient, HttpErrorResponse } from '@angular/common/http';
 import { Injectable, NgZone, inject } from '@angular/core';
-import { jobEventSchema, jobIsActive, jobSchema, type Job, type JobEvent } from '@laminote/contracts';
+import type { Job, JobEvent } from '@laminote/contracts';
+import { jobIsActive } from '@laminote/contracts/limits';
 import { Observable, firstValueFrom } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
+import { type RuntimeChecks, loadRuntimeChecks, runtimeChecks } from './runtime-checks';
 
 /** Runs as jobs: how far one is, cancelling it, and a branch's jobs as they move (server-sent events). */
 @Injectable({ providedIn: 'root' })
@@ -13,11 +15,11 @@ export class JobsApi {
   private readonly zone = inject(NgZone);
 
   job(jobId: string): Observable<Job> {
-    return this.http.get(`${this.base}/jobs/${encodeURIComponent(jobId)}`).pipe(checked(jobSchema, 'GET /jobs/:jobId'));
+    return this.http.get(`${this.base}/jobs/${encodeURIComponent(jobId)}`).pipe(checked('job', 'GET /jobs/:jobId'));
   }
 
   cancel(jobId: string): Observable<Job> {
-    return this.http.delete(`${this.base}/jobs/${encodeURIComponent(jobId)}`).pipe(checked(jobSchema, 'DELETE /jobs/:jobId'));
+    return this.http.delete(`${this.base}/jobs/${encodeURIComponent(jobId)}`).pipe(checked('job', 'DELETE /jobs/:jobId'));
   }
 
   /**
@@ -47,9 +49,22 @@ export class JobsApi {
       // No EventSource (server-side rendering, a unit test's document): nothing to follow.
       if (typeof EventSource === 'undefined') return undefined;
       const source = new EventSource(`${this.base}/branches/${encodeURIComponent(branchId)}/events`, { withCredentials: true });
-      source.onmessage = (message: MessageEvent<string>) => {
-        const parsed = jobEventSchema.safeParse(JSON.parse(message.data));
+      const deliver = (checks: RuntimeChecks, data: unknown) => {
+        const parsed = checks.jobEventSchema.safeParse(data);
         if (parsed.success) this.zone.run(() => subscriber.next(parsed.data));
+      };
+      // Each event is checked with its schema, loaded apart from the first screen: the few that come
+      // before it has loaded wait for it, in order.
+      let ready: Promise<unknown> = loadRuntimeChecks().catch((error: unknown) => subscriber.error(error));
+      source.onmessage = (message: MessageEvent<string>) => {
+        const data: unknown = JSON.parse(message.data);
+        const checks = runtimeChecks();
+        if (checks) deliver(checks, data);
+        else
+          ready = ready.then(() => {
+            const loaded = runtimeChecks();
+            if (loaded) deliver(loaded, data);
+          });
       };
       return () => source.close();
     });

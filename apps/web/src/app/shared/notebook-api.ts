@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { branchSchema, draftSchema, uploadResponseSchema, type Branch, type Draft, type RunQueued, type RunRequest, type RunResponse, type SaveDraft, type UploadResponse } from '@laminote/contracts';
+import type { Branch, Draft, RunQueued, RunRequest, RunResponse, SaveDraft, UploadResponse } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
@@ -18,16 +18,16 @@ export class NotebookApi {
   }
 
   branches(studyId: string): Observable<Branch[]> {
-    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/branches`).pipe(checked(branchSchema.array(), 'the branches of a study'));
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/branches`).pipe(checked('branches', 'the branches of a study'));
   }
 
   draft(branchId: string): Observable<Draft> {
-    return this.http.get(`${this.branch(branchId)}/draft`).pipe(checked(draftSchema, 'a draft'));
+    return this.http.get(`${this.branch(branchId)}/draft`).pipe(checked('draft', 'a draft'));
   }
 
   /** Saves the whole cell stack on top of `baseRevision`; a stale base answers 409 with the server's draft. */
   saveDraft(branchId: string, body: SaveDraft): Observable<Draft> {
-    return this.http.put(`${this.branch(branchId)}/draft`, body).pipe(checked(draftSchema, 'a saved draft'));
+    return this.http.put(`${this.branch(branchId)}/draft`, body).pipe(checked('draft', 'a saved draft'));
   }
 
   /**
@@ -41,7 +41,7 @@ export class NotebookApi {
   upload(studyId: string, file: File): Observable<UploadResponse> {
     const form = new FormData();
     form.append('file', file, file.name);
-    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/uploads`, form).pipe(checked(uploadResponseSchema, 'an upload'));
+    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/uploads`, form).pipe(checked('upload', 'an upload'));
   }
 
   /** Where a cell's result downloads from (a plain GET, so a link can fetch it with the session cookie). */

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { memberSchema, projectSchema, type AddMember, type CreateProject, type Member, type Project, type UpdateMember, type UpdateProject } from '@laminote/contracts';
+import type { AddMember, CreateProject, Member, Project, UpdateMember, UpdateProject } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
@@ -17,32 +17,32 @@ export class ProjectApi {
 
   /** The caller's projects with their role in each (a site admin sees all of them). */
   list(): Observable<Project[]> {
-    return this.http.get(`${this.base}/projects`).pipe(checked(projectSchema.array(), 'the projects'));
+    return this.http.get(`${this.base}/projects`).pipe(checked('projects', 'the projects'));
   }
 
   /** Site admins only. */
   create(body: CreateProject): Observable<Project> {
-    return this.http.post(`${this.base}/projects`, body).pipe(checked(projectSchema, 'a project'));
+    return this.http.post(`${this.base}/projects`, body).pipe(checked('project', 'a project'));
   }
 
   get(projectId: string): Observable<Project> {
-    return this.http.get(this.project(projectId)).pipe(checked(projectSchema, 'a project'));
+    return this.http.get(this.project(projectId)).pipe(checked('project', 'a project'));
   }
 
   update(projectId: string, body: UpdateProject): Observable<Project> {
-    return this.http.patch(this.project(projectId), body).pipe(checked(projectSchema, 'a project'));
+    return this.http.patch(this.project(projectId), body).pipe(checked('project', 'a project'));
   }
 
   members(projectId: string): Observable<Member[]> {
-    return this.http.get(`${this.project(projectId)}/members`).pipe(checked(memberSchema.array(), 'the members'));
+    return this.http.get(`${this.project(projectId)}/members`).pipe(checked('members', 'the members'));
   }
 
   addMember(projectId: string, body: AddMember): Observable<Member> {
-    return this.http.post(`${this.project(projectId)}/members`, body).pipe(checked(memberSchema, 'a member'));
+    return this.http.post(`${this.project(projectId)}/members`, body).pipe(checked('member', 'a member'));
   }
 
   updateMember(projectId: string, userId: string, body: UpdateMember): Observable<Member> {
-    return this.http.patch(`${this.project(projectId)}/members/${encodeURIComponent(userId)}`, body).pipe(checked(memberSchema, 'a member'));
+    return this.http.patch(`${this.project(projectId)}/members/${encodeURIComponent(userId)}`, body).pipe(checked('member', 'a member'));
   }
 
   removeMember(projectId: string, userId: string): Observable<void> {

@@ -1,22 +1,16 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import {
-  branchOverviewSchema,
-  comparisonSchema,
-  restoreResultSchema,
-  studyHistorySchema,
-  versionDetailSchema,
-  versionSummarySchema,
-  type BranchOverview,
-  type Comparison,
-  type CreateBranch,
-  type RestoreDraft,
-  type RestoreResult,
-  type SaveVersion,
-  type StudyHistory,
-  type UpdateBranch,
-  type VersionDetail,
-  type VersionSummary,
+import type {
+  BranchOverview,
+  Comparison,
+  CreateBranch,
+  RestoreDraft,
+  RestoreResult,
+  SaveVersion,
+  StudyHistory,
+  UpdateBranch,
+  VersionDetail,
+  VersionSummary,
 } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
@@ -34,36 +28,36 @@ export class VersionApi {
 
   /** Every branch of the study with its history, and every version, newest first. */
   history(studyId: string): Observable<StudyHistory> {
-    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/versions`).pipe(checked(studyHistorySchema, 'a study history'));
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/versions`).pipe(checked('studyHistory', 'a study history'));
   }
 
   version(versionId: string): Observable<VersionDetail> {
-    return this.http.get(`${this.base}/versions/${encodeURIComponent(versionId)}`).pipe(checked(versionDetailSchema, 'a version'));
+    return this.http.get(`${this.base}/versions/${encodeURIComponent(versionId)}`).pipe(checked('versionDetail', 'a version'));
   }
 
   /** Saves the branch's draft as a version; a head other than `expectedHeadVersionId` answers 409 (`SaveConflict`). */
   save(branchId: string, body: SaveVersion): Observable<VersionSummary> {
-    return this.http.post(`${this.branch(branchId)}/versions`, body).pipe(checked(versionSummarySchema, 'a saved version'));
+    return this.http.post(`${this.branch(branchId)}/versions`, body).pipe(checked('versionSummary', 'a saved version'));
   }
 
   restore(branchId: string, body: RestoreDraft): Observable<RestoreResult> {
-    return this.http.post(`${this.branch(branchId)}/draft/restore`, body).pipe(checked(restoreResultSchema, 'a restore'));
+    return this.http.post(`${this.branch(branchId)}/draft/restore`, body).pipe(checked('restoreResult', 'a restore'));
   }
 
   createBranch(versionId: string, body: CreateBranch): Observable<BranchOverview> {
-    return this.http.post(`${this.base}/versions/${encodeURIComponent(versionId)}/branches`, body).pipe(checked(branchOverviewSchema, 'a branch'));
+    return this.http.post(`${this.base}/versions/${encodeURIComponent(versionId)}/branches`, body).pipe(checked('branchOverview', 'a branch'));
   }
 
   updateBranch(branchId: string, body: UpdateBranch): Observable<BranchOverview> {
-    return this.http.patch(this.branch(branchId), body).pipe(checked(branchOverviewSchema, 'a branch'));
+    return this.http.patch(this.branch(branchId), body).pipe(checked('branchOverview', 'a branch'));
   }
 
   markBaseline(studyId: string, versionId: string | null): Observable<StudyHistory> {
-    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/baseline`, { versionId }).pipe(checked(studyHistorySchema, 'a study history'));
+    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/baseline`, { versionId }).pipe(checked('studyHistory', 'a study history'));
   }
 
   compare(a: string, b: string): Observable<Comparison> {
-    return this.http.get(`${this.base}/compare`, { params: { a, b } }).pipe(checked(comparisonSchema, 'a comparison'));
+    return this.http.get(`${this.base}/compare`, { params: { a, b } }).pipe(checked('comparison', 'a comparison'));
   }
 
   /** Where the report of A against B is (one self-contained HTML file, or a PDF), opened by the browser itself. */

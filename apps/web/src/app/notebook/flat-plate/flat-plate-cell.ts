@@ -4,7 +4,7 @@ import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { flatPlateEstimate } from '@laminote/aero';
+import { flatPlateEstimate } from '@laminote/aero/flat-plate';
 import type { DraftCell, FlatPlateResult } from '@laminote/contracts';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';

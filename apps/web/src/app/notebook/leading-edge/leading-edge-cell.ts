@@ -12,8 +12,8 @@ import {
   attachmentLineReynolds,
   attachmentLineReynoldsFromRadius,
   attachmentLineVerdict,
-  deriveFlowCondition,
-} from '@laminote/aero';
+} from '@laminote/aero/attachment-line';
+import { deriveFlowCondition } from '@laminote/aero/flow-condition';
 import type { AttachmentLineVerdict, DraftCell, LeadingEdgeResult } from '@laminote/contracts';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';

@@ -1,5 +1,5 @@
 import { TextFieldModule } from '@angular/cdk/text-field';
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, PendingTasks, computed, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -8,7 +8,6 @@ import { DomSanitizer, type SafeHtml } from '@angular/platform-browser';
 import type { DraftCell } from '@laminote/contracts';
 import { bindCellForm } from '../cell-form';
 import { DraftSession } from '../../shared/draft-session';
-import { renderMarkdown } from '../../shared/markdown';
 
 interface NoteFormValue {
   markdown: string;
@@ -43,7 +42,7 @@ interface NoteFormValue {
       @if (isEmpty()) {
         <p class="empty">Empty note.</p>
       } @else {
-        <div class="rendered" [innerHTML]="html()"></div>
+        <div class="rendered" [innerHTML]="html()" [attr.aria-busy]="html() === null"></div>
       }
     }
   `,
@@ -93,7 +92,11 @@ export class NoteCell {
   readonly cell = input.required<DraftCell>();
 
   protected readonly form = new FormGroup({ markdown: new FormControl('', { nonNullable: true }) });
+  /** The Markdown renderer (marked and DOMPurify), loaded apart from the first screen. */
+  private readonly renderer = signal<typeof import('../../shared/markdown') | null>(null);
+
   constructor() {
+    inject(PendingTasks).run(() => import('../../shared/markdown').then((renderer) => this.renderer.set(renderer)));
     bindCellForm<NoteFormValue>({
       form: this.form,
       cell: this.cell,
@@ -113,5 +116,8 @@ export class NoteCell {
   });
   protected readonly isEmpty = computed(() => this.markdown().trim() === '');
   // DOMPurify has already removed everything unsafe; Angular's own pass would only strip more styling.
-  protected readonly html = computed((): SafeHtml => this.sanitizer.bypassSecurityTrustHtml(renderMarkdown(this.markdown())));
+  protected readonly html = computed((): SafeHtml | null => {
+    const renderer = this.renderer();
+    return renderer ? this.sanitizer.bypassSecurityTrustHtml(renderer.renderMarkdown(this.markdown())) : null;
+  });
 }

@@ -1,6 +1,6 @@
 import { ReadablePipe } from '../../shared/readable';
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ElementRef, PendingTasks, computed, inject, input, signal, viewChild } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -8,15 +8,16 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { binaryTableFault } from '@laminote/aero';
-import { type DraftCell, type PressureResult, UPLOAD_LIMIT_BYTES } from '@laminote/contracts';
+import { binaryTableFault } from '@laminote/aero/pressure-table';
+import type { DraftCell, PressureResult } from '@laminote/contracts';
+import { UPLOAD_LIMIT_BYTES } from '@laminote/contracts/limits';
 import { problemMessage, toProblem } from '../../core/problem';
 import { Plot } from '../../shared/plot';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../../shared/draft-session';
 import { NotebookApi } from '../../shared/notebook-api';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
-import { previewCpTable, resultFigure, resultStagnation, slopeFigure } from './cp-preview';
+import { EMPTY_PREVIEW, resultFigure, resultStagnation, slopeFigure } from './cp-preview';
 
 type Layout = 'closedLoop' | 'surface';
 type Smoothing = 'off' | 'auto' | 'width';
@@ -75,9 +76,14 @@ export class PressureCell {
     smoothingHalfWidth: new FormControl('', { nonNullable: true }),
   });
 
+  /** The engine's table reader for the preview, loaded apart from the first screen (`cp-table-preview.ts`). */
+  private readonly reader = signal<typeof import('./cp-table-preview') | null>(null);
+
   private readonly binding = bindCellForm<PressureFormValue>({
     form: this.form,
     cell: this.cell,
+    // The table is read as it is typed: it stays read-only until the reader is here.
+    ready: computed(() => this.reader() !== null),
     toForm: (inputs) => ({
       text: typeof inputs['text'] === 'string' ? inputs['text'] : '',
       layout: inputs['layout'] === 'surface' ? 'surface' : 'closedLoop',
@@ -116,10 +122,16 @@ export class PressureCell {
   protected readonly fromStoredFile = computed(() => typeof this.inputs()['uploadId'] === 'string');
 
   protected readonly preview = computed(() => {
+    const reader = this.reader();
+    if (!reader) return EMPTY_PREVIEW;
     const inputs = this.inputs();
     const text = typeof inputs['text'] === 'string' ? inputs['text'] : '';
-    return previewCpTable(text, this.layout(), String(inputs['surfaceName'] ?? 'upper'), inputs['hasRadius'] === true);
+    return reader.previewCpTable(text, this.layout(), String(inputs['surfaceName'] ?? 'upper'), inputs['hasRadius'] === true);
   });
+
+  constructor() {
+    inject(PendingTasks).run(() => import('./cp-table-preview').then((reader) => this.reader.set(reader)));
+  }
 
   /** Every problem with a line: the reader's as typed, then the server's from the last save or run. */
   protected readonly lineProblems = computed((): LineProblem[] => {
