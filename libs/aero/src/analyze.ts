@@ -21,7 +21,7 @@ import { hRexTransitionReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
 import { parsePressureTable } from './pressure-table';
 import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
-import { automaticHalfWidth, estimateScatter, leastSquaresSlope } from './smoothing';
+import { leastSquaresSlope, smoothedSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
 import { squireYoungDrag } from './squire-young';
 import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from './swept-wing';
@@ -396,23 +396,24 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   const { reynolds, nCrit, criteria, warnings } = context;
   const n = s.length;
 
-  const smoothing =
-    context.smoothing === 'auto'
-      ? automaticHalfWidth(s, ue)
-      : { halfWidth: context.smoothing === 'off' ? 1 : context.smoothing, scatter: estimateScatter(s, ue) };
-  const dUeds = leastSquaresSlope(s, ue, new Float64Array(n), smoothing.halfWidth);
+  // The station arrays of this surface share one buffer: a typed array of this size is a separate
+  // allocation outside the heap, and at a few hundred stations seven of them cost more than filling them.
+  const stationBuffer = new Float64Array(7 * n);
+  const stationArray = (k: number) => stationBuffer.subarray(k * n, (k + 1) * n);
+  const dUeds = stationArray(0);
+  const smoothing = smoothedSlope(s, ue, context.smoothing === 'off' ? 1 : context.smoothing, dUeds);
   const stagnationStart = ue[0] === 0;
   if (stagnationStart && surface.stagnationGradient !== null) dUeds[0] = surface.stagnationGradient;
   if (stagnationStart && dUeds[0] > 0) gradients.push(dUeds[0]);
   let dRds: Float64Array | null = null;
   if (radius !== null) dRds = leastSquaresSlope(s, radius, new Float64Array(n), RADIUS_SMOOTHING_HALF_WIDTH);
 
-  const theta = new Float64Array(n);
-  const lambda = new Float64Array(n);
+  const theta = stationArray(1);
+  const lambda = stationArray(2);
   // The kinematic shape factor, which the transition correlations take; `physicalShape` is δ*/θ.
-  const shape = new Float64Array(n);
-  const cf = new Float64Array(n);
-  const wallShear = new Float64Array(n);
+  const shape = stationArray(3);
+  const cf = stationArray(4);
+  const wallShear = stationArray(5);
   const laminar = { theta, lambda, shapeFactor: shape, skinFriction: cf, wallShear };
   // Local unit Reynolds number over the free-stream one (ρe μ∞ / ρ∞ μe): 1 in incompressible flow.
   let reynoldsRatio: Float64Array | null = null;
@@ -453,7 +454,7 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   // Every chosen criterion along the laminar solution, marched on to laminar separation or the end of
   // the surface whatever governs.
   const localRe = (i: number) => (reynoldsRatio === null ? reynolds : reynolds * reynoldsRatio[i]);
-  const nFactor = new Float64Array(n);
+  const nFactor = stationArray(6);
   const spanwise = Math.sin(Math.abs(context.sweep));
   const swept = spanwise > 0;
   const reCf = swept ? new Float64Array(n) : null;

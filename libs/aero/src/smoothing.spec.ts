@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { automaticHalfWidth, estimateScatter, fitPolynomial, leastSquaresSlope, leastSquaresValue } from './smoothing';
+import { automaticHalfWidth, estimateScatter, fitPolynomial, leastSquaresSlope, leastSquaresValue, smoothedSlope } from './smoothing';
 
 /** Deterministic pseudo-random numbers (Park–Miller), so the scatter is the same on every run. */
 function random(seed: number) {
@@ -84,5 +84,29 @@ describe('smoothing width from the estimated scatter', () => {
       return Math.sqrt(exact.reduce((a, e, i) => a + (slope[i] - e) ** 2, 0) / s.length);
     };
     expect(rms(auto.halfWidth)).toBeLessThan(0.6 * rms(2));
+  });
+
+  it('gives the analysis the same width, scatter and slope as the separate steps, to the bit', () => {
+    // smoothedSlope reuses the scatter estimate's five-station fits as the half-width-2 slope; the
+    // reference is automaticHalfWidth, estimateScatter and leastSquaresSlope called one by one.
+    const { s, ue: clean } = taps(0, 1);
+    const { ue: scattered } = taps(0.004, 11);
+    const long = Array.from({ length: 2500 }, (_, i) => i / 2499);
+    const cases: [number[], number[]][] = [
+      [s, clean],
+      [s, scattered],
+      [s.slice(0, 7), clean.slice(0, 7)],
+      [s.slice(0, 5), clean.slice(0, 5)],
+      [long, long.map((x) => Math.tanh(40 * x) * (1.2 - 0.3 * x))],
+    ];
+    for (const [x, f] of cases) {
+      for (const width of ['auto', 1, 2, 3] as const) {
+        const slope = new Float64Array(x.length);
+        const got = smoothedSlope(x, f, width, slope);
+        const expected = width === 'auto' ? automaticHalfWidth(x, f) : { halfWidth: width, scatter: estimateScatter(x, f) };
+        expect(got).toEqual(expected);
+        expect(Array.from(slope)).toEqual(Array.from(leastSquaresSlope(x, f, new Float64Array(x.length), expected.halfWidth)));
+      }
+    }
   });
 });

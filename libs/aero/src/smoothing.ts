@@ -29,15 +29,23 @@ export function leastSquaresValue(s: ArrayLike<number>, f: ArrayLike<number>, ou
 }
 
 /** The local fit a + b t + c t² at every station: a into `value`, b into `slope` (either may be null). */
-function localQuadraticFit(s: ArrayLike<number>, f: ArrayLike<number>, halfWidth: number, value: Float64Array | null, slope: Float64Array | null): void {
+function localQuadraticFit(
+  s: ArrayLike<number>,
+  f: ArrayLike<number>,
+  halfWidth: number,
+  value: Float64Array | null,
+  slope: Float64Array | null,
+  from = 0,
+  to = s.length,
+): void {
   const n = s.length;
   const width = Math.min(n, 2 * halfWidth + 1);
   if (width < 3) {
-    if (slope !== null) slope.fill(n === 2 ? (f[1] - f[0]) / (s[1] - s[0]) : 0, 0, n);
-    if (value !== null) for (let i = 0; i < n; i++) value[i] = f[i];
+    if (slope !== null) slope.fill(n === 2 ? (f[1] - f[0]) / (s[1] - s[0]) : 0, from, to);
+    if (value !== null) for (let i = from; i < to; i++) value[i] = f[i];
     return;
   }
-  for (let i = 0; i < n; i++) {
+  for (let i = from; i < to; i++) {
     let lo = i - halfWidth;
     if (lo < 0) lo = 0;
     if (lo > n - width) lo = n - width;
@@ -104,10 +112,20 @@ export function fitPolynomial(t: ArrayLike<number>, f: ArrayLike<number>, degree
  * (in r²) are left out, so that the leading edge's steep rise does not count either (common practice).
  */
 export function estimateScatter(s: ArrayLike<number>, f: ArrayLike<number>): number {
+  return scatterAndSlopes(s, f, null);
+}
+
+/**
+ * `estimateScatter`, and when every window is sampled (up to SCATTER_SAMPLES + 4 stations) the slope of
+ * each window's fit into `slope` at stations 2 to n − 3 (`fitsEveryWindow`): the same sums in the same
+ * order as `leastSquaresSlope` with half-width 2, so the same numbers.
+ */
+function scatterAndSlopes(s: ArrayLike<number>, f: ArrayLike<number>, slope: Float64Array | null): number {
   const n = s.length;
   if (n < 6) return 0;
   // At most SCATTER_SAMPLES windows, evenly spread: plenty for a variance, and bounded cost on long surfaces.
   const stride = Math.max(1, Math.floor((n - 4) / SCATTER_SAMPLES));
+  const slopes = stride === 1 ? slope : null;
   const r2 = new Float64Array(Math.ceil((n - 4) / stride));
   for (let i = 2, k = 0; i < n - 2; i += stride, k++) {
     const scale = 0.5 * (s[i + 2] - s[i - 2]);
@@ -127,6 +145,7 @@ export function estimateScatter(s: ArrayLike<number>, f: ArrayLike<number>): num
     }
     const det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
     const fit = (t0 * (s2 * s4 - s3 * s3) - s1 * (t1 * s4 - s3 * t2) + s2 * (t1 * s3 - s2 * t2)) / det;
+    if (slopes !== null) slopes[i] = (s0 * (t1 * s4 - s3 * t2) - t0 * (s1 * s4 - s3 * s2) + s2 * (s1 * t2 - t1 * s2)) / det / scale;
     // The fit at its own station for f = 1 there and 0 elsewhere (t = 0 at station i).
     const leverage = (s2 * s4 - s3 * s3) / det;
     const r = f[i] - fit;
@@ -147,6 +166,11 @@ export function estimateScatter(s: ArrayLike<number>, f: ArrayLike<number>): num
 
 const SCATTER_SAMPLES = 2000;
 
+/** Whether `scatterAndSlopes` fits every five-station window of n stations (and so writes their slopes). */
+function fitsEveryWindow(n: number): boolean {
+  return n >= 6 && Math.max(1, Math.floor((n - 4) / SCATTER_SAMPLES)) === 1;
+}
+
 /** The slope noise the automatic width aims at, in d(Ue/V∞)/d(s/L) (a few per cent of a roof-top gradient). */
 export const SMOOTHING_SLOPE_NOISE = 0.01;
 export const SMOOTHING_MIN_HALF_WIDTH = 2;
@@ -159,7 +183,10 @@ export const SMOOTHING_MAX_HALF_WIDTH = 20;
  * practice for a symmetric least-squares window). Clean computed data keep h = 2.
  */
 export function automaticHalfWidth(s: ArrayLike<number>, f: ArrayLike<number>): { halfWidth: number; scatter: number } {
-  const scatter = estimateScatter(s, f);
+  return halfWidthForScatter(s, estimateScatter(s, f));
+}
+
+function halfWidthForScatter(s: ArrayLike<number>, scatter: number): { halfWidth: number; scatter: number } {
   const n = s.length;
   if (n < 3 || scatter === 0) return { halfWidth: SMOOTHING_MIN_HALF_WIDTH, scatter };
   const steps = new Float64Array(n - 1);
@@ -168,6 +195,25 @@ export function automaticHalfWidth(s: ArrayLike<number>, f: ArrayLike<number>): 
   let h = SMOOTHING_MIN_HALF_WIDTH;
   while (h < SMOOTHING_MAX_HALF_WIDTH && 2 * h + 1 < n && scatter / (spacing * Math.sqrt((h * (h + 1) * (2 * h + 1)) / 3)) > SMOOTHING_SLOPE_NOISE) h++;
   return { halfWidth: h, scatter };
+}
+
+/**
+ * The smoothing of f(s) the analysis uses and its least-squares slope into `slope`: the automatic
+ * half-width (`automaticHalfWidth`) or the one given, with the estimated scatter either way. Where the
+ * width is 2 the scatter's own five-station fits give the slope (the same numbers as
+ * `leastSquaresSlope`, computed once instead of twice).
+ */
+export function smoothedSlope(s: ArrayLike<number>, f: ArrayLike<number>, halfWidth: number | 'auto', slope: Float64Array): { halfWidth: number; scatter: number } {
+  const scatter = scatterAndSlopes(s, f, slope);
+  const smoothing = halfWidth === 'auto' ? halfWidthForScatter(s, scatter) : { halfWidth, scatter };
+  const n = s.length;
+  if (fitsEveryWindow(n) && smoothing.halfWidth === 2) {
+    localQuadraticFit(s, f, 2, null, slope, 0, 2);
+    localQuadraticFit(s, f, 2, null, slope, n - 2, n);
+  } else {
+    localQuadraticFit(s, f, smoothing.halfWidth, null, slope);
+  }
+  return smoothing;
 }
 
 /** The median of `values` by quickselect (Hoare's FIND, CACM 4 (1961) 321), in linear time; reorders `values`. */
