@@ -97,8 +97,13 @@ export const cellRunReportSchema = z.object({
 });
 export type CellRunReport = z.infer<typeof cellRunReportSchema>;
 
-/** The answer to a run: the draft as it stands after the run (same revision: runs do not change it), and what ran. */
-export const runResponseSchema = draftSchema.extend({ ran: z.array(cellRunReportSchema) });
+/**
+ * The answer to a run computed at once (200): what ran, and the cells whose recorded outputs the run
+ * changed, as the draft now holds them (in draft order); every other cell is as it was. A run is not
+ * an edit: `revision` is the draft's, unchanged by the run. When it is newer than the revision the
+ * client holds, someone saved meanwhile and the client reads the draft.
+ */
+export const runResponseSchema = draftSchema.pick({ branchId: true, studyId: true, revision: true, cells: true }).extend({ ran: z.array(cellRunReportSchema) });
 export type RunResponse = z.infer<typeof runResponseSchema>;
 
 /** POST /api/studies/:studyId/uploads (multipart, field `file`) → the file as stored. */

@@ -10,7 +10,7 @@ import type { JobService } from '../jobs/service';
 import { streamBranchJobs } from '../jobs/stream';
 import { isQuickRun, needsComputing } from '../jobs/work';
 import { exportCell } from '../notebook/export';
-import { draftJson, draftObject, type NotebookService } from '../notebook/service';
+import { draftJson, draftObject, runJson, type NotebookService } from '../notebook/service';
 import { draftDocument, studyDocumentFilename } from '../notebook/study-document';
 import * as versions from '../versions/service';
 
@@ -43,6 +43,15 @@ const exportQuerySchema = z.object({ format: z.enum(['csv', 'json'], { error: 'f
 export function branchesRouter({ db, notebook, jobs, events }: { db: Db; notebook: NotebookService; jobs: JobService; events: JobEvents }): Router {
   const router = Router();
   const sendJson = (res: Response, json: string) => res.type('application/json').send(json);
+  /**
+   * JSON text as the answer of a change, without the ETag Express would hash the whole body for: an
+   * answer to a PUT or POST is never revalidated, and a draft with its outputs runs to 100 kB or more.
+   */
+  const sendJsonOnce = (res: Response, json: string) => {
+    const body = Buffer.from(json);
+    res.type('application/json').setHeader('content-length', body.length);
+    res.end(body);
+  };
 
   router.get('/:branchId/draft', async (req, res) => {
     const ctx = await branchAccess(db, req.user!, req.params.branchId);
@@ -54,20 +63,23 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
     requireAction(ctx.access, 'editStudy');
     requireWritable(ctx);
     const body = parse(saveDraftSchema, req.body);
-    sendJson(res, draftJson(await notebook.saveDraft(ctx, req.user!, body)));
+    sendJsonOnce(res, draftJson(await notebook.saveDraft(ctx, req.user!, body)));
   });
 
   /**
    * Runs the named cells (and what they use), or every cell: 202 with the job when more than a few
-   * quick cells have to be computed (workers take it from the queue), 200 with the draft at once when
-   * every output is stored or the server has just computed the few that were missing.
+   * quick cells have to be computed (workers take it from the queue), 200 at once when every output is
+   * stored or the server has just computed the few that were missing, with what ran and the cells
+   * whose outputs changed (RunResponse).
    */
   router.post('/:branchId/run', async (req, res) => {
     const ctx = await branchAccess(db, req.user!, req.params.branchId);
     requireAction(ctx.access, 'runCells');
     requireWritable(ctx);
     const body = parse(runRequestSchema, req.body ?? {});
-    const work = await jobs.plan(ctx, body.cellIds);
+    // The draft is read once: the plan decides between computing at once and queueing, and is what runs.
+    const planned = await notebook.planRun(ctx, body.cellIds);
+    const work = jobs.work(planned);
     // A few quick cells are computed at once on this server's engine pool and stored by key exactly as
     // a worker stores them, so a small run answers in milliseconds; longer work goes to the queue.
     if (needsComputing(work) && !isQuickRun(work)) {
@@ -75,8 +87,7 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
       res.status(202).location(`/api/jobs/${job.jobId}`).json({ jobId: job.jobId, job });
       return;
     }
-    const { doc, ran } = await notebook.run(ctx, req.user!, body.cellIds);
-    sendJson(res, draftJson(doc, { ran }));
+    sendJsonOnce(res, runJson(await notebook.run(ctx, req.user!, planned)));
   });
 
   /** The branch's jobs as server-sent events; for those who may run its cells. */

@@ -9,8 +9,7 @@ import type { Db } from '../db/client';
 import * as schema from '../db/schema';
 import { drafts, runJobs } from '../db/schema';
 import type { BranchContext } from '../access/branch';
-import type { NotebookService } from '../notebook/service';
-import { planCells, type StoredCell } from '../notebook/plan';
+import type { NotebookService, PlannedRun } from '../notebook/service';
 import { WORK_QUEUE, type WorkMessage } from './queue';
 import { jobView, notifyJob, type RunJobRow } from './store';
 import { planWork, unitsOf, type JobWork } from './work';
@@ -27,15 +26,10 @@ export class JobService {
     private readonly notebook: NotebookService,
   ) {}
 
-  /** What running these cells (or every cell) takes, in run order, each with whether it is stored already. */
-  async plan(ctx: BranchContext, cellIds: string[] | undefined): Promise<JobWork[]> {
-    const [row] = await this.db.select({ cells: drafts.cells }).from(drafts).where(eq(drafts.branchId, ctx.branch.id));
-    const stored = (row?.cells ?? []) as StoredCell[];
-    const plans = planCells(stored);
-    const targets = this.notebook.targets(plans, stored, cellIds);
+  /** What a planned run takes, in run order, each cell with whether its output is stored already. */
+  work({ stored, plans, targets, known }: PlannedRun): JobWork[] {
     // The plans are in run order: every cell after the cells it uses.
     const order = [...plans.keys()].filter((id) => targets.has(id));
-    const known = await this.notebook.outputs.getMany(this.db, order.map((id) => plans.get(id)!.key));
     return planWork(order, plans, new Set(known.keys()), stored.map((c) => c.cellId));
   }
 

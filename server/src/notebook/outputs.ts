@@ -24,6 +24,27 @@ export interface CachedOutput {
 
 type OutputRow = typeof outputs.$inferSelect;
 
+/** An output computed by a run and not stored yet. */
+export interface FreshOutput {
+  fresh: true;
+  key: string;
+  kind: CellKind;
+  computed: ComputedOutput;
+}
+
+/**
+ * Fresh outputs as rows of JSON for `jsonb_to_recordset` (key, kind, status, result, error,
+ * engine_version, duration_ms), each result spliced in as the text the engine made: it is not parsed
+ * or written out again here.
+ */
+export function freshOutputsJson(fresh: readonly FreshOutput[], engineVersion: string): string {
+  const rows = fresh.map(({ key, kind, computed }) => {
+    const head = JSON.stringify({ key, kind, status: computed.status, error: computed.error, engine_version: engineVersion, duration_ms: Math.round(computed.durationMs) });
+    return `${head.slice(0, -1)},"result":${computed.resultJson ?? 'null'}}`;
+  });
+  return `[${rows.join(',')}]`;
+}
+
 function outputJson(meta: Omit<CellOutput, 'result'>, resultJson: string | null): string {
   // The result is spliced in as text: it is already JSON.
   const head = JSON.stringify(meta);
@@ -85,6 +106,13 @@ export class OutputStore {
     return found;
   }
 
+  /** An output this server has just stored (at `computedAt`), kept in the cache with its JSON text. */
+  keep(key: string, engineVersion: string, computed: ComputedOutput, computedAt: string): CachedOutput {
+    const durationMs = Math.round(computed.durationMs);
+    const meta = { key, status: computed.status, error: computed.error, engineVersion, durationMs, computedAt };
+    return this.remember({ key, status: computed.status, error: computed.error, computedAt, durationMs, json: outputJson(meta, computed.resultJson) });
+  }
+
   /** Stores a computed output (once: a concurrent store of the same key keeps the first). */
   async put(tx: Tx, key: string, kind: CellKind, engineVersion: string, computed: ComputedOutput): Promise<CachedOutput> {
     const durationMs = Math.round(computed.durationMs);
@@ -102,7 +130,6 @@ export class OutputStore {
       .onConflictDoNothing()
       .returning({ computedAt: outputs.computedAt });
     if (!row) return (await this.get(tx, key))!;
-    const meta = { key, status: computed.status, error: computed.error, engineVersion, durationMs, computedAt: row.computedAt.toISOString() };
-    return this.remember({ key, status: computed.status, error: computed.error, computedAt: meta.computedAt, durationMs, json: outputJson(meta, computed.resultJson) });
+    return this.keep(key, engineVersion, computed, row.computedAt.toISOString());
   }
 }

@@ -16,13 +16,12 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
 import type { Db, Tx } from '../db/client';
-import { auditEvents, cells as cellsTable, drafts, studies, users } from '../db/schema';
-import { EngineBusyError, type EnginePool } from '../engine/pool';
-import { isDatabaseUnavailable } from '../db/availability';
-import { badRequest, conflict, databaseUnavailable, ProblemError } from '../http/problem';
+import { auditEvents, cells as cellsTable, drafts, outputs, studies, users } from '../db/schema';
+import { EngineBusyError, type ComputedOutput, type EnginePool } from '../engine/pool';
+import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import type { BranchContext } from '../access/branch';
-import { OutputStore, type CachedOutput } from './outputs';
+import { freshOutputsJson, OutputStore, type CachedOutput, type FreshOutput } from './outputs';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 
 /** The places in a run, first to last: the cells of one place run together, after those before it. */
@@ -32,16 +31,48 @@ type DraftRow = typeof drafts.$inferSelect;
 type TrashEntry = DraftRow['trash'][number] & { lastGoodOutputKey?: string | null };
 type SaveDraftBody = z.infer<typeof saveDraftSchema>;
 
+/** A column's name as SQL, for statements written out. */
+const col = (c: { name: string }) => sql.identifier(c.name);
+
+/** A run as planned from one reading of the draft (NotebookService.planRun). */
+export interface PlannedRun {
+  row: DraftRow;
+  stored: StoredCell[];
+  plans: Map<string, CellPlan>;
+  /** The cells to run: the named ones and everything they use. */
+  targets: Set<string>;
+  /** The targets' outputs that are stored already, by key. */
+  known: Map<string, CachedOutput>;
+}
+
 /** A draft ready to answer: cells with their outputs as stored JSON text, serialised on the way out. */
 export interface DraftDoc {
   meta: Omit<Draft, 'cells'>;
   cells: { cell: Omit<DraftCell, 'output' | 'lastGoodOutput'>; output: CachedOutput | null; lastGoodOutput: CachedOutput | null }[];
 }
 
+/** Cells as a JSON array, their outputs spliced in as the stored text without parsing them again. */
+function cellsJson(cells: DraftDoc['cells']): string {
+  return `[${cells.map(({ cell, output, lastGoodOutput }) => `${JSON.stringify(cell).slice(0, -1)},"output":${output?.json ?? 'null'},"lastGoodOutput":${lastGoodOutput?.json ?? 'null'}}`).join(',')}]`;
+}
+
 /** The draft as JSON text, outputs spliced in without parsing them again. */
-export function draftJson(doc: DraftDoc, extra: Record<string, unknown> = {}): string {
-  const cells = doc.cells.map(({ cell, output, lastGoodOutput }) => `${JSON.stringify(cell).slice(0, -1)},"output":${output?.json ?? 'null'},"lastGoodOutput":${lastGoodOutput?.json ?? 'null'}}`);
-  return `{"cells":[${cells.join(',')}],${JSON.stringify({ ...doc.meta, ...extra }).slice(1)}`;
+export function draftJson(doc: DraftDoc): string {
+  return `{"cells":${cellsJson(doc.cells)},${JSON.stringify(doc.meta).slice(1)}`;
+}
+
+/**
+ * What a run computed at once answers (RunResponse): what ran, and only the cells whose recorded
+ * outputs the run changed, as the draft now holds them; every other cell is as the client has it.
+ */
+export interface RunDoc {
+  meta: Pick<Draft, 'branchId' | 'studyId' | 'revision'>;
+  cells: DraftDoc['cells'];
+  ran: CellRunReport[];
+}
+
+export function runJson(doc: RunDoc): string {
+  return `{"cells":${cellsJson(doc.cells)},${JSON.stringify({ ...doc.meta, ran: doc.ran }).slice(1)}`;
 }
 
 /** The draft as an object; with `only`, just that cell (the others are left out). */
@@ -66,6 +97,25 @@ function runStateOf(plan: CellPlan, last: CachedOutput | undefined): RunState {
   return 'outdated';
 }
 
+/** One cell as the client sees it, from its plan and the outputs its keys name. */
+function cellView(cell: StoredCell, plan: CellPlan, found: ReadonlyMap<string, CachedOutput>): DraftDoc['cells'][number] {
+  const last = cell.lastOutputKey ? found.get(cell.lastOutputKey) : undefined;
+  const good = last?.status === 'error' && cell.lastGoodOutputKey ? found.get(cell.lastGoodOutputKey) : undefined;
+  return {
+    cell: {
+      cellId: cell.cellId,
+      kind: cell.kind as CellKind,
+      title: cell.title,
+      collapsed: cell.collapsed,
+      inputs: cell.inputs,
+      runState: runStateOf(plan, last),
+      problems: plan.problems,
+    },
+    output: last ?? null,
+    lastGoodOutput: good ?? null,
+  };
+}
+
 const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: unknown }) => canonicalJson([c.kind, c.title, c.collapsed, c.inputs]);
 
 /**
@@ -75,7 +125,7 @@ const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: 
 export class NotebookService {
   readonly outputs = new OutputStore();
   /** Outputs being computed right now, so two runs of the same key compute once. */
-  private readonly inFlight = new Map<string, Promise<CachedOutput>>();
+  private readonly inFlight = new Map<string, Promise<ComputedOutput>>();
 
   constructor(
     private readonly db: Db,
@@ -132,24 +182,7 @@ export class NotebookService {
         updatedAt: row.updatedAt.toISOString(),
         updatedBy: row.updatedBy ? { id: row.updatedBy, name: names.get(row.updatedBy) ?? '' } : null,
       },
-      cells: stored.map((cell) => {
-        const plan = plans.get(cell.cellId)!;
-        const last = cell.lastOutputKey ? found.get(cell.lastOutputKey) : undefined;
-        const good = last?.status === 'error' && cell.lastGoodOutputKey ? found.get(cell.lastGoodOutputKey) : undefined;
-        return {
-          cell: {
-            cellId: cell.cellId,
-            kind: cell.kind as CellKind,
-            title: cell.title,
-            collapsed: cell.collapsed,
-            inputs: cell.inputs,
-            runState: runStateOf(plan, last),
-            problems: plan.problems,
-          },
-          output: last ?? null,
-          lastGoodOutput: good ?? null,
-        };
-      }),
+      cells: stored.map((cell) => cellView(cell, plans.get(cell.cellId)!, found)),
     };
   }
 
@@ -257,21 +290,30 @@ export class NotebookService {
   }
 
   /**
-   * Runs the named cells with whatever upstream they need (or every cell), in dependency order: flow
-   * and pressure before the analyses that name them, analyses before their sweeps. A cell whose output
-   * key is already stored is not computed again. The draft's cells get their new output keys without
-   * a new revision, so a run never makes the author's next autosave stale.
+   * What running the named cells (or every cell) takes, read once from the draft as it stands: the
+   * cells, their plans, the targets (the named cells and what they use) and which of their outputs are
+   * stored already. The run route decides from it whether to compute at once or queue a job.
    */
-  async run(ctx: BranchContext, actor: SessionUser, cellIds: string[] | undefined): Promise<{ doc: DraftDoc; ran: CellRunReport[] }> {
+  async planRun(ctx: BranchContext, cellIds: string[] | undefined): Promise<PlannedRun> {
     const row = await draftRow(this.db, ctx.branch.id, false);
     const stored = row.cells as StoredCell[];
     const plans = planCells(stored);
     const targets = this.targets(plans, stored, cellIds);
-
-    const reports = new Map<string, CellRunReport>();
-    const outputsByCell = new Map<string, CachedOutput>();
     // Every output the run could reuse, looked up at once.
     const known = await this.outputs.getMany(this.db, [...targets].map((id) => plans.get(id)!.key));
+    return { row, stored, plans, targets, known };
+  }
+
+  /**
+   * Runs a planned run's cells in dependency order: flow and pressure before the analyses that name
+   * them, analyses before their sweeps. A cell whose output key is already stored is not computed
+   * again. The draft's cells get their new output keys without a new revision, so a run never makes
+   * the author's next autosave stale. Answers what ran and the cells whose recorded outputs changed.
+   */
+  async run(ctx: BranchContext, actor: SessionUser, planned: PlannedRun): Promise<RunDoc> {
+    const { row, stored, plans, targets, known } = planned;
+    const reports = new Map<string, CellRunReport>();
+    const outputsByCell = new Map<string, CachedOutput | FreshOutput>();
     for (const rank of RUN_RANKS) {
       const level = stored.filter((c) => targets.has(c.cellId) && RUN_RANK[c.kind as CellKind] === rank);
       await Promise.all(
@@ -291,22 +333,66 @@ export class NotebookService {
       reused: ran.filter((r) => r.reused).length,
       failed: ran.filter((r) => r.status !== 'ok').length,
     };
-    const marks = [...outputsByCell].map(([cellId, out]) => ({ cell_id: cellId, key: out.key, ok: out.status === 'ok' }));
-    const updated = marks.length ? await this.markOutputs(ctx, actor, marks, detail) : null;
-    if (!updated) await audit(this.db, { actorId: actor.id, projectId: ctx.projectId, action: 'cells.run', targetType: 'branch', targetId: ctx.branch.id, detail });
-    return { doc: await this.view(this.db, ctx, updated ?? (await draftRow(this.db, ctx.branch.id, false))), ran };
+    const statusOf = (out: CachedOutput | FreshOutput) => ('fresh' in out ? out.computed.status : out.status);
+    // Only cells whose recorded keys change are marked (and answered): the others are as the client has them.
+    const marked = stored.flatMap((cell) => {
+      const out = outputsByCell.get(cell.cellId);
+      if (!out) return [];
+      const lastGoodOutputKey = statusOf(out) === 'ok' ? out.key : (cell.lastGoodOutputKey ?? null);
+      if (cell.lastOutputKey === out.key && (cell.lastGoodOutputKey ?? null) === lastGoodOutputKey) return [];
+      return [{ ...cell, lastOutputKey: out.key, lastGoodOutputKey }];
+    });
+    const marks = marked.map((c) => ({ cell_id: c.cellId, key: c.lastOutputKey!, ok: statusOf(outputsByCell.get(c.cellId)!) === 'ok' }));
+    const fresh = [...new Map([...outputsByCell.values()].filter((o): o is FreshOutput => 'fresh' in o).map((o) => [o.key, o])).values()];
+    const { revision, storedNow } = await this.storeAndMark(ctx, actor, fresh, marks, detail);
+
+    const found = new Map(known);
+    for (const out of storedNow) found.set(out.key, out);
+    const meta = { branchId: ctx.branch.id, studyId: ctx.study.id, revision: revision ?? row.revision };
+    if (revision === null || revision === row.revision) {
+      // The draft is as it was read, with the new keys: its cells are answered from what is in hand.
+      const missing = marked.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]).filter((k): k is string => !!k && !found.has(k));
+      if (missing.length) for (const [k, o] of await this.outputs.getMany(this.db, missing)) found.set(k, o);
+      return { meta, cells: marked.map((c) => cellView(c, plans.get(c.cellId)!, found)), ran };
+    }
+    // A save landed during the run: answer the marked cells as the draft holds them now.
+    const ids = new Set(marked.map((c) => c.cellId));
+    const now = await this.view(this.db, ctx, await draftRow(this.db, ctx.branch.id, false));
+    return { meta, cells: now.cells.filter((c) => ids.has(c.cell.cellId)), ran };
   }
 
   /**
-   * Records the run's output keys on the draft's cells, in one statement with its audit event: the
-   * cells are merged in the database as they are now, so a save that landed during the run keeps its
-   * edits, and the revision stays (it counts the author's edits; a run is not one, so it never makes
-   * the next autosave stale). A cell deleted meanwhile is simply not marked.
+   * Stores the run's fresh outputs (each once by key: one stored meanwhile by someone else is kept)
+   * and records the output keys on the draft's cells, with the run's audit event, in one statement:
+   * the cells are merged in the database as they are now, so a save that landed during the run keeps
+   * its edits, and the revision stays (it counts the author's edits; a run is not one, so it never
+   * makes the next autosave stale). A cell deleted meanwhile is simply not marked. Answers the draft's
+   * revision (null when nothing was marked) and the fresh outputs as stored.
    */
-  private async markOutputs(ctx: BranchContext, actor: SessionUser, marks: { cell_id: string; key: string; ok: boolean }[], detail: Record<string, unknown>): Promise<DraftRow | null> {
-    const col = (c: { name: string }) => sql.identifier(c.name);
-    const { rows } = await this.db.execute<Record<string, unknown>>(sql`
-      with marked as (
+  private async storeAndMark(
+    ctx: BranchContext,
+    actor: SessionUser,
+    fresh: FreshOutput[],
+    marks: { cell_id: string; key: string; ok: boolean }[],
+    detail: Record<string, unknown>,
+  ): Promise<{ revision: number | null; storedNow: CachedOutput[] }> {
+    const audited = sql`insert into ${auditEvents} (${col(auditEvents.actorId)}, ${col(auditEvents.projectId)}, ${col(auditEvents.action)}, ${col(auditEvents.targetType)}, ${col(auditEvents.targetId)}, ${col(auditEvents.detail)})
+        select ${actor.id}::uuid, ${ctx.projectId}::uuid, 'cells.run', 'branch', ${ctx.branch.id}::text, ${JSON.stringify(detail)}::jsonb`;
+    if (fresh.length === 0 && marks.length === 0) {
+      await this.db.execute(audited);
+      return { revision: null, storedNow: [] };
+    }
+    const parts = [sql`incoming as (
+        select * from jsonb_to_recordset(${freshOutputsJson(fresh, ENGINE_VERSION)}::jsonb)
+          as o(key text, kind text, status text, result jsonb, error jsonb, engine_version text, duration_ms integer)
+      ), stored as (
+        insert into ${outputs} (${col(outputs.key)}, ${col(outputs.kind)}, ${col(outputs.status)}, ${col(outputs.result)}, ${col(outputs.error)}, ${col(outputs.engineVersion)}, ${col(outputs.durationMs)})
+        select key, kind, status, result, error, engine_version, duration_ms from incoming
+        on conflict do nothing
+        returning ${col(outputs.key)} as key, ${col(outputs.computedAt)} as computed_at
+      )`];
+    if (marks.length) {
+      parts.push(sql`marked as (
         update ${drafts} set ${col(drafts.cells)} = (
           select coalesce(jsonb_agg(
             case when m.cell_id is null then e.cell
@@ -316,23 +402,28 @@ export class NotebookService {
           left join jsonb_to_recordset(${JSON.stringify(marks)}::jsonb) as m(cell_id text, key text, ok boolean) on m.cell_id = e.cell ->> 'cellId'
         )
         where ${drafts.branchId} = ${ctx.branch.id}
-        returning *
+        returning ${col(drafts.revision)} as revision
       ), logged as (
-        insert into ${auditEvents} (${col(auditEvents.actorId)}, ${col(auditEvents.projectId)}, ${col(auditEvents.action)}, ${col(auditEvents.targetType)}, ${col(auditEvents.targetId)}, ${col(auditEvents.detail)})
-        select ${actor.id}::uuid, ${ctx.projectId}::uuid, 'cells.run', 'branch', ${ctx.branch.id}::text, ${JSON.stringify(detail)}::jsonb from marked
-      )
-      select * from marked`);
-    const r = rows[0];
-    if (!r) return null;
-    return {
-      branchId: r[drafts.branchId.name] as string,
-      revision: r[drafts.revision.name] as number,
-      cells: r[drafts.cells.name] as DraftRow['cells'],
-      trash: r[drafts.trash.name] as DraftRow['trash'],
-      basedOnVersionId: (r[drafts.basedOnVersionId.name] as string | null) ?? null,
-      updatedBy: (r[drafts.updatedBy.name] as string | null) ?? null,
-      updatedAt: new Date(r[drafts.updatedAt.name] as string | Date),
-    };
+        ${audited} from marked
+      )`);
+    }
+    const { rows } = await this.db.execute<{ revision: number | null; stored: [string, string][] }>(sql`
+      with ${sql.join(parts, sql`, `)}
+      select ${marks.length ? sql`(select revision from marked)` : sql`null::integer`} as revision,
+        coalesce((select jsonb_agg(jsonb_build_array(key, computed_at)) from stored), '[]'::jsonb) as stored`);
+    const revision = rows[0]?.revision ?? null;
+    if (revision === null) await this.db.execute(audited);
+    const computedAt = new Map(rows[0]?.stored ?? []);
+    const storedNow: CachedOutput[] = [];
+    const takenMeanwhile: string[] = [];
+    for (const out of fresh) {
+      const at = computedAt.get(out.key);
+      if (at === undefined) takenMeanwhile.push(out.key);
+      else storedNow.push(this.outputs.keep(out.key, ENGINE_VERSION, out.computed, new Date(at).toISOString()));
+    }
+    // Stored by someone else since the run looked: theirs is the output (the same key computes the same).
+    if (takenMeanwhile.length) storedNow.push(...(await this.outputs.getMany(this.db, takenMeanwhile)).values());
+    return { revision: revision === null ? null : Number(revision), storedNow };
   }
 
   /** The cells to run: the named ones and everything upstream of them, or every cell that computes (run jobs plan with it too). */
@@ -361,24 +452,27 @@ export class NotebookService {
     plans: Map<string, CellPlan>,
     reports: Map<string, CellRunReport>,
     known: Map<string, CachedOutput>,
-  ): Promise<{ report: CellRunReport; output: CachedOutput | null }> {
+  ): Promise<{ report: CellRunReport; output: CachedOutput | FreshOutput | null }> {
     const base = { cellId: plan.cell.cellId, kind: plan.kind };
     const started = performance.now();
     const internal = (message: string, field?: string) => ({
       report: { ...base, status: 'internal' as const, reused: false, key: null, durationMs: performance.now() - started, error: { message, ...(field ? { field } : {}) } },
       output: null,
     });
-    const done = (output: CachedOutput, reused: boolean) => ({
-      report: { ...base, status: output.status, reused, key: output.key, durationMs: performance.now() - started, error: output.error },
+    const reused = (output: CachedOutput) => ({
+      report: { ...base, status: output.status, reused: true, key: output.key, durationMs: performance.now() - started, error: output.error },
       output,
+    });
+    const fresh = (computed: ComputedOutput) => ({
+      report: { ...base, status: computed.status, reused: false, key: plan.key, durationMs: performance.now() - started, error: computed.error },
+      output: { fresh: true as const, key: plan.key!, kind: plan.kind, computed },
     });
     if (plan.key === null) {
       const first = plan.problems[0];
       return { report: { ...base, status: 'invalid', reused: false, key: null, durationMs: 0, error: first ? { message: `${first.field}: ${first.message}`, field: first.field } : null }, output: null };
     }
-    const key = plan.key;
-    const existing = known.get(key);
-    if (existing) return done(existing, true);
+    const existing = known.get(plan.key);
+    if (existing) return reused(existing);
 
     for (const ref of plan.refs) {
       if (reports.get(ref.cellId)?.status === 'internal') return internal(`not run: the cell it uses (${ref.field}) could not be computed`, ref.field);
@@ -388,27 +482,22 @@ export class NotebookService {
     if (failedRef) {
       const up = reports.get(failedRef.cellId)!;
       const error = upstreamFailedError(plans.get(failedRef.cellId)!.kind, failedRef.field, up.error);
-      return done(await this.outputs.put(this.db, key, plan.kind, ENGINE_VERSION, { status: 'error', resultJson: null, error, durationMs: 0 }), false);
+      return fresh({ status: 'error', resultJson: null, error, durationMs: 0 });
     }
     try {
-      return done(await this.compute(key, plan, plans), false);
+      return fresh(await this.compute(plan.key, plan, plans));
     } catch (error) {
       if (error instanceof EngineBusyError) throw new ProblemError(503, 'engine-busy', 'The engine is busy', { detail: 'Too many computations are waiting; try the run again in a moment.' });
-      // The database went away while the output was being stored: the whole run answers 503 (a run
-      // changes no draft, so running again is safe) rather than leaving a cell marked internal.
-      if (isDatabaseUnavailable(error)) throw databaseUnavailable();
       this.logger.error({ err: error, cellId: plan.cell.cellId }, 'engine task failed');
       return internal(`the server could not compute this cell: ${error instanceof Error ? error.message : String(error)}`);
     }
   }
 
-  private compute(key: string, plan: CellPlan, plans: Map<string, CellPlan>): Promise<CachedOutput> {
+  /** Computes a cell on the engine pool; two runs of the same key at once compute it once. */
+  private compute(key: string, plan: CellPlan, plans: Map<string, CellPlan>): Promise<ComputedOutput> {
     const running = this.inFlight.get(key);
     if (running) return running;
-    const promise = this.engine
-      .run(taskOf(plan, plans)!)
-      .then((computed) => this.outputs.put(this.db, key, plan.kind, ENGINE_VERSION, computed))
-      .finally(() => this.inFlight.delete(key));
+    const promise = this.engine.run(taskOf(plan, plans)!).finally(() => this.inFlight.delete(key));
     this.inFlight.set(key, promise);
     return promise;
   }

@@ -370,8 +370,16 @@ export class DraftSession {
         const job = await this.jobs.finished(result.jobId);
         if (job.state === 'failed') throw { type: 'about:blank', title: 'The run failed', status: 500, detail: job.error } satisfies Problem;
         const draft = await firstValueFrom(this.api.draft(branchId));
-        this.applyRun({ ...draft, ran: job.ran ?? [] }, seq);
-      } else this.applyRun(result, seq);
+        this.acceptRunDraft(draft, seq);
+        this.noteRunProblems(job.ran ?? []);
+      } else if (result.revision !== this.revisionSignal()) {
+        // Someone saved while it ran: its changed cells alone would mix two revisions, so read the draft.
+        this.acceptRunDraft(await firstValueFrom(this.api.draft(branchId)), seq);
+        this.noteRunProblems(result.ran);
+      } else {
+        this.acceptRunCells(result.cells);
+        this.noteRunProblems(result.ran);
+      }
     } catch (error) {
       const problem = toProblem(error);
       this.runProblemsSignal.update((problems) => {
@@ -541,11 +549,27 @@ export class DraftSession {
     );
   }
 
-  private applyRun(result: RunResponse, seq: number): void {
-    // A run does not move the revision; the cells' new outputs come with the draft it answers.
+  /** Takes the draft read after a run (a job's, or one that someone's save overtook). */
+  private acceptRunDraft(draft: Draft, seq: number): void {
+    // A run does not move the revision; the cells' new outputs come with the draft.
     const clean = seq === this.editSeq && this.editSeq === this.savedSeq;
-    this.acceptServerDraft(result, { keepLocalCells: !clean });
-    const notRun = result.ran.filter((report) => report.status === 'invalid' || report.status === 'internal');
+    this.acceptServerDraft(draft, { keepLocalCells: !clean });
+  }
+
+  /**
+   * Takes what a run computed at once: the cells whose outputs it changed, on the revision this
+   * session holds (their inputs are the ones saved; the stack and the other cells are as they are).
+   */
+  private acceptRunCells(cells: readonly DraftCell[]): void {
+    if (cells.length === 0) return;
+    const byId = new Map(cells.map((cell) => [cell.cellId, cell]));
+    this.draftSignal.update((draft) => (draft ? { ...draft, cells: draft.cells.map((cell) => byId.get(cell.cellId) ?? cell) } : draft));
+    this.mergeServerCells(cells);
+  }
+
+  /** Cells a run could not compute (invalid inputs, a server fault) show why, each on its own. */
+  private noteRunProblems(ran: RunResponse['ran']): void {
+    const notRun = ran.filter((report) => report.status === 'invalid' || report.status === 'internal');
     if (notRun.length === 0) return;
     this.runProblemsSignal.update((problems) => {
       const next = new Map(problems);
