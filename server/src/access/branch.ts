@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { DEFAULT_PROJECT_SETTINGS, isUuid } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import type { Tx } from '../db/client';
@@ -19,13 +19,7 @@ export interface BranchContext extends ProjectContext {
  */
 export async function branchAccess(tx: Tx, user: SessionUser, branchId: string): Promise<BranchContext> {
   if (!isUuid(branchId)) throw notFound('branch');
-  const [row] = await tx
-    .select({ branch: branches, study: studies, settings: projects.settings, role: memberships.role })
-    .from(branches)
-    .innerJoin(studies, eq(studies.id, branches.studyId))
-    .innerJoin(projects, eq(projects.id, studies.projectId))
-    .leftJoin(memberships, and(eq(memberships.projectId, projects.id), eq(memberships.userId, user.id)))
-    .where(eq(branches.id, branchId));
+  const [row] = await accessQuery(tx).execute({ branchId, userId: user.id });
   if (!row || (!row.role && !user.siteAdmin)) throw notFound('branch');
   return {
     branch: row.branch,
@@ -34,6 +28,28 @@ export async function branchAccess(tx: Tx, user: SessionUser, branchId: string):
     access: { role: row.role, siteAdmin: user.siteAdmin, settings: row.settings ?? DEFAULT_PROJECT_SETTINGS },
   };
 }
+
+/**
+ * The query, built once per database handle and prepared by name on each connection: every notebook
+ * request asks it, and building it anew each time cost the event loop more than PostgreSQL's answer.
+ */
+function accessQuery(tx: Tx) {
+  let query = accessQueries.get(tx);
+  if (!query) accessQueries.set(tx, (query = buildAccessQuery(tx)));
+  return query;
+}
+
+const buildAccessQuery = (tx: Tx) =>
+  tx
+    .select({ branch: branches, study: studies, settings: projects.settings, role: memberships.role })
+    .from(branches)
+    .innerJoin(studies, eq(studies.id, branches.studyId))
+    .innerJoin(projects, eq(projects.id, studies.projectId))
+    .leftJoin(memberships, and(eq(memberships.projectId, projects.id), eq(memberships.userId, sql.placeholder('userId'))))
+    .where(eq(branches.id, sql.placeholder('branchId')))
+    .prepare('branch_access');
+
+const accessQueries = new WeakMap<Tx, ReturnType<typeof buildAccessQuery>>();
 
 /** Archived studies and branches are read-only until restored. */
 export function requireWritable(ctx: BranchContext): void {

@@ -1,4 +1,4 @@
-import { eq, inArray, sql } from 'drizzle-orm';
+import { sql } from 'drizzle-orm';
 import type { CellError, CellKind, CellOutput } from '@laminote/contracts';
 import type { Tx } from '../db/client';
 import { outputs } from '../db/schema';
@@ -57,6 +57,20 @@ function fromRow(row: OutputRow): CachedOutput {
   return { key: row.key, status: row.status, error, computedAt: meta.computedAt, durationMs: row.durationMs, json: outputJson(meta, row.status === 'ok' ? JSON.stringify(row.result ?? null) : null) };
 }
 
+/** Reading outputs by key, built once per database handle and prepared by name (a run reads them every time). */
+function outputsQuery(tx: Tx) {
+  let query = outputsQueries.get(tx);
+  if (!query) outputsQueries.set(tx, (query = buildOutputsQuery(tx)));
+  return query;
+}
+const buildOutputsQuery = (tx: Tx) =>
+  tx
+    .select()
+    .from(outputs)
+    .where(sql`${outputs.key} = any(${sql.placeholder('keys')}::text[])`)
+    .prepare('outputs_by_key');
+const outputsQueries = new WeakMap<Tx, ReturnType<typeof buildOutputsQuery>>();
+
 export class OutputStore {
   private readonly cache = new Map<string, CachedOutput>();
   private bytes = 0;
@@ -100,7 +114,7 @@ export class OutputStore {
       else missing.push(key);
     }
     if (missing.length) {
-      const rows = await tx.select().from(outputs).where(missing.length === 1 ? eq(outputs.key, missing[0]!) : inArray(outputs.key, missing));
+      const rows = await outputsQuery(tx).execute({ keys: missing });
       for (const row of rows) found.set(row.key, this.remember(fromRow(row)));
     }
     return found;

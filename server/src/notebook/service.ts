@@ -84,12 +84,20 @@ export function draftObject(doc: DraftDoc, only?: string): Draft {
 
 /** The branch's draft row, created empty if the branch has none yet (a branch made before drafts existed). */
 async function draftRow(tx: Tx, branchId: string, lock: boolean): Promise<DraftRow> {
-  const query = tx.select().from(drafts).where(eq(drafts.branchId, branchId));
-  const [row] = lock ? await query.for('update') : await query;
+  const [row] = lock ? await tx.select().from(drafts).where(eq(drafts.branchId, branchId)).for('update') : await draftQuery(tx).execute({ branchId });
   if (row) return row;
   await tx.insert(drafts).values({ branchId }).onConflictDoNothing();
   return draftRow(tx, branchId, lock);
 }
+
+/** Reading a draft, built once per database handle and prepared by name: every notebook answer reads one. */
+function draftQuery(tx: Tx) {
+  let query = draftQueries.get(tx);
+  if (!query) draftQueries.set(tx, (query = buildDraftQuery(tx)));
+  return query;
+}
+const buildDraftQuery = (tx: Tx) => tx.select().from(drafts).where(eq(drafts.branchId, sql.placeholder('branchId'))).prepare('draft_row');
+const draftQueries = new WeakMap<Tx, ReturnType<typeof buildDraftQuery>>();
 
 function runStateOf(plan: CellPlan, last: CachedOutput | undefined): RunState {
   if (!last) return 'idle';
