@@ -11,7 +11,9 @@
  * server's main-thread CPU per run.
  */
 import { randomUUID } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import inspector from 'node:inspector';
+import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
@@ -96,6 +98,54 @@ function stats(samples: number[]) {
   return { n: sorted.length, median: percentile(sorted, 50), p95: percentile(sorted, 95), max: sorted[sorted.length - 1]! };
 }
 
+/**
+ * A CPU profile of this thread over several stretches: the inspector's profiler records throughout,
+ * and the samples outside the stretches (between pause and resume) are left out when it is written.
+ */
+class RunProfiler {
+  private readonly session = new inspector.Session();
+  private readonly stretches: [number, number][] = [];
+  private started: Promise<void>;
+
+  constructor() {
+    this.session.connect();
+    this.started = this.post('Profiler.enable').then(() => this.post('Profiler.setSamplingInterval', { interval: 200 }));
+  }
+
+  private post<T = unknown>(method: string, params: object = {}): Promise<T> {
+    return new Promise((resolve, reject) => this.session.post(method, params, (err, result) => (err ? reject(err) : resolve(result as T))));
+  }
+
+  async resume(): Promise<void> {
+    await this.started;
+    if (this.stretches.length === 0) await this.post('Profiler.start');
+    this.stretches.push([inspectorNowMicros(), Infinity]);
+  }
+
+  async pause(): Promise<void> {
+    this.stretches.at(-1)![1] = inspectorNowMicros();
+  }
+
+  async write(dir: string): Promise<string> {
+    const { profile } = await this.post<{ profile: { startTime: number; samples: number[]; timeDeltas: number[]; nodes: { id: number; callFrame: { functionName: string } }[] } }>('Profiler.stop');
+    // Samples outside the stretches are given to the profiler's own "(idle)" node, so they count as idle.
+    const idle = profile.nodes.find((n) => n.callFrame.functionName === '(idle)')?.id;
+    let t = profile.startTime;
+    profile.samples = profile.samples.map((id, i) => {
+      t += profile.timeDeltas[i]!;
+      return idle === undefined || this.stretches.some(([a, b]) => t >= a && t <= b) ? id : idle;
+    });
+    this.session.disconnect();
+    mkdirSync(dir, { recursive: true });
+    const file = path.join(dir, 'runs.cpuprofile');
+    writeFileSync(file, JSON.stringify(profile));
+    return file;
+  }
+}
+
+/** The clock the inspector's profiles are timed on (microseconds, monotonic). */
+const inspectorNowMicros = () => Number(process.hrtime.bigint() / 1000n);
+
 const fmt = (ms: number) => `${ms.toFixed(1).padStart(6)} ms`;
 
 interface Client {
@@ -167,6 +217,25 @@ class BranchEvents {
 
 let counter = 0;
 
+/**
+ * With BENCH_CPU_PROFILE=folder, the server's thread records a CPU profile of the 20-client runs only
+ * (not the saves between them), written there as runs.cpuprofile for Chrome's or VS Code's profiler.
+ */
+const PROFILE_DIR = process.env['BENCH_CPU_PROFILE'] ?? '';
+
+/** A message to the server's thread, answered once it has done what it says. */
+function askServer(what: 'profile-resume' | 'profile-pause'): Promise<void> {
+  return new Promise((resolve) => {
+    const done = (m: { done?: string }) => {
+      if (m.done !== what) return;
+      parentPort!.off('message', done);
+      resolve();
+    };
+    parentPort!.on('message', done);
+    parentPort!.postMessage({ ask: what });
+  });
+}
+
 async function setUpClient(session: Session, projectId: string, table: string, index: number): Promise<Client> {
   const study = await session.json<{ id: string }>(`/api/projects/${projectId}/studies`, 'POST', { title: `Bench study ${index}` });
   const [branch] = await session.json<{ id: string }[]>(`/api/studies/${study.id}/branches`);
@@ -235,7 +304,7 @@ async function run(client: Client): Promise<{ ms: number; engine: number }> {
  * `rounds` rounds with every client: all save new inputs (timed apart), then all run at once, so the
  * runs measured are `clients` concurrent run round trips, each of which must compute.
  */
-async function measure(clients: Client[], rounds: number) {
+async function measure(clients: Client[], rounds: number, profile = false) {
   const runs: number[] = [];
   const saves: number[] = [];
   const engine: number[] = [];
@@ -244,6 +313,7 @@ async function measure(clients: Client[], rounds: number) {
   for (let i = 0; i < rounds; i++) {
     const c0 = mainThreadCpuMs() ?? 0;
     saves.push(...(await Promise.all(clients.map(saveNewInputs))));
+    if (profile) await askServer('profile-resume');
     const c1 = mainThreadCpuMs() ?? 0;
     const started = performance.now();
     for (const r of await Promise.all(clients.map(run))) {
@@ -251,6 +321,7 @@ async function measure(clients: Client[], rounds: number) {
       engine.push(r.engine);
     }
     runSeconds += (performance.now() - started) / 1000;
+    if (profile) await askServer('profile-pause');
     cpu.save += c1 - c0;
     cpu.run += (mainThreadCpuMs() ?? 0) - c1;
   }
@@ -280,11 +351,16 @@ if (isMainThread) {
     // A worker thread has no TypeScript loader of its own: it registers tsx, then loads this file.
     const boot = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}); })`;
     const clients = new Worker(boot, { eval: true, workerData: { base, projectId: t.demo.projectId, table: section.text } });
+    const profiler = PROFILE_DIR ? new RunProfiler() : null;
     await new Promise<void>((resolve, reject) => {
-      clients.on('message', (m: { line: string }) => out(m.line));
+      clients.on('message', (m: { line?: string; ask?: 'profile-resume' | 'profile-pause' }) => {
+        if (m.line !== undefined) out(m.line);
+        if (m.ask) void profiler![m.ask === 'profile-resume' ? 'resume' : 'pause']().then(() => clients.postMessage({ done: m.ask }));
+      });
       clients.on('error', reject);
       clients.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`the clients' thread exited with ${code}`))));
     });
+    if (profiler) out(`CPU profile of the server's thread during the 20-client runs: ${await profiler.write(PROFILE_DIR)}`);
   } finally {
     server.close();
     await t.close();
@@ -297,8 +373,10 @@ if (isMainThread) {
   await measure(clients.slice(0, 4), 5); // warm-up: JIT, worker threads, connection pools
 
   /** The floor of this machine right now: a signed-in request that does no notebook work at all. */
+  const floorCpu = { ms: 0, requests: 0 };
   const floor = async (count: number, rounds: number) => {
     const times: number[] = [];
+    const c0 = mainThreadCpuMs() ?? 0;
     for (let r = 0; r < rounds; r++) {
       times.push(
         ...(await Promise.all(
@@ -310,9 +388,12 @@ if (isMainThread) {
         )),
       );
     }
+    floorCpu.ms += (mainThreadCpuMs() ?? 0) - c0;
+    floorCpu.requests += times.length;
     return times;
   };
   await floor(20, 3); // warm-up
+  Object.assign(floorCpu, { ms: 0, requests: 0 });
 
   say('');
   say('clients  rounds   run median   run p95    run max   save median  save p95   engine median  runs/s');
@@ -324,7 +405,7 @@ if (isMainThread) {
   ] as const) {
     // At 20 clients the floor is taken just before and just after the runs, so both see the same load.
     if (count === 20) floors.push(...(await floor(20, 6)));
-    const m = await measure(clients.slice(0, count), rounds);
+    const m = await measure(clients.slice(0, count), rounds, count === 20 && PROFILE_DIR !== '');
     if (count === 20) floors.push(...(await floor(20, 6)));
     results.set(count, m);
     say(
@@ -336,6 +417,7 @@ if (isMainThread) {
   const me20 = stats(floors);
   say(`reference, GET /api/me (session and user only) at  1 concurrent: median ${me1.median.toFixed(1)} ms, p95 ${me1.p95.toFixed(1)} ms`);
   say(`reference, GET /api/me (session and user only) at 20 concurrent: median ${me20.median.toFixed(1)} ms, p95 ${me20.p95.toFixed(1)} ms (taken around the 20-client runs)`);
+  say(`reference, GET /api/me: server main-thread CPU ${(floorCpu.ms / floorCpu.requests).toFixed(2)} ms a request (what any signed-in request costs before its own work)`);
   const at20 = results.get(20)!;
   const ratio = at20.run.p95 / me20.p95;
   say('');
