@@ -3,6 +3,16 @@ import { landingWhenSignedOut, requireSignIn } from './core/guards';
 import { Landing } from './landing/landing';
 import { NotFound } from './shared/not-found';
 
+const loadNotebookPage = () => import('./notebook/notebook-page');
+
+/**
+ * Starts fetching the code of the page an address opens, before the router gets to it (it first waits
+ * for the sign-in check): a study opened from a link or a reload then needs no second round of fetches.
+ */
+export function prefetchRouteCode(path: string): void {
+  if (/^\/studies\/[^/]+\/?$/.test(path)) void loadNotebookPage().catch(() => undefined);
+}
+
 export const routes: Routes = [
   { path: '', pathMatch: 'full', component: Landing, canActivate: [landingWhenSignedOut], title: 'Laminote' },
   {
@@ -32,7 +42,7 @@ export const routes: Routes = [
   {
     path: 'studies/:studyId',
     canActivate: [requireSignIn],
-    loadComponent: () => import('./notebook/notebook-page').then((m) => m.NotebookPage),
+    loadComponent: () => loadNotebookPage().then((m) => m.NotebookPage),
     title: 'Study · Laminote',
   },
   {

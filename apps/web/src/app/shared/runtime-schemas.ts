@@ -4,4 +4,7 @@
  * from the first screen (`runtime-checks.ts`), since with zod they are about a third of the notebook's
  * JavaScript. Import this module only through `loadRuntimeChecks()`.
  */
-export { CELL_INPUT_SCHEMAS, draftSchema, jobEventSchema, newCellInputs } from '@laminote/contracts';
+// From their own modules, not the index: the chunk then holds these schemas and what they use only.
+export { CELL_INPUT_SCHEMAS, newCellInputs } from '@laminote/contracts/cell-schemas';
+export { jobEventSchema } from '@laminote/contracts/jobs';
+export { draftSchema } from '@laminote/contracts/notebook';
