@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { DEFAULT_PROJECT_SETTINGS, isUuid } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import type { Tx } from '../db/client';
-import { branches, memberships, projects, studies } from '../db/schema';
+import { branches, drafts, memberships, projects, studies } from '../db/schema';
 import type { ProjectContext } from './access';
 import { notFound, ProblemError } from '../http/problem';
 
@@ -20,6 +20,12 @@ export interface BranchContext extends ProjectContext {
 export async function branchAccess(tx: Tx, user: SessionUser, branchId: string): Promise<BranchContext> {
   if (!isUuid(branchId)) throw notFound('branch');
   const [row] = await accessQuery(tx).execute({ branchId, userId: user.id });
+  return contextOf(row, user);
+}
+
+type AccessRow = Awaited<ReturnType<ReturnType<typeof buildAccessQuery>['execute']>>[number];
+
+function contextOf(row: AccessRow | undefined, user: SessionUser): BranchContext {
   if (!row || (!row.role && !user.siteAdmin)) throw notFound('branch');
   return {
     branch: row.branch,
@@ -50,6 +56,32 @@ const buildAccessQuery = (tx: Tx) =>
     .prepare('branch_access');
 
 const accessQueries = new WeakMap<Tx, ReturnType<typeof buildAccessQuery>>();
+
+/**
+ * The caller's access to a branch (as branchAccess) and the branch's draft row, in one query: the
+ * notebook's draft and run routes read both on every request. The draft is null when the branch has
+ * none yet (a branch made before drafts existed).
+ */
+export async function branchAccessWithDraft(tx: Tx, user: SessionUser, branchId: string): Promise<{ ctx: BranchContext; draft: typeof drafts.$inferSelect | null }> {
+  if (!isUuid(branchId)) throw notFound('branch');
+  let query = accessWithDraftQueries.get(tx);
+  if (!query) accessWithDraftQueries.set(tx, (query = buildAccessWithDraftQuery(tx)));
+  const [row] = await query.execute({ branchId, userId: user.id });
+  return { ctx: contextOf(row, user), draft: row?.draft ?? null };
+}
+
+const buildAccessWithDraftQuery = (tx: Tx) =>
+  tx
+    .select({ branch: branches, study: studies, settings: projects.settings, role: memberships.role, draft: drafts })
+    .from(branches)
+    .innerJoin(studies, eq(studies.id, branches.studyId))
+    .innerJoin(projects, eq(projects.id, studies.projectId))
+    .leftJoin(memberships, and(eq(memberships.projectId, projects.id), eq(memberships.userId, sql.placeholder('userId'))))
+    .leftJoin(drafts, eq(drafts.branchId, branches.id))
+    .where(eq(branches.id, sql.placeholder('branchId')))
+    .prepare('branch_access_draft');
+
+const accessWithDraftQueries = new WeakMap<Tx, ReturnType<typeof buildAccessWithDraftQuery>>();
 
 /** Archived studies and branches are read-only until restored. */
 export function requireWritable(ctx: BranchContext): void {

@@ -2,7 +2,7 @@ import express, { Router, type RequestHandler, type Response } from 'express';
 import { z } from 'zod';
 import { restoreDraftSchema, runRequestSchema, saveDraftSchema, saveVersionSchema, updateBranchSchema } from '@laminote/contracts';
 import { requireAction } from '../access/access';
-import { branchAccess, branchPlace, requireWritable } from '../access/branch';
+import { branchAccess, branchAccessWithDraft, branchPlace, requireWritable } from '../access/branch';
 import type { Db } from '../db/client';
 import { parse, ProblemError } from '../http/problem';
 import type { JobEvents } from '../jobs/events';
@@ -54,8 +54,8 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
   };
 
   router.get('/:branchId/draft', async (req, res) => {
-    const ctx = await branchAccess(db, req.user!, req.params.branchId);
-    sendJson(res, draftJson(await notebook.getDraft(ctx)));
+    const { ctx, draft } = await branchAccessWithDraft(db, req.user!, req.params.branchId);
+    sendJson(res, draftJson(await notebook.getDraft(ctx, draft)));
   });
 
   router.put('/:branchId/draft', async (req, res) => {
@@ -73,12 +73,13 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
    * whose outputs changed (RunResponse).
    */
   router.post('/:branchId/run', async (req, res) => {
-    const ctx = await branchAccess(db, req.user!, req.params.branchId);
+    const { ctx, draft } = await branchAccessWithDraft(db, req.user!, req.params.branchId);
     requireAction(ctx.access, 'runCells');
     requireWritable(ctx);
     const body = parse(runRequestSchema, req.body ?? {});
-    // The draft is read once: the plan decides between computing at once and queueing, and is what runs.
-    const planned = await notebook.planRun(ctx, body.cellIds);
+    // The draft is read once, with the access: the plan decides between computing at once and
+    // queueing, and is what runs.
+    const planned = await notebook.planRun(ctx, body.cellIds, draft);
     const work = jobs.work(planned);
     // A few quick cells are computed at once on this server's engine pool and stored by key exactly as
     // a worker stores them, so a small run answers in milliseconds; longer work goes to the queue.

@@ -194,8 +194,9 @@ export class NotebookService {
     };
   }
 
-  async getDraft(ctx: BranchContext): Promise<DraftDoc> {
-    return this.view(this.db, ctx, await draftRow(this.db, ctx.branch.id, false));
+  /** The draft as the client sees it; `row` when the caller has read it already (branchAccessWithDraft). */
+  async getDraft(ctx: BranchContext, row?: DraftRow | null): Promise<DraftDoc> {
+    return this.view(this.db, ctx, row ?? (await draftRow(this.db, ctx.branch.id, false)));
   }
 
   /**
@@ -300,10 +301,11 @@ export class NotebookService {
   /**
    * What running the named cells (or every cell) takes, read once from the draft as it stands: the
    * cells, their plans, the targets (the named cells and what they use) and which of their outputs are
-   * stored already. The run route decides from it whether to compute at once or queue a job.
+   * stored already. The run route decides from it whether to compute at once or queue a job. `read`
+   * is the draft row when the caller has it already (branchAccessWithDraft).
    */
-  async planRun(ctx: BranchContext, cellIds: string[] | undefined): Promise<PlannedRun> {
-    const row = await draftRow(this.db, ctx.branch.id, false);
+  async planRun(ctx: BranchContext, cellIds: string[] | undefined, read?: DraftRow | null): Promise<PlannedRun> {
+    const row = read ?? (await draftRow(this.db, ctx.branch.id, false));
     const stored = row.cells as StoredCell[];
     const plans = planCells(stored);
     const targets = this.targets(plans, stored, cellIds);
