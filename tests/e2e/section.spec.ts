@@ -16,6 +16,8 @@ const FLOW_TITLE = `E2E ${RUN}: Re 6e6, M 0 (invented)`;
 const SECTION_TITLE = `E2E ${RUN}: NACA 2412 at 2°`;
 const POLAR_TITLE = `E2E ${RUN}: polar −4° to 8°`;
 const ANALYSIS_TITLE = `E2E ${RUN}: analysis of the section`;
+const BODY_TITLE = `E2E ${RUN}: pod, 5:1 spheroid (invented)`;
+const BODY_ANALYSIS_TITLE = `E2E ${RUN}: analysis of the pod`;
 
 let browser: Browser;
 let page: Page;
@@ -52,7 +54,7 @@ async function run(cell: Locator): Promise<void> {
   await expect.poll(() => cell.locator('.run-state-label').textContent(), { timeout: 60_000 }).toBe('Up to date');
 }
 
-const inputs = <K extends 'section' | 'flow' | 'polar'>(kind: K, given: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
+const inputs = <K extends 'section' | 'flow' | 'polar' | 'body' | 'analysis'>(kind: K, given: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
 
 describe('sections and polars in the notebook', () => {
   it('opens the demo study', async () => {
@@ -143,7 +145,7 @@ describe('sections and polars in the notebook', () => {
   it('points a transition analysis at the section cell', async () => {
     const analysis = await addCell('Transition analysis', ANALYSIS_TITLE);
     await pick(analysis, 'Flow condition', FLOW_TITLE);
-    await pick(analysis, /Pressure distribution or section/, SECTION_TITLE);
+    await pick(analysis, /Pressure distribution, section or body/, SECTION_TITLE);
     await run(analysis);
     await analysis.getByRole('table', { name: 'Transition summary per surface' }).waitFor();
     // The section's outline with the governing transition of each surface (two diamonds) and the others' ticks.
@@ -154,6 +156,37 @@ describe('sections and polars in the notebook', () => {
     await expect.poll(() => outline.locator('.scatterlayer .trace').nth(1).locator('path.point').count()).toBe(2);
     await analysis.getByText(/◆ governing transition/).waitFor();
     await analysis.screenshot({ path: '/tmp/laminote-e2e-section-analysis.png' });
+  });
+
+  it('adds a body of revolution, runs it and reads its shape; an analysis of it gives the engine’s transition on the body', async () => {
+    const body = await addCell('Body of revolution', BODY_TITLE);
+    await expect(body.getByLabel(/Fineness ratio/).inputValue()).resolves.toBe('6');
+    await body.getByLabel(/Fineness ratio/).fill('5');
+    await run(body);
+    const fineness = body.locator('table.quantities tr', { hasText: 'Fineness ratio' }).locator('td');
+    await expect(fineness.textContent()).resolves.toBe('5.000');
+    await body.locator('lam-plot').first().scrollIntoViewIfNeeded();
+    await body.locator('lam-plot .main-svg').nth(1).waitFor({ timeout: 30_000 });
+    await body.screenshot({ path: '/tmp/laminote-e2e-body.png' });
+
+    const analysis = await addCell('Transition analysis', BODY_ANALYSIS_TITLE);
+    await pick(analysis, 'Flow condition', FLOW_TITLE);
+    await pick(analysis, /Pressure distribution, section or body/, BODY_TITLE);
+    await analysis.getByText('A body of revolution is analysed in free transition.').waitFor();
+    await run(analysis);
+    const summary = analysis.getByRole('table', { name: 'Transition summary per surface' });
+    await summary.waitFor();
+    const expected = computeCell('analysis', inputs('analysis', { flowCellId: '00000000-0000-4000-8000-000000000001', pressureCellId: '00000000-0000-4000-8000-000000000002' }), {
+      flowCellId: { kind: 'flow', inputs: inputs('flow', { mode: 'reynolds', reynolds: 6e6, mach: 0 }), upstream: {} },
+      pressureCellId: { kind: 'body', inputs: inputs('body', { source: 'spheroid', fineness: 5 }), upstream: {} },
+    });
+    // The summary gives the governing transition at x/L, between the stations on each side of it.
+    const { s: stations, x } = expected.surfaces[0]!.stations;
+    const t = expected.surfaces[0]!.transition.s!;
+    const i = stations.findIndex((v) => v >= t);
+    const xAt = x![i - 1]! + ((t - stations[i - 1]!) / (stations[i]! - stations[i - 1]!)) * (x![i]! - x![i - 1]!);
+    expect(await summary.textContent()).toContain(xAt.toFixed(3));
+    await analysis.screenshot({ path: '/tmp/laminote-e2e-body-analysis.png' });
   });
 
   it('met no script error and no content-security-policy violation', () => {

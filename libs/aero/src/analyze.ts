@@ -42,7 +42,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.2.1';
+export const ENGINE_VERSION = '1.2.2';
 
 export { ENGINE_CAUTION } from './caution';
 
@@ -162,6 +162,16 @@ export function analyzeCase(input: unknown): EngineResult {
 
   let cd: number | null = 0;
   for (const r of results) cd = cd === null || r.cd === null ? null : cd + r.cd;
+  if (engineCase.body !== undefined) {
+    // Squire–Young's wake formula and the friction integral are the plane forms (drag per unit span);
+    // on a body of revolution they give no drag coefficient, so none is reported.
+    cd = null;
+    for (const r of results) {
+      r.cd = null;
+      r.cdFriction = null;
+    }
+    warnings.push('body: no drag coefficient is given for a body of revolution (Squire–Young and the friction integral are used in their plane form); transition and separation are');
+  }
 
   let attachmentLine: EngineResult['attachmentLine'] = null;
   if (engineCase.sweepDeg !== 0) {

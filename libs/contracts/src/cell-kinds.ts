@@ -6,7 +6,7 @@
  * "How to add a cell kind".
  */
 
-export const CELL_KINDS = ['flow', 'pressure', 'section', 'analysis', 'polar', 'sweep', 'comparison', 'flatPlate', 'leadingEdge', 'note'] as const;
+export const CELL_KINDS = ['flow', 'pressure', 'section', 'body', 'analysis', 'polar', 'sweep', 'comparison', 'flatPlate', 'leadingEdge', 'note'] as const;
 export type CellKind = (typeof CELL_KINDS)[number];
 
 /**
@@ -135,16 +135,31 @@ export const CELL_KIND_REGISTRY: { readonly [K in CellKind]: CellKindSpec } = {
     },
     starter: { source: 'naca', naca: '2412' },
   },
+  body: {
+    label: 'Body of revolution',
+    icon: 'radio_button_unchecked',
+    hint: 'A nacelle or fuselage meridian, or a prolate spheroid; its Cp by the axisymmetric panel method',
+    runs: true,
+    quick: true,
+    references: {},
+    fields: {
+      source: 'Shape given by',
+      fineness: 'Fineness ratio (length / diameter)',
+      coordinates: 'Meridian',
+      panels: 'Panels',
+    },
+    starter: { source: 'spheroid', fineness: 6 },
+  },
   analysis: {
     label: 'Transition analysis',
     icon: 'insights',
     hint: 'Boundary layer and transition along each surface',
     runs: true,
     quick: true,
-    references: { flowCellId: { kinds: ['flow'], required: true }, pressureCellId: { kinds: ['pressure', 'section'], required: true } },
+    references: { flowCellId: { kinds: ['flow'], required: true }, pressureCellId: { kinds: ['pressure', 'section', 'body'], required: true } },
     fields: {
       flowCellId: 'Flow cell',
-      pressureCellId: 'Pressure or section cell',
+      pressureCellId: 'Pressure, section or body cell',
       criteria: 'Transition criteria',
       governing: 'Governing criterion',
       trips: 'Forced transition',
@@ -318,7 +333,7 @@ export const VALUE_LABELS: Readonly<Record<string, Readonly<Record<string, strin
   turbulenceMode: { nCrit: 'N_crit', intensity: 'turbulence level' },
   layout: { closedLoop: 'closed loop', surface: 'one surface' },
   smoothing: { off: 'off', auto: 'automatic', width: 'chosen width' },
-  source: { naca: 'NACA designation', coordinates: 'coordinates' },
+  source: { naca: 'NACA designation', coordinates: 'coordinates', spheroid: 'prolate spheroid' },
   at: { alpha: 'incidence', cl: 'lift coefficient' },
   by: { alpha: 'incidence', cl: 'lift coefficient' },
   criteria: { eN: 'envelope eᴺ', crossflow: 'crossflow R_cf', crossflowC1: 'crossflow C1', michel: 'Michel', hRx: 'H–Re_x', granville: 'Granville' },

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { CELL_KINDS, TRANSITION_CRITERIA, type CellKind, CELL_KIND_REGISTRY } from './cell-kinds';
 import { engineResultSchema, type EngineResult } from './engine';
 import { PRESSURE_TEXT_LIMIT, SWEEP_RANGES } from './limits';
-import { SECTION_LIMITS, sectionGeometrySchema, sectionInviscidSchema } from './section';
+import { bodyInviscidSchema, SECTION_LIMITS, sectionGeometrySchema, sectionInviscidSchema } from './section';
 
 /**
  * The zod half of the cell-kind registry (the plain half is cell-kinds.ts): each kind's input schema,
@@ -211,6 +211,40 @@ export const sectionResultSchema = z.object({
 });
 export type SectionResult = z.infer<typeof sectionResultSchema>;
 
+/**
+ * Body of revolution at zero incidence (a nacelle's cowl closed at both ends, a fuselage, a pod): a
+ * prolate spheroid of a given fineness ratio, or a pasted meridian `x r` from the nose to the tail, and
+ * its Cp by the axisymmetric panel method (incompressible).
+ */
+export const bodyInputsSchema = z
+  .object({
+    source: z.enum(['spheroid', 'coordinates']).default('spheroid'),
+    fineness: finite('fineness').min(1, 'fineness must be at least 1 (a sphere)').max(20, 'fineness must be at most 20').default(6),
+    /** Kept exactly as pasted. */
+    coordinates: z.string().max(SECTION_LIMITS.maxCoordinateCharacters, `coordinates: longer than ${SECTION_LIMITS.maxCoordinateCharacters} characters (limit)`).default(''),
+    panels: z.number().int('panels must be a whole number').min(SECTION_LIMITS.minPanels, `panels must be at least ${SECTION_LIMITS.minPanels}`).max(SECTION_LIMITS.maxPanels, `panels must be at most ${SECTION_LIMITS.maxPanels}`).default(120),
+  })
+  .superRefine((body, ctx) => {
+    if (body.source === 'coordinates' && body.coordinates.trim() === '') ctx.addIssue({ code: 'custom', path: ['coordinates'], message: 'coordinates: paste x r rows from the nose to the tail' });
+  });
+export type BodyInputs = z.infer<typeof bodyInputsSchema>;
+
+export const bodyResultSchema = z.object({
+  title: z.string().nullable(),
+  /** The meridian as given, on unit length (nose at x = 0, r the radius). */
+  outline: z.object({ x: z.array(z.number()), r: z.array(z.number()) }),
+  geometry: z.object({
+    /** Length over maximum diameter. */
+    fineness: z.number(),
+    /** Maximum radius over length, and where it is. */
+    maxRadius: z.number(),
+    maxRadiusAt: z.number(),
+  }),
+  inviscid: bodyInviscidSchema,
+  warnings: z.array(z.string()),
+});
+export type BodyResult = z.infer<typeof bodyResultSchema>;
+
 /** Polar: a section over a range of incidence or lift, with the boundary layer at each point. */
 export const polarInputsSchema = z
   .object({
@@ -264,6 +298,7 @@ export const CELL_INPUT_SCHEMAS = {
   flow: flowInputsSchema,
   pressure: pressureInputsSchema,
   section: sectionInputsSchema,
+  body: bodyInputsSchema,
   analysis: analysisInputsSchema,
   polar: polarInputsSchema,
   sweep: sweepInputsSchema,
@@ -461,6 +496,7 @@ export const CELL_SCHEMAS = {
   flow: { inputs: flowInputsSchema, result: flowResultSchema },
   pressure: { inputs: pressureInputsSchema, result: pressureResultSchema },
   section: { inputs: sectionInputsSchema, result: sectionResultSchema },
+  body: { inputs: bodyInputsSchema, result: bodyResultSchema },
   analysis: { inputs: analysisInputsSchema, result: analysisResultSchema },
   polar: { inputs: polarInputsSchema, result: polarResultSchema },
   sweep: { inputs: sweepInputsSchema, result: sweepResultSchema },

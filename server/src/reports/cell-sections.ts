@@ -7,6 +7,7 @@ import {
   transitionCauseLabel,
   valueLabel,
   type AnalysisResult,
+  type BodyResult,
   type CellKind,
   type FlatPlateResult,
   type FlowResult,
@@ -143,6 +144,20 @@ function pressureSections(r: PressureResult): Pick<ReportCell, 'tables' | 'plots
   ];
   const plots: PlotSpec[] = [{ title: 'Pressure distribution', xLabel: 'x/c', yLabel: 'Cp', reverseY: true, series: r.surfaces.map((s) => ({ name: s.name, x: s.x, y: s.cp })) }];
   return { tables: [{ caption: 'Table as read', columns: ['Quantity', 'Value'], rows }], plots };
+}
+
+function bodySections(r: BodyResult): Pick<ReportCell, 'tables' | 'plots'> {
+  const rows: [string, string][] = [
+    ['Shape', r.title ?? 'pasted meridian'],
+    ['Fineness ratio L/D', num(r.geometry.fineness)],
+    ['Maximum radius r/L', `${num(r.geometry.maxRadius)} at x/L = ${num(r.geometry.maxRadiusAt, 3)}`],
+    ['Panels', String(r.inviscid.panels)],
+  ];
+  const plots: PlotSpec[] = [
+    { title: 'Meridian', xLabel: 'x/L', yLabel: 'r/L', series: [{ name: 'r', x: r.outline.x, y: r.outline.r }] },
+    { title: 'Pressure distribution (axisymmetric panel method, incompressible)', xLabel: 'x/L', yLabel: 'Cp', reverseY: true, series: [{ name: 'Cp', x: r.inviscid.x, y: r.inviscid.cp }] },
+  ];
+  return { tables: [{ caption: 'Body of revolution at zero incidence', columns: ['Quantity', 'Value'], rows }], plots };
 }
 
 function analysisSections(r: AnalysisResult): Pick<ReportCell, 'tables' | 'plots'> {
@@ -312,6 +327,8 @@ export function describeCell(cell: VersionCell, titles: ReadonlyMap<string, stri
         return flowSections(result as unknown as FlowResult);
       case 'pressure':
         return pressureSections(result as unknown as PressureResult);
+      case 'body':
+        return bodySections(result as unknown as BodyResult);
       case 'analysis':
         return analysisSections(result as unknown as AnalysisResult);
       case 'sweep':

@@ -1,10 +1,11 @@
-import type { AnalysisInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs } from '@laminote/contracts';
+import type { AnalysisInputs, BodyInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs } from '@laminote/contracts';
 import { analyzeCase } from '../analyze';
 import { arcAtX } from '../arc-position';
 import type { PressureTableRow } from '../pressure-table';
 import { loopArcLength, splitAtStagnation } from '../stagnation';
 import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from '../swept-wing';
 import { fail, stagnationFailure } from './errors';
+import { bodyMeridianText } from './body';
 import { sectionAsPressure } from './section';
 import { engineFlow } from './flow';
 import { readCellTable } from './table';
@@ -91,11 +92,31 @@ export function computeAnalysis(a: AnalysisInputs, upstream: Upstream): EngineRe
   // A section cell stands in for a pressure cell: its panel solution at this flow's Mach number.
   // The result then carries the panel solution (inviscid), whose x, y is the outline the screen marks.
   const named = upstream['pressureCellId'];
+  if (named?.kind === 'body') return analyzeBody(a, flow, upstreamOf(upstream, 'pressureCellId', 'body').inputs);
   if (named?.kind === 'section') {
     const { pressure, inviscid } = sectionAsPressure(upstreamOf(upstream, 'pressureCellId', 'section').inputs, flow);
     return { ...analyzeWith(a, flow, pressure), inviscid };
   }
   return analyzeWith(a, flow, upstreamOf(upstream, 'pressureCellId', 'pressure').inputs);
+}
+
+/**
+ * A body of revolution named in place of a pressure cell: one surface from the nose with its radius
+ * (Mangler's transformation in the laminar march, the axisymmetric terms in Head's), at zero incidence
+ * and without sweep. Its panel solution comes back as the result's `inviscid`.
+ */
+function analyzeBody(a: AnalysisInputs, flow: FlowInputs, b: BodyInputs): EngineResult {
+  if (Object.keys(a.trips).length > 0) fail('trips', 'a body of revolution is analysed in free transition here; leave the forced transition empty');
+  const result = analyzeCase({
+    flow: engineFlow(flow),
+    criteria: a.criteria,
+    ...(a.governing === 'auto' ? {} : { governing: a.governing }),
+    turbulent: a.turbulent,
+    sweepDeg: 0,
+    body: { coordinates: bodyMeridianText(b), panels: b.panels },
+  });
+  if (flow.sweepDeg !== 0) result.warnings.push(`sweep ${flow.sweepDeg}°: a body of revolution is analysed at zero incidence without sweep; the flow cell's sweep is not used`);
+  return result;
 }
 
 /** The analysis with the flow and pressure inputs given directly (a sweep varies the flow). */

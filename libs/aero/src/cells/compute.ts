@@ -1,5 +1,6 @@
 import { CELL_KIND_LABELS, type CellError, type CellInputs, type CellKind, type CellResults, type ComputedKind } from '@laminote/contracts';
 import { computeAnalysis } from './analysis';
+import { computeBody } from './body';
 import { computeComparison } from './comparison';
 import { toCellError } from './errors';
 import { computeFlatPlate } from './flat-plate';
@@ -24,6 +25,7 @@ export const CELL_COMPUTE: { readonly [K in ComputedKind]: Compute<K> } = {
   flow: (inputs) => computeFlow(inputs),
   pressure: (inputs) => computePressure(inputs),
   section: computeSection,
+  body: (inputs) => computeBody(inputs),
   analysis: computeAnalysis,
   polar: computePolar,
   sweep: computeSweep,

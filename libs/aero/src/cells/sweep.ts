@@ -1,6 +1,6 @@
 import type { AnalysisInputs, CellError, EngineResult, FlowInputs, SweepInputs, SweepResult } from '@laminote/contracts';
 import { xAtArc } from '../arc-position';
-import { analyzeWith } from './analysis';
+import { computeAnalysis } from './analysis';
 import { CellInputError, toCellError } from './errors';
 import { upstreamOf, type Upstream } from './types';
 
@@ -17,9 +17,9 @@ function sweptFlow(flow: FlowInputs, parameter: SweepInputs['parameter'], value:
   }
 }
 
-function analyzeStep(a: AnalysisInputs, flow: FlowInputs, pressure: Parameters<typeof analyzeWith>[2]): { result: EngineResult } | { error: CellError } {
+function analyzeStep(a: AnalysisInputs, upstream: Upstream): { result: EngineResult } | { error: CellError } {
   try {
-    return { result: analyzeWith(a, flow, pressure) };
+    return { result: computeAnalysis(a, upstream) };
   } catch (error) {
     const cellError = toCellError(error);
     if (!cellError) throw error;
@@ -56,15 +56,17 @@ export function sweepCaseCount(sw: SweepInputs): number {
  */
 export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: number): SweepCase {
   const analysis = upstreamOf(upstream, 'analysisCellId', 'analysis');
-  const flow = upstreamOf(analysis.upstream, 'flowCellId', 'flow').inputs;
-  const pressure = upstreamOf(analysis.upstream, 'pressureCellId', 'pressure').inputs;
+  const flowCell = upstreamOf(analysis.upstream, 'flowCellId', 'flow');
+  const flow = flowCell.inputs;
   if (!(Number.isInteger(index) && index >= 0 && index < sweepCaseCount(sw))) throw new RangeError(`the sweep has no case ${index}`);
   const columns = sw.second ? sw.second.steps : 1;
   const value = valueAt(sw, Math.floor(index / columns));
   const value2 = sw.second ? valueAt(sw.second, index % columns) : undefined;
   const swept = sw.second ? sweptFlow(sweptFlow(flow, sw.parameter, value), sw.second.parameter, value2!) : sweptFlow(flow, sw.parameter, value);
   const at = value2 === undefined ? { value } : { value, value2 };
-  const outcome = analyzeStep(analysis.inputs, swept, pressure);
+  // The analysis as it is, with the flow cell at this case's values (a section or body named as its
+  // pressure is solved again, so a Mach step moves the section's Cp too).
+  const outcome = analyzeStep(analysis.inputs, { ...analysis.upstream, flowCellId: { ...flowCell, inputs: swept } });
   if ('error' in outcome) return { step: { ...at, status: 'error', error: outcome.error, reynolds: null, cd: null, surfaces: [], attachmentLine: null }, warnings: [] };
   const r = outcome.result;
   return {
@@ -117,7 +119,8 @@ export function assembleSweep(sw: SweepInputs, cases: readonly SweepCase[]): Swe
 
 /**
  * Parameter sweep: the named analysis re-run over `steps` evenly spaced values of one parameter of its
- * flow cell; a step that fails keeps its message and the others go on.
+ * flow cell (whatever gives its pressures: a pressure, section or body cell); a step that fails keeps
+ * its message and the others go on.
  */
 export function computeSweep(sw: SweepInputs, upstream: Upstream): SweepResult {
   return assembleSweep(

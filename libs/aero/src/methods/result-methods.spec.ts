@@ -39,6 +39,12 @@ describe('resultMethods (the "Methods" links under each result)', () => {
     expect(ids('analysis', analysisOfSection)).toEqual(['vortex-panel', 'compressibility-correction', 'thwaites', 'head', 'squire-young', 'envelope-en']);
   });
 
+  it('links a body and an analysis of a body to the source-ring panel method, and the body’s layer to Mangler’s transformation', () => {
+    expect(ids('body', { outline: { x: [], r: [] }, inviscid: { kind: 'body' } })).toEqual(['source-ring-panel']);
+    const analysisOfBody = { flow: { mach: 0 }, inviscid: { kind: 'body' }, surfaces: [{ transition: { criteria: { eN: 0.3 } } }] };
+    expect(ids('analysis', analysisOfBody)).toEqual(['source-ring-panel', 'thwaites', 'mangler', 'head', 'squire-young', 'envelope-en']);
+  });
+
   it('links the other kinds to their own methods and nothing for a result it cannot read', () => {
     expect(ids('flow', { temperature_K: 223.15 })).toEqual(['isa', 'sutherland', 'mack']);
     expect(ids('flow', { temperature_K: null })).toEqual(['mack']);

@@ -16,8 +16,9 @@ function record(value: unknown): Record<string, unknown> | null {
 }
 
 function analysisMethods(result: Record<string, unknown>): string[] {
-  // An analysis of a section cell carries the section's panel solution.
-  const ids = result['inviscid'] ? ['vortex-panel', 'compressibility-correction', 'thwaites'] : ['thwaites'];
+  // An analysis of a section or body cell carries its panel solution; a body's layer is marched with Mangler's transformation.
+  const inviscid = record(result['inviscid']);
+  const ids = inviscid?.['kind'] === 'body' ? ['source-ring-panel', 'thwaites', 'mangler'] : inviscid ? ['vortex-panel', 'compressibility-correction', 'thwaites'] : ['thwaites'];
   const flow = record(result['flow']);
   if (typeof flow?.['mach'] === 'number' && flow['mach'] > 0) ids.push('compressible-thwaites');
   ids.push('head', 'squire-young');
@@ -57,6 +58,9 @@ export function resultMethods(kind: string, result: unknown): MethodEntry[] {
       break;
     case 'section':
       ids = ['vortex-panel', 'compressibility-correction'];
+      break;
+    case 'body':
+      ids = ['source-ring-panel'];
       break;
     case 'polar': {
       const criteria = new Set<string>();

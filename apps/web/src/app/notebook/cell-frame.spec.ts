@@ -91,7 +91,7 @@ describe('CellFrame', () => {
     const [message] = await harness.getFailures();
     expect(message).toContain('Laminar separation at the first station');
     // The field by its label on the screen, not its name in the API.
-    expect(message).toContain('(Pressure or section cell)');
+    expect(message).toContain('(Pressure, section or body cell)');
     expect(message).not.toContain('pressureCellId');
     expect(message).toContain('last good result is kept');
     expect(await harness.getRunState()).toBe('Run failed');

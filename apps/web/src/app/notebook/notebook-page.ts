@@ -49,6 +49,7 @@ import { FlowCell } from './flow/flow-cell';
 import { LeadingEdgeCell } from './leading-edge/leading-edge-cell';
 import { PolarCell } from './polar/polar-cell';
 import { SectionCell } from './section/section-cell';
+import { BodyCell } from './body/body-cell';
 import { NotebookApi } from '../shared/notebook-api';
 import { NoteCell } from './note/note-cell';
 import { PressureCell } from './pressure/pressure-cell';
@@ -100,6 +101,7 @@ function isTextEntry(target: EventTarget | null): boolean {
     LeadingEdgeCell,
     PolarCell,
     SectionCell,
+    BodyCell,
     MatButtonModule,
     MatIconModule,
     MatProgressBarModule,

@@ -87,7 +87,9 @@ export class AnalysisCell {
   });
 
   protected readonly flowCells = computed(() => this.session.cells().filter((c) => c.kind === 'flow'));
-  protected readonly pressureCells = computed(() => this.session.cells().filter((c) => c.kind === 'pressure' || c.kind === 'section'));
+  protected readonly pressureCells = computed(() => this.session.cells().filter((c) => c.kind === 'pressure' || c.kind === 'section' || c.kind === 'body'));
+  /** A body of revolution is analysed in free transition: no trips to offer. */
+  protected readonly namesBody = computed(() => this.session.cell(String(this.cell().inputs['pressureCellId'] ?? ''))?.kind === 'body');
 
   /** The surfaces that can be tripped: upper and lower of a closed loop, or a single surface by its name. */
   protected readonly tripSurfaces = computed((): [string, string | null] => {

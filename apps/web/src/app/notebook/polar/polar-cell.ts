@@ -38,7 +38,7 @@ type Point = PolarResult['points'][number];
   selector: 'lam-polar-cell',
   imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './polar-cell.html',
-  styleUrls: ['../simple-cell.scss', '../section/section-cell.scss', './polar-cell.scss'],
+  styleUrls: ['../simple-cell.scss', '../shape-cell.scss', './polar-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class PolarCell {

@@ -35,7 +35,7 @@ const INCOMPRESSIBLE = '';
   selector: 'lam-section-cell',
   imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './section-cell.html',
-  styleUrls: ['../simple-cell.scss', './section-cell.scss'],
+  styleUrls: ['../simple-cell.scss', '../shape-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class SectionCell {

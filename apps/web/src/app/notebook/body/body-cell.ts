@@ -1,0 +1,109 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import type { BodyResult, DraftCell } from '@laminote/contracts';
+import { Plot } from '../../shared/plot';
+import { bindCellForm, numberInput, numberText } from '../cell-form';
+import { CellResult, shownResult } from '../cell-result';
+import { bodyCpFigure, bodyOutlineFigure } from './body-figures';
+
+interface BodyFormValue {
+  source: 'spheroid' | 'coordinates';
+  fineness: string;
+  coordinates: string;
+  panels: string;
+}
+
+/** One `x r` row as the meridian reader takes it: two numbers, separated by spaces, a comma, a semicolon or a tab. */
+const ROW = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*[,;\t ]\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*[,;]?\s*$/;
+
+/**
+ * Body of revolution: a prolate spheroid of a fineness ratio, or a pasted meridian from the nose to the
+ * tail; its outline and its Cp from the engine's axisymmetric panel method at zero incidence. An analysis
+ * may name it in place of a pressure cell (one surface with its radius: Mangler's transformation).
+ */
+@Component({
+  selector: 'lam-body-cell',
+  imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, Plot, ReactiveFormsModule],
+  templateUrl: './body-cell.html',
+  styleUrls: ['../simple-cell.scss', '../shape-cell.scss'],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class BodyCell {
+  readonly cell = input.required<DraftCell>();
+
+  protected readonly form = new FormGroup({
+    source: new FormControl<'spheroid' | 'coordinates'>('spheroid', { nonNullable: true }),
+    fineness: new FormControl('', { nonNullable: true }),
+    coordinates: new FormControl('', { nonNullable: true }),
+    panels: new FormControl('', { nonNullable: true }),
+  });
+
+  private readonly binding = bindCellForm<BodyFormValue>({
+    form: this.form,
+    cell: this.cell,
+    toForm: (inputs) => ({
+      source: inputs['source'] === 'coordinates' ? 'coordinates' : 'spheroid',
+      fineness: numberText(inputs['fineness']),
+      coordinates: typeof inputs['coordinates'] === 'string' ? inputs['coordinates'] : '',
+      panels: numberText(inputs['panels']),
+    }),
+    fromForm: (value, previous) => {
+      const inputs: Record<string, unknown> = {
+        ...previous,
+        source: value.source,
+        fineness: numberInput(value.fineness),
+        coordinates: value.coordinates,
+        panels: numberInput(value.panels),
+      };
+      for (const key of Object.keys(inputs)) if (inputs[key] === undefined) delete inputs[key];
+      return inputs;
+    },
+  });
+
+  protected readonly source = computed(() => (this.cell().inputs['source'] === 'coordinates' ? 'coordinates' : 'spheroid'));
+
+  /** The pasted meridian read as it is typed: the first line that is not two numbers, or the point count. */
+  protected readonly coordinatesCheck = computed((): { ok: boolean; text: string } | null => {
+    if (this.source() !== 'coordinates') return null;
+    const text = this.cell().inputs['coordinates'];
+    if (typeof text !== 'string' || text.trim() === '') return null;
+    let points = 0;
+    let title = false;
+    const lines = text.split(/\r\n|\n|\r/);
+    for (let i = 0; i < lines.length; i++) {
+      const content = lines[i]!.replace(/#.*$/, '').trim();
+      if (content === '') continue;
+      if (ROW.test(content)) {
+        points++;
+        continue;
+      }
+      if (points === 0 && !title) {
+        title = true;
+        continue;
+      }
+      return { ok: false, text: `Line ${i + 1}: expected two numbers, x and r` };
+    }
+    return { ok: true, text: `${points} points read from the nose to the tail` };
+  });
+
+  protected readonly result = computed(() => {
+    const shown = shownResult(this.cell());
+    return shown ? (shown.output.result as BodyResult) : null;
+  });
+  protected readonly outline = computed(() => {
+    const r = this.result();
+    return r ? bodyOutlineFigure(r.outline) : null;
+  });
+  protected readonly cp = computed(() => {
+    const r = this.result();
+    return r ? bodyCpFigure(r) : null;
+  });
+
+  protected problem(control: string): string {
+    return this.binding.problems().get(control) ?? '';
+  }
+}
