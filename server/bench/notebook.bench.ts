@@ -11,7 +11,7 @@
  * server's main-thread CPU per run.
  */
 import { randomUUID } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import inspector from 'node:inspector';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
@@ -87,6 +87,27 @@ function mainThreadCpuMs(): number | null {
   return ((Number(fields[11]) + Number(fields[12])) * 1000) / CLOCK_TICKS_PER_SECOND;
 }
 const CLOCK_TICKS_PER_SECOND = 100;
+
+/**
+ * CPU time of the PostgreSQL backends serving the bench's database (every process whose command line
+ * names it: the app's pool, the job queue's connections), from /proc; null where there is none.
+ */
+function postgresCpuMs(database: string): number | null {
+  if (!existsSync('/proc/self/stat')) return null;
+  let ticks = 0;
+  for (const pid of readdirSync('/proc')) {
+    if (!/^\d+$/.test(pid)) continue;
+    try {
+      const cmdline = readFileSync(`/proc/${pid}/cmdline`, 'utf8');
+      if (!cmdline.startsWith('postgres: ') || !cmdline.includes(` ${database} `)) continue;
+      const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+      ticks += Number(fields[11]) + Number(fields[12]);
+    } catch {
+      // the process ended meanwhile
+    }
+  }
+  return (ticks * 1000) / CLOCK_TICKS_PER_SECOND;
+}
 
 function percentile(sorted: number[], p: number): number {
   const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1));
@@ -216,6 +237,8 @@ class BranchEvents {
 }
 
 let counter = 0;
+/** The bench's own database (its name), whose PostgreSQL backends are measured. */
+const DATABASE = isMainThread ? '' : (workerData as { database: string }).database;
 
 /**
  * With BENCH_CPU_PROFILE=folder, the server's thread records a CPU profile of the 20-client runs only
@@ -309,12 +332,13 @@ async function measure(clients: Client[], rounds: number, profile = false) {
   const saves: number[] = [];
   const engine: number[] = [];
   let runSeconds = 0;
-  const cpu = { run: 0, save: 0 };
+  const cpu = { run: 0, save: 0, postgresRun: 0 };
   for (let i = 0; i < rounds; i++) {
     const c0 = mainThreadCpuMs() ?? 0;
     saves.push(...(await Promise.all(clients.map(saveNewInputs))));
     if (profile) await askServer('profile-resume');
     const c1 = mainThreadCpuMs() ?? 0;
+    const p1 = postgresCpuMs(DATABASE) ?? 0;
     const started = performance.now();
     for (const r of await Promise.all(clients.map(run))) {
       runs.push(r.ms);
@@ -324,6 +348,7 @@ async function measure(clients: Client[], rounds: number, profile = false) {
     if (profile) await askServer('profile-pause');
     cpu.save += c1 - c0;
     cpu.run += (mainThreadCpuMs() ?? 0) - c1;
+    cpu.postgresRun += (postgresCpuMs(DATABASE) ?? 0) - p1;
   }
   return {
     run: stats(runs),
@@ -331,6 +356,7 @@ async function measure(clients: Client[], rounds: number, profile = false) {
     engine: stats(engine),
     throughput: runs.length / runSeconds,
     cpuPerRun: cpu.run / runs.length,
+    postgresCpuPerRun: cpu.postgresRun / runs.length,
     cpuPerSave: cpu.save / saves.length,
   };
 }
@@ -350,7 +376,7 @@ if (isMainThread) {
     // The clients' thread: sign in, set up one study each, then the timed rounds.
     // A worker thread has no TypeScript loader of its own: it registers tsx, then loads this file.
     const boot = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}); })`;
-    const clients = new Worker(boot, { eval: true, workerData: { base, projectId: t.demo.projectId, table: section.text } });
+    const clients = new Worker(boot, { eval: true, workerData: { base, projectId: t.demo.projectId, table: section.text, database: t.database.name } });
     const profiler = PROFILE_DIR ? new RunProfiler() : null;
     await new Promise<void>((resolve, reject) => {
       clients.on('message', (m: { line?: string; ask?: 'profile-resume' | 'profile-pause' }) => {
@@ -366,7 +392,7 @@ if (isMainThread) {
     await t.close();
   }
 } else {
-  const { base, projectId, table } = workerData as { base: string; projectId: string; table: string };
+  const { base, projectId, table } = workerData as { base: string; projectId: string; table: string; database: string };
   const say = (line: string) => parentPort!.postMessage({ line });
   const sessions = await Promise.all(Array.from({ length: 20 }, () => Session.signIn(base, 'engineer')));
   const clients = await Promise.all(sessions.map((s, i) => setUpClient(s, projectId, table, i)));
@@ -412,6 +438,7 @@ if (isMainThread) {
       `${String(count).padStart(7)}  ${String(m.run.n).padStart(6)}  ${fmt(m.run.median)}  ${fmt(m.run.p95)}  ${fmt(m.run.max)}  ${fmt(m.save.median)}  ${fmt(m.save.p95)}  ${fmt(m.engine.median)}     ${m.throughput.toFixed(0).padStart(4)}`,
     );
     say(`         server main-thread CPU: ${m.cpuPerRun.toFixed(2)} ms per run, ${m.cpuPerSave.toFixed(2)} ms per save (this thread's own CPU time: it varies less than wall time with what else runs on the cores)`);
+    say(`         PostgreSQL CPU (the backends of the bench's database): ${m.postgresCpuPerRun.toFixed(2)} ms per run`);
   }
   const me1 = stats(await floor(1, 20));
   const me20 = stats(floors);
