@@ -1,4 +1,4 @@
-import { eq, inArray, sql } from 'drizzle-orm';
+import { eq, getTableName, inArray, sql } from 'drizzle-orm';
 import { ENGINE_VERSION, upstreamFailedError } from '@laminote/aero';
 import {
   CELL_KIND_LABELS,
@@ -16,6 +16,7 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/types';
 import { audit } from '../audit/audit';
 import type { Db, Tx } from '../db/client';
+import type pg from 'pg';
 import { auditEvents, cells as cellsTable, drafts, outputs, studies, users } from '../db/schema';
 import { EngineBusyError, type ComputedOutput, type EnginePool } from '../engine/pool';
 import { badRequest, conflict, ProblemError } from '../http/problem';
@@ -31,8 +32,41 @@ type DraftRow = typeof drafts.$inferSelect;
 type TrashEntry = DraftRow['trash'][number] & { lastGoodOutputKey?: string | null };
 type SaveDraftBody = z.infer<typeof saveDraftSchema>;
 
-/** A column's name as SQL, for statements written out. */
-const col = (c: { name: string }) => sql.identifier(c.name);
+/** A column's name as it stands in SQL text. */
+const q = (c: { name: string }) => `"${c.name}"`;
+
+/**
+ * What storeAndMark runs, as one prepared statement: the fresh outputs ($1, rows for
+ * jsonb_to_recordset) stored once by key, the draft's cells marked with their new keys ($2) merged in
+ * the database as they are now, and the run's audit event, all or nothing. Parameters: $3 the branch,
+ * $4 the actor, $5 the project, $6 the audit detail.
+ */
+const STORE_AND_MARK = `
+  with incoming as (
+    select * from jsonb_to_recordset($1::jsonb)
+      as o(key text, kind text, status text, result jsonb, error jsonb, engine_version text, duration_ms integer)
+  ), stored as (
+    insert into "${getTableName(outputs)}" (${[outputs.key, outputs.kind, outputs.status, outputs.result, outputs.error, outputs.engineVersion, outputs.durationMs].map(q).join(', ')})
+    select key, kind, status, result, error, engine_version, duration_ms from incoming
+    on conflict do nothing
+    returning ${q(outputs.key)} as key, ${q(outputs.computedAt)} as computed_at
+  ), marked as (
+    update "${getTableName(drafts)}" set ${q(drafts.cells)} = (
+      select coalesce(jsonb_agg(
+        case when m.cell_id is null then e.cell
+        else e.cell || jsonb_build_object('lastOutputKey', m.key, 'lastGoodOutputKey', case when m.ok then to_jsonb(m.key) else coalesce(e.cell -> 'lastGoodOutputKey', 'null'::jsonb) end)
+        end order by e.position), '[]'::jsonb)
+      from jsonb_array_elements(${q(drafts.cells)}) with ordinality as e(cell, position)
+      left join jsonb_to_recordset($2::jsonb) as m(cell_id text, key text, ok boolean) on m.cell_id = e.cell ->> 'cellId'
+    )
+    where ${q(drafts.branchId)} = $3::uuid and jsonb_array_length($2::jsonb) > 0
+    returning ${q(drafts.revision)} as revision
+  ), logged as (
+    insert into "${getTableName(auditEvents)}" (${[auditEvents.actorId, auditEvents.projectId, auditEvents.action, auditEvents.targetType, auditEvents.targetId, auditEvents.detail].map(q).join(', ')})
+    select $4::uuid, $5::uuid, 'cells.run', 'branch', $3::text, $6::jsonb from marked
+  )
+  select (select revision from marked) as revision,
+    coalesce((select jsonb_agg(jsonb_build_array(key, computed_at)) from stored), '[]'::jsonb) as stored`;
 
 /** A run as planned from one reading of the draft (NotebookService.planRun). */
 export interface PlannedRun {
@@ -386,43 +420,21 @@ export class NotebookService {
     marks: { cell_id: string; key: string; ok: boolean }[],
     detail: Record<string, unknown>,
   ): Promise<{ revision: number | null; storedNow: CachedOutput[] }> {
-    const audited = sql`insert into ${auditEvents} (${col(auditEvents.actorId)}, ${col(auditEvents.projectId)}, ${col(auditEvents.action)}, ${col(auditEvents.targetType)}, ${col(auditEvents.targetId)}, ${col(auditEvents.detail)})
-        select ${actor.id}::uuid, ${ctx.projectId}::uuid, 'cells.run', 'branch', ${ctx.branch.id}::text, ${JSON.stringify(detail)}::jsonb`;
+    // The run's audit event on its own, when no draft cell was marked.
+    const auditAlone = () => audit(this.db, { actorId: actor.id, projectId: ctx.projectId, action: 'cells.run', targetType: 'branch', targetId: ctx.branch.id, detail });
     if (fresh.length === 0 && marks.length === 0) {
-      await this.db.execute(audited);
+      await auditAlone();
       return { revision: null, storedNow: [] };
     }
-    const parts = [sql`incoming as (
-        select * from jsonb_to_recordset(${freshOutputsJson(fresh, ENGINE_VERSION)}::jsonb)
-          as o(key text, kind text, status text, result jsonb, error jsonb, engine_version text, duration_ms integer)
-      ), stored as (
-        insert into ${outputs} (${col(outputs.key)}, ${col(outputs.kind)}, ${col(outputs.status)}, ${col(outputs.result)}, ${col(outputs.error)}, ${col(outputs.engineVersion)}, ${col(outputs.durationMs)})
-        select key, kind, status, result, error, engine_version, duration_ms from incoming
-        on conflict do nothing
-        returning ${col(outputs.key)} as key, ${col(outputs.computedAt)} as computed_at
-      )`];
-    if (marks.length) {
-      parts.push(sql`marked as (
-        update ${drafts} set ${col(drafts.cells)} = (
-          select coalesce(jsonb_agg(
-            case when m.cell_id is null then e.cell
-            else e.cell || jsonb_build_object('lastOutputKey', m.key, 'lastGoodOutputKey', case when m.ok then to_jsonb(m.key) else coalesce(e.cell -> 'lastGoodOutputKey', 'null'::jsonb) end)
-            end order by e.position), '[]'::jsonb)
-          from jsonb_array_elements(${drafts.cells}) with ordinality as e(cell, position)
-          left join jsonb_to_recordset(${JSON.stringify(marks)}::jsonb) as m(cell_id text, key text, ok boolean) on m.cell_id = e.cell ->> 'cellId'
-        )
-        where ${drafts.branchId} = ${ctx.branch.id}
-        returning ${col(drafts.revision)} as revision
-      ), logged as (
-        ${audited} from marked
-      )`);
-    }
-    const { rows } = await this.db.execute<{ revision: number | null; stored: [string, string][] }>(sql`
-      with ${sql.join(parts, sql`, `)}
-      select ${marks.length ? sql`(select revision from marked)` : sql`null::integer`} as revision,
-        coalesce((select jsonb_agg(jsonb_build_array(key, computed_at)) from stored), '[]'::jsonb) as stored`);
+    // Through the pool drizzle runs on (its documented $client), to prepare the statement by name.
+    const pool = (this.db as Db & { $client: pg.Pool }).$client;
+    const { rows } = await pool.query<{ revision: number | null; stored: [string, string][] }>({
+      name: 'run_store_and_mark',
+      text: STORE_AND_MARK,
+      values: [freshOutputsJson(fresh, ENGINE_VERSION), JSON.stringify(marks), ctx.branch.id, actor.id, ctx.projectId, JSON.stringify(detail)],
+    });
     const revision = rows[0]?.revision ?? null;
-    if (revision === null) await this.db.execute(audited);
+    if (revision === null) await auditAlone();
     const computedAt = new Map(rows[0]?.stored ?? []);
     const storedNow: CachedOutput[] = [];
     const takenMeanwhile: string[] = [];
