@@ -237,6 +237,8 @@ class BranchEvents {
 }
 
 let counter = 0;
+/** Sizes of the runs' answers (200), in bytes. */
+const answerBytes: number[] = [];
 /** The bench's own database (its name), whose PostgreSQL backends are measured. */
 const DATABASE = isMainThread ? '' : (workerData as { database: string }).database;
 
@@ -297,7 +299,9 @@ async function run(client: Client): Promise<{ ms: number; engine: number }> {
   let output: { key: string; status: string; durationMs: number } | null | undefined;
   let report: RunResponse['ran'][number] | undefined;
   if (res.status === 200) {
-    const body = (await res.json()) as RunResponse & { cells?: Draft['cells'] };
+    const text = await res.text();
+    answerBytes.push(Buffer.byteLength(text));
+    const body = JSON.parse(text) as RunResponse & { cells?: Draft['cells'] };
     report = body.ran.find((r) => r.cellId === client.analysisId);
     output = body.cells?.find((c) => c.cellId === client.analysisId)?.output;
     if (report && (report.status !== 'ok' || report.reused)) throw new Error(`the analysis did not compute afresh: ${JSON.stringify(report)}`);
@@ -444,6 +448,7 @@ if (isMainThread) {
   const me20 = stats(floors);
   say(`reference, GET /api/me (session and user only) at  1 concurrent: median ${me1.median.toFixed(1)} ms, p95 ${me1.p95.toFixed(1)} ms`);
   say(`reference, GET /api/me (session and user only) at 20 concurrent: median ${me20.median.toFixed(1)} ms, p95 ${me20.p95.toFixed(1)} ms (taken around the 20-client runs)`);
+  say(`a run's answer (200): median ${(stats(answerBytes).median / 1024).toFixed(1)} kB`);
   say(`reference, GET /api/me: server main-thread CPU ${(floorCpu.ms / floorCpu.requests).toFixed(2)} ms a request (what any signed-in request costs before its own work)`);
   const at20 = results.get(20)!;
   const ratio = at20.run.p95 / me20.p95;
