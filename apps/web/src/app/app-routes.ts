@@ -2,6 +2,7 @@ import type { Routes } from '@angular/router';
 import { landingWhenSignedOut, requireSignIn } from './core/guards';
 import { Landing } from './landing/landing';
 import { NotFound } from './shared/not-found';
+import { prefetchNotebook } from './notebook/prefetch';
 
 const loadNotebookPage = () => import('./notebook/notebook-page');
 
@@ -10,7 +11,7 @@ const loadNotebookPage = () => import('./notebook/notebook-page');
  * for the sign-in check): a study opened from a link or a reload then needs no second round of fetches.
  */
 export function prefetchRouteCode(path: string): void {
-  if (/^\/studies\/[^/]+\/?$/.test(path)) void loadNotebookPage().catch(() => undefined);
+  if (/^\/studies\/[^/]+\/?$/.test(path)) prefetchNotebook();
 }
 
 export const routes: Routes = [
