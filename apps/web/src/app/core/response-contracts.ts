@@ -20,7 +20,7 @@ import type { z } from 'zod';
 export interface ResponseContracts {
   branches: Branch[];
   draft: Draft;
-  upload: UploadResponse;
+  uploadedTable: UploadResponse;
   job: Job;
   studies: Study[];
   study: Study;

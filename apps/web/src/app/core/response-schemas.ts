@@ -24,7 +24,7 @@ import type { ResponseSchemas } from './response-contracts';
 export const RESPONSE_SCHEMAS: ResponseSchemas | null = {
   branches: branchSchema.array(),
   draft: draftSchema,
-  upload: uploadResponseSchema,
+  uploadedTable: uploadResponseSchema,
   job: jobSchema,
   studies: studySchema.array(),
   study: studySchema,

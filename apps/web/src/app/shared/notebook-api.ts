@@ -41,7 +41,7 @@ export class NotebookApi {
   upload(studyId: string, file: File): Observable<UploadResponse> {
     const form = new FormData();
     form.append('file', file, file.name);
-    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/uploads`, form).pipe(checked('upload', 'an upload'));
+    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/uploads`, form).pipe(checked('uploadedTable', 'an upload'));
   }
 
   /** Where a cell's result downloads from (a plain GET, so a link can fetch it with the session cookie). */
