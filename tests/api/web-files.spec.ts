@@ -1,0 +1,52 @@
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, type TestApp } from '../support/app';
+import { testEnv } from '../support/env';
+import { signIn } from '../support/sign-in';
+
+/**
+ * The built web app as the server sends it (issue 15, cold opens): ahead of the session, compressed,
+ * its content-hashed files kept by browsers for a year, index.html asked for every time; the API and
+ * its answers untouched by any of it.
+ */
+
+let t: TestApp;
+const script = `export const laminote = ${JSON.stringify('x'.repeat(4000))};\n`;
+
+beforeAll(async () => {
+  const web = mkdtempSync(path.join(tmpdir(), 'laminote-web-'));
+  writeFileSync(path.join(web, 'index.html'), '<!doctype html><title>Laminote</title><lam-root></lam-root>');
+  writeFileSync(path.join(web, 'chunk-2LGABYPY.js'), script);
+  t = await createTestApp({ WEB_DIST: web }, { worker: false });
+});
+afterAll(async () => t?.close());
+
+describe('the web app’s files', () => {
+  it('sends a content-hashed file compressed, to be kept a year, without touching the session', async () => {
+    const res = await request(t.app).get('/chunk-2LGABYPY.js').set('accept-encoding', 'gzip').expect(200);
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(res.headers['content-encoding']).toBe('gzip');
+    expect(res.text).toBe(script);
+    expect(res.headers['set-cookie']).toBeUndefined();
+    // The security headers still come with it.
+    expect(res.headers['content-security-policy']).toContain("script-src 'self'");
+  });
+
+  it('answers an address of the app with index.html, asked for again every time', async () => {
+    const res = await request(t.app).get('/studies/00000000-0000-4000-8000-000000000001').expect(200);
+    expect(res.headers['cache-control']).toBe('no-cache');
+    expect(res.text).toContain('<lam-root>');
+    expect(res.headers['set-cookie']).toBeUndefined();
+  });
+
+  it('leaves the API alone: not compressed here, unknown routes still 404 problem+json', async () => {
+    const me = await signIn(t.app, 'engineer', testEnv.publicUrl);
+    const projects = await me.get('/api/projects').set('accept-encoding', 'gzip').expect(200);
+    expect(projects.headers['content-encoding']).toBeUndefined();
+    const missing = await me.get('/api/no-such-thing').expect(404);
+    expect(missing.headers['content-type']).toMatch(/application\/problem\+json/);
+  });
+});
