@@ -43,6 +43,7 @@ let studyId: string;
  */
 const REPORT_PLOTS: Record<string, string[]> = {
   pressure: ['Pressure distribution'],
+  body: ['Meridian', 'Pressure distribution (axisymmetric panel method, incompressible)'],
   analysis: ['Amplification N (envelope eᴺ)', 'Shape factor H', 'Skin friction cf'],
   sweep: ['Transition against the swept parameter', 'Profile drag against the swept parameter'],
 };
