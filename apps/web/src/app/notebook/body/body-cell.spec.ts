@@ -68,6 +68,10 @@ describe('BodyCell', () => {
     fixture.detectChanges();
     expect(el.querySelector('.read-check')?.textContent).toContain('Line 3: expected two numbers, x and r');
     expect(session.cell(BODY_ID)?.inputs).toMatchObject({ source: 'coordinates', coordinates: text });
+    // The same reader as the engine's: a tail off the axis is said while typing, not only after a run.
+    await (await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="coordinates"]' }))).setValue('0 0\n0.2 0.07\n0.5 0.09\n0.8 0.06\n1 0.03');
+    fixture.detectChanges();
+    expect(el.querySelector('.read-check')?.textContent).toContain('The meridian must start and end on the axis');
   });
 
   it('draws the meridian on both sides of the axis, with room round the widest point', () => {

@@ -4,6 +4,7 @@ import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { readBodyMeridian, ShapeInputError } from '@laminote/aero/section-case';
 import type { BodyResult, DraftCell } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
@@ -16,9 +17,6 @@ interface BodyFormValue {
   coordinates: string;
   panels: string;
 }
-
-/** One `x r` row as the meridian reader takes it: two numbers, separated by spaces, a comma, a semicolon or a tab. */
-const ROW = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*[,;\t ]\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*[,;]?\s*$/;
 
 /**
  * Body of revolution: a prolate spheroid of a fineness ratio, or a pasted meridian from the nose to the
@@ -66,28 +64,18 @@ export class BodyCell {
 
   protected readonly source = computed(() => (this.cell().inputs['source'] === 'coordinates' ? 'coordinates' : 'spheroid'));
 
-  /** The pasted meridian read as it is typed: the first line that is not two numbers, or the point count. */
+  /** The pasted meridian read as it is typed, by the engine's own reader: the first problem by its line, or the point count. */
   protected readonly coordinatesCheck = computed((): { ok: boolean; text: string } | null => {
     if (this.source() !== 'coordinates') return null;
     const text = this.cell().inputs['coordinates'];
     if (typeof text !== 'string' || text.trim() === '') return null;
-    let points = 0;
-    let title = false;
-    const lines = text.split(/\r\n|\n|\r/);
-    for (let i = 0; i < lines.length; i++) {
-      const content = lines[i]!.replace(/#.*$/, '').trim();
-      if (content === '') continue;
-      if (ROW.test(content)) {
-        points++;
-        continue;
-      }
-      if (points === 0 && !title) {
-        title = true;
-        continue;
-      }
-      return { ok: false, text: `Line ${i + 1}: expected two numbers, x and r` };
+    try {
+      return { ok: true, text: `${readBodyMeridian(text).x.length} points read from the nose to the tail` };
+    } catch (error) {
+      if (!(error instanceof ShapeInputError)) throw error;
+      const message = error.message.replace(/^line \d+: /, '');
+      return { ok: false, text: error.line ? `Line ${error.line}: ${message}` : message.charAt(0).toUpperCase() + message.slice(1) };
     }
-    return { ok: true, text: `${points} points read from the nose to the tail` };
   });
 
   protected readonly result = computed(() => {
