@@ -31,6 +31,7 @@ import {
   studyReviewSchema,
   threadQuerySchema,
   threadSchema,
+  unreadCountSchema,
   updateNotificationPrefsSchema,
   versionReviewDetailSchema,
 } from './review';
@@ -89,7 +90,7 @@ export interface ApiOperation {
 
 const named = (name: string, schema: z.ZodType): NamedSchema => ({ name, schema });
 const list = (name: string, schema: z.ZodType): NamedSchema => ({ name: `${name}List`, schema: z.array(schema) });
-const unreadCount = named('UnreadCount', z.object({ unreadCount: z.number().int() }));
+const unreadCount = named('UnreadCount', unreadCountSchema);
 const csv = { contentType: 'text/csv', description: 'The cell’s result as CSV (or JSON with ?format=json).' };
 
 const op = (method: HttpMethod, path: string, tag: string, summary: string, rest: Partial<ApiOperation> = {}): ApiOperation => ({

@@ -268,6 +268,10 @@ export type ReadAbout = z.infer<typeof readAboutSchema>;
 export const inboxSchema = z.object({ items: z.array(notificationSchema), unreadCount: z.number().int() });
 export type Inbox = z.infer<typeof inboxSchema>;
 
+/** What marking notifications read answers: how many are still unread. */
+export const unreadCountSchema = z.object({ unreadCount: z.number().int() });
+export type UnreadCount = z.infer<typeof unreadCountSchema>;
+
 /** GET/PUT /api/me/notification-prefs: which notifications reach the person by e-mail (the inbox gets all). */
 export const notificationPrefsSchema = z.object({
   mention: z.boolean(),

@@ -1,8 +1,9 @@
 import { HttpClient, HttpErrorResponse } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
-import type { Logout, Me, Problem } from '@laminote/contracts';
+import type { Me, Problem } from '@laminote/contracts';
 import { firstValueFrom } from 'rxjs';
 import { API_BASE, AUTH_BASE } from './api-base';
+import { checked, ContractDriftError } from './checked';
 import { PageNavigation } from './page-navigation';
 import { toProblem } from './problem';
 
@@ -31,12 +32,14 @@ export class Auth {
   });
   readonly signedIn = computed(() => this.me() !== null);
 
-  /** Asks the server who is signed in. Never rejects: a failure becomes the `unavailable` state. */
+  /** Asks the server who is signed in. Never rejects (but for a contract drift in development): a failure becomes the `unavailable` state. */
   async load(): Promise<void> {
     try {
-      const me = await firstValueFrom(this.http.get<Me>(`${this.apiBase}/me`));
+      const me = await firstValueFrom(this.http.get(`${this.apiBase}/me`).pipe(checked('me', 'the signed-in person')));
       this.stateSignal.set({ status: 'signedIn', me });
     } catch (error) {
+      // A contract drift (development builds and unit tests only) is a defect to see, not an outage.
+      if (error instanceof ContractDriftError) throw error;
       if (error instanceof HttpErrorResponse && error.status === 401) {
         this.stateSignal.set({ status: 'signedOut' });
       } else {
@@ -58,7 +61,7 @@ export class Auth {
 
   /** Ends the session here and at the provider, whose end-session page the server names. */
   async signOut(): Promise<void> {
-    const { redirectTo } = await firstValueFrom(this.http.post<Logout>(`${this.authBase}/logout`, {}));
+    const { redirectTo } = await firstValueFrom(this.http.post(`${this.authBase}/logout`, {}).pipe(checked('signedOut', 'signing out')));
     this.stateSignal.set({ status: 'signedOut' });
     this.page.assign(redirectTo);
   }

@@ -2,16 +2,30 @@ import type {
   Branch,
   BranchOverview,
   Comparison,
+  CommentRevision,
+  CreatedToken,
   Draft,
+  Inbox,
   ImportStudyResult,
   Job,
+  Logout,
+  Me,
   Member,
+  NotificationPrefs,
   Project,
   RestoreResult,
+  RunQueued,
+  RunResponse,
   Study,
   StudyHistory,
+  StudyReview,
+  Thread,
+  TokenSummary,
+  UnreadCount,
   UploadResponse,
+  ValidationReport,
   VersionDetail,
+  VersionReviewDetail,
   VersionSummary,
 } from '@laminote/contracts';
 import type { z } from 'zod';
@@ -35,6 +49,21 @@ export interface ResponseContracts {
   restoreResult: RestoreResult;
   branchOverview: BranchOverview;
   comparison: Comparison;
+  runAnswer: RunResponse | RunQueued;
+  me: Me;
+  signedOut: Logout;
+  threads: Thread[];
+  thread: Thread;
+  commentRevisions: CommentRevision[];
+  studyReview: StudyReview;
+  versionReview: VersionReviewDetail;
+  tokens: TokenSummary[];
+  token: TokenSummary;
+  createdToken: CreatedToken;
+  validationReport: ValidationReport;
+  inbox: Inbox;
+  unreadCount: UnreadCount;
+  notificationPrefs: NotificationPrefs;
 }
 
 export type ResponseName = keyof ResponseContracts;

@@ -1,8 +1,9 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { Inbox, NotificationPrefs, ReadAbout, SinkMessage, UpdateNotificationPrefs } from '@laminote/contracts';
+import type { Inbox, NotificationPrefs, ReadAbout, SinkMessage, UnreadCount, UpdateNotificationPrefs } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
+import { checked } from '../core/checked';
 
 /** The signed-in person's inbox, their notification preferences, and the development mail page. */
 @Injectable({ providedIn: 'root' })
@@ -11,32 +12,32 @@ export class InboxApi {
   private readonly base = inject(API_BASE);
 
   list(options: { unreadOnly: boolean }): Observable<Inbox> {
-    return this.http.get<Inbox>(`${this.base}/inbox`, { params: options.unreadOnly ? { unread: 'true' } : {} });
+    return this.http.get(`${this.base}/inbox`, { params: options.unreadOnly ? { unread: 'true' } : {} }).pipe(checked('inbox', 'the inbox'));
   }
 
-  unreadCount(): Observable<{ unreadCount: number }> {
-    return this.http.get<{ unreadCount: number }>(`${this.base}/inbox/unread-count`);
+  unreadCount(): Observable<UnreadCount> {
+    return this.http.get(`${this.base}/inbox/unread-count`).pipe(checked('unreadCount', 'the unread count'));
   }
 
-  markRead(notificationId: string): Observable<{ unreadCount: number }> {
-    return this.http.post<{ unreadCount: number }>(`${this.base}/inbox/${encodeURIComponent(notificationId)}/read`, {});
+  markRead(notificationId: string): Observable<UnreadCount> {
+    return this.http.post(`${this.base}/inbox/${encodeURIComponent(notificationId)}/read`, {}).pipe(checked('unreadCount', 'the unread count'));
   }
 
   /** Marks read the entries about a thread or a version the person has just opened. */
-  markReadAbout(about: ReadAbout): Observable<{ unreadCount: number }> {
-    return this.http.post<{ unreadCount: number }>(`${this.base}/inbox/read-about`, about);
+  markReadAbout(about: ReadAbout): Observable<UnreadCount> {
+    return this.http.post(`${this.base}/inbox/read-about`, about).pipe(checked('unreadCount', 'the unread count'));
   }
 
-  markAllRead(): Observable<{ unreadCount: number }> {
-    return this.http.post<{ unreadCount: number }>(`${this.base}/inbox/read-all`, {});
+  markAllRead(): Observable<UnreadCount> {
+    return this.http.post(`${this.base}/inbox/read-all`, {}).pipe(checked('unreadCount', 'the unread count'));
   }
 
   prefs(): Observable<NotificationPrefs> {
-    return this.http.get<NotificationPrefs>(`${this.base}/me/notification-prefs`);
+    return this.http.get(`${this.base}/me/notification-prefs`).pipe(checked('notificationPrefs', 'the notification settings'));
   }
 
   updatePrefs(change: UpdateNotificationPrefs): Observable<NotificationPrefs> {
-    return this.http.put<NotificationPrefs>(`${this.base}/me/notification-prefs`, change);
+    return this.http.put(`${this.base}/me/notification-prefs`, change).pipe(checked('notificationPrefs', 'the saved notification settings'));
   }
 
   /** Site admins, outside production: what the development mail sink received. */

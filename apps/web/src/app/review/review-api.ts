@@ -11,6 +11,7 @@ import type {
 } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
+import { checked } from '../core/checked';
 
 /** What a person is looking at while they comment: a saved version, or a branch's draft. */
 export type ReviewView = { readonly versionId: string } | { readonly branchId: string };
@@ -37,42 +38,42 @@ export class ReviewApi {
   }
 
   threads(studyId: string, view: ReviewView): Observable<Thread[]> {
-    return this.http.get<Thread[]>(`${this.base}/studies/${encodeURIComponent(studyId)}/threads`, { params: viewParams(view) });
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/threads`, { params: viewParams(view) }).pipe(checked('threads', 'the comment threads of a study'));
   }
 
   startThread(studyId: string, body: CreateThread, view: ReviewView): Observable<Thread> {
-    return this.http.post<Thread>(`${this.base}/studies/${encodeURIComponent(studyId)}/threads`, body, { params: viewParams(view) });
+    return this.http.post(`${this.base}/studies/${encodeURIComponent(studyId)}/threads`, body, { params: viewParams(view) }).pipe(checked('thread', 'a new thread'));
   }
 
   reply(threadId: string, body: string, view: ReviewView): Observable<Thread> {
-    return this.http.post<Thread>(`${this.thread(threadId)}/comments`, { body }, { params: viewParams(view) });
+    return this.http.post(`${this.thread(threadId)}/comments`, { body }, { params: viewParams(view) }).pipe(checked('thread', 'a thread after a reply'));
   }
 
   setResolved(threadId: string, resolved: boolean, view: ReviewView): Observable<Thread> {
-    return this.http.post<Thread>(`${this.thread(threadId)}/${resolved ? 'resolve' : 'reopen'}`, {}, { params: viewParams(view) });
+    return this.http.post(`${this.thread(threadId)}/${resolved ? 'resolve' : 'reopen'}`, {}, { params: viewParams(view) }).pipe(checked('thread', 'a resolved or reopened thread'));
   }
 
   editComment(commentId: string, body: string, view: ReviewView): Observable<Thread> {
-    return this.http.patch<Thread>(`${this.base}/comments/${encodeURIComponent(commentId)}`, { body }, { params: viewParams(view) });
+    return this.http.patch(`${this.base}/comments/${encodeURIComponent(commentId)}`, { body }, { params: viewParams(view) }).pipe(checked('thread', 'a thread after an edit'));
   }
 
   revisions(commentId: string): Observable<CommentRevision[]> {
-    return this.http.get<CommentRevision[]>(`${this.base}/comments/${encodeURIComponent(commentId)}/revisions`);
+    return this.http.get(`${this.base}/comments/${encodeURIComponent(commentId)}/revisions`).pipe(checked('commentRevisions', 'the earlier texts of a comment'));
   }
 
   studyReview(studyId: string): Observable<StudyReview> {
-    return this.http.get<StudyReview>(`${this.base}/studies/${encodeURIComponent(studyId)}/review`);
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/review`).pipe(checked('studyReview', 'the review state of a study'));
   }
 
   versionReview(versionId: string): Observable<VersionReviewDetail> {
-    return this.http.get<VersionReviewDetail>(`${this.base}/versions/${encodeURIComponent(versionId)}/review`);
+    return this.http.get(`${this.base}/versions/${encodeURIComponent(versionId)}/review`).pipe(checked('versionReview', 'the review of a version'));
   }
 
   requestReview(versionId: string, body: RequestReview): Observable<VersionReviewDetail> {
-    return this.http.post<VersionReviewDetail>(`${this.base}/versions/${encodeURIComponent(versionId)}/review-requests`, body);
+    return this.http.post(`${this.base}/versions/${encodeURIComponent(versionId)}/review-requests`, body).pipe(checked('versionReview', 'a review request'));
   }
 
   giveVerdict(versionId: string, body: GiveVerdict): Observable<VersionReviewDetail> {
-    return this.http.post<VersionReviewDetail>(`${this.base}/versions/${encodeURIComponent(versionId)}/verdicts`, body);
+    return this.http.post(`${this.base}/versions/${encodeURIComponent(versionId)}/verdicts`, body).pipe(checked('versionReview', 'a verdict'));
   }
 }

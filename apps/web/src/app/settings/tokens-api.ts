@@ -3,6 +3,7 @@ import { Injectable, inject } from '@angular/core';
 import type { CreateToken, CreatedToken, TokenSummary } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
+import { checked } from '../core/checked';
 
 /** The signed-in person's personal API tokens. */
 @Injectable({ providedIn: 'root' })
@@ -11,14 +12,14 @@ export class TokensApi {
   private readonly base = inject(API_BASE);
 
   list(): Observable<TokenSummary[]> {
-    return this.http.get<TokenSummary[]>(`${this.base}/me/tokens`);
+    return this.http.get(`${this.base}/me/tokens`).pipe(checked('tokens', 'the API tokens'));
   }
 
   create(input: CreateToken): Observable<CreatedToken> {
-    return this.http.post<CreatedToken>(`${this.base}/me/tokens`, input);
+    return this.http.post(`${this.base}/me/tokens`, input).pipe(checked('createdToken', 'a new API token'));
   }
 
   revoke(tokenId: string): Observable<TokenSummary> {
-    return this.http.delete<TokenSummary>(`${this.base}/me/tokens/${encodeURIComponent(tokenId)}`);
+    return this.http.delete(`${this.base}/me/tokens/${encodeURIComponent(tokenId)}`).pipe(checked('token', 'a revoked API token'));
   }
 }

@@ -35,7 +35,7 @@ export class NotebookApi {
    * what ran when it was done at once, or the job that was queued (follow it with JobsApi).
    */
   run(branchId: string, body: RunRequest): Observable<RunResponse | RunQueued> {
-    return this.http.post<RunResponse | RunQueued>(`${this.branch(branchId)}/run`, body);
+    return this.http.post(`${this.branch(branchId)}/run`, body).pipe(checked('runAnswer', 'the answer to a run'));
   }
 
   upload(studyId: string, file: File): Observable<UploadResponse> {

@@ -7,7 +7,7 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { MatMenuHarness } from '@angular/material/menu/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { Router } from '@angular/router';
-import type { ProjectAccess, SaveConflict } from '@laminote/contracts';
+import type { ProjectAccess, SaveConflict, VersionReviewDetail } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, problemResponse, provideTestApp, study } from '../../testing/test-app';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
@@ -180,6 +180,27 @@ describe('VersionBar', () => {
     expect(navigate).toHaveBeenCalledWith(['/studies', STUDY_ID], { queryParams: { branch: VARIANT_ID } });
   });
 
+  /** The server's answer to a review request: the version's review, waiting for Lotte. */
+  function sentForReview(versionId: string, versionNumber: number): VersionReviewDetail {
+    const lotte = MEMBERS.find((m) => m.userId === REVIEWER_ID)!;
+    return {
+      summary: {
+        versionId,
+        versionNumber,
+        branchId: MAIN_ID,
+        state: 'none',
+        approvals: 0,
+        changesRequested: 0,
+        pendingReviewers: [{ id: REVIEWER_ID, name: lotte.name }],
+        earlierVerdict: null,
+      },
+      requests: [],
+      verdicts: [],
+      canRequest: true,
+      canGiveVerdict: false,
+    };
+  }
+
   /** Answers the send-for-review dialog's look-up of the project's reviewers, then picks Lotte and sends. */
   async function sendToLotte(root: ReturnType<typeof TestbedHarnessEnvironment.documentRootLoader>, versionId: string) {
     for (const r of http.match(`/api/studies/${STUDY_ID}`)) r.flush(study({ id: STUDY_ID }));
@@ -201,7 +222,7 @@ describe('VersionBar', () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: /Send for review/ }))).click();
     await fixture.whenStable();
     const { sent } = await sendToLotte(root, V2_ID);
-    sent.flush({ summary: { versionId: V2_ID }, requests: [], verdicts: [], canRequest: true, canGiveVerdict: false });
+    sent.flush(sentForReview(V2_ID, 2));
     await fixture.whenStable();
     expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
   });
@@ -219,7 +240,7 @@ describe('VersionBar', () => {
     await fixture.whenStable();
     const { dialog, sent } = await sendToLotte(root, V3_ID);
     expect(await dialog.getTitleText()).toBe('Send version 3 of main for review');
-    sent.flush({ summary: { versionId: V3_ID }, requests: [], verdicts: [], canRequest: true, canGiveVerdict: false });
+    sent.flush(sentForReview(V3_ID, 3));
   });
 
   it('offers a viewer no way to send for review', async () => {
