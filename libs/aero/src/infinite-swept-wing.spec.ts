@@ -159,7 +159,10 @@ describe('rear stagnation points', () => {
     expect(upper!.stations.s.length).toBe(lower!.stations.s.length);
     expect(upper!.transition.s!).toBeCloseTo(lower!.transition.s!, 6);
     expect(upper!.transition.by).toBe(lower!.transition.by);
-    expect(upper!.cd!).toBeCloseTo(lower!.cd!, 8);
+    // The table is mirror-symmetric to the bit (each row's x and cp equal, y negated, in the 12-decimal
+    // text), and the engine builds both surfaces alike from the stagnation point: the same numbers.
+    expect(upper!.stations).toEqual(lower!.stations);
+    expect(upper!.cd!).toBe(lower!.cd!);
     // The layer does not reach the rear stagnation point attached: it separates (laminar or turbulent) first.
     expect(upper!.turbulentSeparation ?? upper!.laminarSeparation).not.toBeNull();
   });

@@ -78,3 +78,44 @@ describe('stagnation point on a station: ellipse at zero incidence (exact potent
     expect(Math.abs(split.stagnation.velocityGradient / ((a + b) / (b * b)) - 1)).toBeLessThan(0.01);
   });
 });
+
+describe('a loop mirror-symmetric about its chord to the bit (ellipse at zero incidence, exact potential flow)', () => {
+  // The upper half of the ellipse x = a(1 + cos η), y = b sin η, mirrored by negating y; speed as above
+  // (Milne-Thomson, "Theoretical Hydrodynamics"). Odd count: a station on the stagnation point; even
+  // count: the stagnation point midway between two stations.
+  const a = 0.5;
+  const b = 0.06;
+  const mirrored = (half: number, withNose: boolean) => {
+    const eta = Array.from({ length: half }, (_, i) => (Math.PI * i) / (withNose ? half - 1 : half - 0.5));
+    // The nose point goes on the chord (sin π is 1.2e-16 in doubles), so that the loop is its own mirror image.
+    const upper = eta.map((e, i) => ({
+      x: a * Math.cos(e) + a,
+      y: withNose && i === half - 1 ? 0 : b * Math.sin(e),
+      speed: ((1 + b / a) * Math.abs(Math.sin(e))) / Math.sqrt(Math.sin(e) ** 2 + (b / a) ** 2 * Math.cos(e) ** 2),
+    }));
+    const lower = upper.slice(0, withNose ? -1 : undefined).reverse().map((p) => ({ ...p, y: -p.y }));
+    const loop = [...upper, ...lower];
+    return { x: loop.map((p) => p.x), y: loop.map((p) => p.y), speed: loop.map((p) => p.speed) };
+  };
+
+  for (const [label, loop] of [
+    ['a station on the stagnation point', mirrored(121, true)],
+    ['the stagnation point between two stations', mirrored(120, false)],
+  ] as const) {
+    it(`gives the two surfaces the same stations to the bit (${label})`, () => {
+      const split = splitAtStagnation(loop.x, loop.y, loop.speed);
+      const { upper, lower } = split;
+      expect(upper.s.length).toBe(lower.s.length);
+      expect(Array.from(upper.s)).toEqual(Array.from(lower.s));
+      expect(Array.from(upper.ue)).toEqual(Array.from(lower.ue));
+      expect(Array.from(upper.x)).toEqual(Array.from(lower.x));
+      expect(Array.from(upper.y!.subarray(1))).toEqual(Array.from(lower.y!.subarray(1), (v) => -v));
+      expect(split.stagnation.y).toBeCloseTo(0, 12);
+      // And so the whole analysis of the two sides, through the adaptive turbulent march.
+      const text = ['x y cp', ...loop.x.map((x, i) => `${x} ${loop.y[i]} ${1 - loop.speed[i] ** 2}`)].join('\n');
+      const [up, down] = analyzeCase({ flow: { reynolds: 4e6 }, criteria: ['eN', 'michel'], pressureTable: text }).surfaces;
+      expect(up!.stations).toEqual(down!.stations);
+      expect(up!.cd).toBe(down!.cd);
+    });
+  }
+});
