@@ -220,7 +220,7 @@ async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, r
       return (
         frames.length === count &&
         onScreen.length > 0 &&
-        onScreen.every((f) => f.querySelector('.body > :not(.body-pending)') !== null) &&
+        onScreen.every((f) => f.querySelector('.body > *') !== null && f.querySelector('.body .body-pending') === null) &&
         document.querySelector('lam-save-indicator') !== null
       );
     },

@@ -36,7 +36,7 @@ import { ProblemBanner } from '../shared/problem-banner';
 import { roleLabel } from '../shared/role-label';
 import { StudyApi } from '../shared/study-api';
 import { AddCell } from './add-cell';
-import { AnalysisCell } from './analysis/analysis-cell';
+import { CellBody } from './cell-body';
 import { CellFrame } from './cell-frame';
 import { cellKindInfo } from '../shared/cell-kinds';
 import { type ConflictChoice, ConflictDialog } from './conflict-dialog';
@@ -44,20 +44,10 @@ import { DraftSession } from '../shared/draft-session';
 import { BranchJobs } from './branch-jobs';
 import { CellProgress } from './cell-progress';
 import { RunProgress } from './run-progress';
-import { FlatPlateCell } from './flat-plate/flat-plate-cell';
-import { FlowCell } from './flow/flow-cell';
-import { LeadingEdgeCell } from './leading-edge/leading-edge-cell';
-import { PolarCell } from './polar/polar-cell';
-import { SectionCell } from './section/section-cell';
-import { BodyCell } from './body/body-cell';
 import { NotebookApi } from '../shared/notebook-api';
-import { NoteCell } from './note/note-cell';
-import { PressureCell } from './pressure/pressure-cell';
 import { RemovedCells } from './removed-cells';
 import { SaveIndicator } from './save-indicator';
 import { Shortcuts } from './shortcuts';
-import { ComparisonCell } from './comparison/comparison-cell';
-import { SweepCell } from './sweep/sweep-cell';
 import { VersionBar } from '../versions/version-bar';
 import { SinceLastLook } from './since-last-look';
 
@@ -91,31 +81,21 @@ function isTextEntry(target: EventTarget | null): boolean {
   selector: 'lam-notebook-page',
   imports: [
     AddCell,
-    AnalysisCell,
     CdkDrag,
     CdkDropList,
+    CellBody,
     CellFrame,
     CellProgress,
-    FlatPlateCell,
-    FlowCell,
-    LeadingEdgeCell,
-    PolarCell,
-    SectionCell,
-    BodyCell,
     MatButtonModule,
     MatIconModule,
     MatProgressBarModule,
     MatTooltipModule,
-    NoteCell,
     NotFound,
-    PressureCell,
     ProblemBanner,
     RemovedCells,
     RouterLink,
     RunProgress,
     SaveIndicator,
-    SweepCell,
-    ComparisonCell,
     VersionBar,
     SinceLastLook,
   ],

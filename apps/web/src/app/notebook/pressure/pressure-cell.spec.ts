@@ -15,7 +15,7 @@ import { PressureCell } from './pressure-cell';
 @Component({
   imports: [PressureCell],
   template: `@if (session.cell(id); as c) {
-    <lam-pressure-cell [cell]="c" studyId="c3f5a7e9-0b2d-4f6a-8c1e-3a5b7d9f1e20" />
+    <lam-pressure-cell [cell]="c" />
   }`,
 })
 class Host {

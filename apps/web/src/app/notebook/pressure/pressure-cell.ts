@@ -65,7 +65,6 @@ export class PressureCell {
   protected readonly session = inject(DraftSession);
 
   readonly cell = input.required<DraftCell>();
-  readonly studyId = input.required<string>();
 
   protected readonly form = new FormGroup({
     text: new FormControl('', { nonNullable: true }),
@@ -237,9 +236,11 @@ export class PressureCell {
       this.uploadProblem.set(`${file.name} is not a text table: it ${binary}. Save the sheet as CSV or text (x [y] Cp rows) and upload that; the table above is unchanged.`);
       return;
     }
+    const studyId = this.session.draft()?.studyId;
+    if (!studyId) return;
     this.uploading.set(true);
     this.uploadProblem.set(null);
-    this.api.upload(this.studyId(), file).subscribe({
+    this.api.upload(studyId, file).subscribe({
       next: (upload) => {
         this.uploading.set(false);
         const current = this.cell();
