@@ -1,6 +1,6 @@
 import type { AnalysisInputs, BodyInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs } from '@laminote/contracts';
 import { analyzeCase } from '../analyze';
-import { arcAtX } from '../arc-position';
+import { arcAtX, xAtArc } from '../arc-position';
 import type { PressureTableRow } from '../pressure-table';
 import { loopArcLength, splitAtStagnation } from '../stagnation';
 import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from '../swept-wing';
@@ -10,6 +10,7 @@ import { sectionAsPressure } from './section';
 import { engineFlow } from './flow';
 import { readCellTable } from './table';
 import { upstreamOf, type Upstream } from './types';
+import { warningNotes, type ResultTable, type TableValue } from './result-table';
 
 interface PreparedCase {
   engineCase: EngineCaseInput;
@@ -131,4 +132,20 @@ export function analyzeWith(a: AnalysisInputs, flow: FlowInputs, pressure: Press
     }
   }
   return result;
+}
+
+/** An analysis as a table: the stations of each surface, with where transition and separation fall above them. */
+export function analysisTable(r: EngineResult): ResultTable {
+  const rows: TableValue[][] = [];
+  const notes: string[] = [];
+  for (const surface of r.surfaces) {
+    const st = surface.stations;
+    for (let i = 0; i < st.s.length; i++) {
+      rows.push([surface.name, st.s[i]!, st.x?.[i] ?? null, st.ue[i]!, st.theta[i] ?? null, st.deltaStar[i] ?? null, st.H[i] ?? null, st.cf[i] ?? null, st.n[i] ?? null]);
+    }
+    const at = surface.transition.s;
+    notes.push(`${surface.name}: transition ${at === null ? 'not reached' : `at s ${at}${st.x ? `, x ${xAtArc(st.s, st.x, at)}` : ''} (${surface.transition.by})`}; cd ${surface.cd ?? 'not given'}`);
+  }
+  notes.push(`cd ${r.cd ?? 'not given'}`, ...warningNotes(r.warnings));
+  return { fields: ['surface', 's', 'x', 'ue', 'theta', 'deltaStar', 'H', 'cf', 'n'], rows, notes };
 }

@@ -1,6 +1,7 @@
 import type { BodyInputs, BodyResult } from '@laminote/contracts';
 import { bodyAt, readBodyMeridian, ShapeInputError } from '../section-case';
 import { fail } from './errors';
+import { warningNotes, type ResultTable } from './result-table';
 
 /**
  * Body of revolution: a prolate spheroid of a given fineness ratio or a pasted meridian, its geometry,
@@ -61,4 +62,13 @@ export function computeBody(b: BodyInputs): BodyResult {
     inviscid: solution,
     warnings,
   };
+}
+
+/** A body as a table: Cp along the meridian at the panel midpoints, with its proportions above. */
+export function bodyTable(r: BodyResult): ResultTable {
+  const v = r.inviscid;
+  const g = r.geometry;
+  const rows = v.x.map((x, i) => [x, v.r[i]!, v.cp[i]!]);
+  const notes = [`fineness ${g.fineness}, maximum radius ${g.maxRadius} at x ${g.maxRadiusAt} (on unit length), ${v.panels} panels, incompressible`];
+  return { fields: ['x', 'r', 'cp'], rows, notes: [...notes, ...warningNotes(r.warnings)] };
 }

@@ -5,6 +5,7 @@ import { computeAnalysis } from './analysis';
 import { fail } from './errors';
 import { computePressure } from './pressure';
 import type { Upstream } from './types';
+import { warningNotes, type ResultTable, type TableValue } from './result-table';
 
 /**
  * Comparison: up to four pressure cells or analyses of one study overlaid, surface by surface: Cp along
@@ -85,4 +86,17 @@ export function computeComparison(inputs: ComparisonInputs, upstream: Upstream):
     warnings.push('pressure cells show Cp as given; analyses show the Cp their marched edge velocity implies');
   }
   return { entries, warnings };
+}
+
+/** A comparison as a table: each named cell's curves by surface and station, with its transition and drag above. */
+export function comparisonTable(r: ComparisonResult): ResultTable {
+  const rows: TableValue[][] = [];
+  const notes: string[] = [];
+  for (const e of r.entries) {
+    for (const s of e.surfaces) {
+      s.x.forEach((x, i) => rows.push([e.field, e.kind, s.name, x, s.cp[i] ?? null, s.n?.[i] ?? null, s.H?.[i] ?? null]));
+      if (e.kind === 'analysis') notes.push(`${e.field} ${s.name}: transition ${s.transitionX ?? 'not reached'}${s.by ? ` (${s.by})` : ''}, cd ${s.cd ?? 'not given'}`);
+    }
+  }
+  return { fields: ['cell', 'kind', 'surface', 'x', 'cp', 'n', 'H'], rows, notes: [...notes, ...warningNotes(r.warnings)] };
 }

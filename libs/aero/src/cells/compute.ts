@@ -1,15 +1,16 @@
 import { CELL_KIND_LABELS, type CellError, type CellInputs, type CellKind, type CellResults, type ComputedKind } from '@laminote/contracts';
-import { computeAnalysis } from './analysis';
-import { computeBody } from './body';
-import { computeComparison } from './comparison';
+import { analysisTable, computeAnalysis } from './analysis';
+import { bodyTable, computeBody } from './body';
+import { comparisonTable, computeComparison } from './comparison';
 import { toCellError } from './errors';
 import { computeFlatPlate } from './flat-plate';
 import { computeFlow } from './flow';
 import { computeLeadingEdge } from './leading-edge';
-import { computePolar } from './polar';
-import { computePressure } from './pressure';
-import { computeSection } from './section';
-import { computeSweep } from './sweep';
+import { computePolar, polarTable } from './polar';
+import { computePressure, pressureTable } from './pressure';
+import { scalarTable, type ResultTable } from './result-table';
+import { computeSection, sectionTable } from './section';
+import { computeSweep, sweepTable } from './sweep';
 import type { Upstream } from './types';
 
 /**
@@ -33,6 +34,25 @@ export const CELL_COMPUTE: { readonly [K in ComputedKind]: Compute<K> } = {
   flatPlate: (inputs) => computeFlatPlate(inputs),
   leadingEdge: computeLeadingEdge,
 };
+
+/** Each computing kind's result as one table (a CSV export); kinds without rows give their scalar values. */
+export const CELL_TABLES: { readonly [K in ComputedKind]: (result: CellResults[K]) => ResultTable } = {
+  flow: scalarTable,
+  pressure: pressureTable,
+  section: sectionTable,
+  body: bodyTable,
+  analysis: analysisTable,
+  polar: polarTable,
+  sweep: sweepTable,
+  comparison: comparisonTable,
+  flatPlate: scalarTable,
+  leadingEdge: scalarTable,
+};
+
+/** A computed result as one table. */
+export function resultTable<K extends ComputedKind>(kind: K, result: CellResults[K]): ResultTable {
+  return (CELL_TABLES[kind] as (r: CellResults[K]) => ResultTable)(result);
+}
 
 export function isComputedKind(kind: CellKind): kind is ComputedKind {
   return Object.hasOwn(CELL_COMPUTE, kind);

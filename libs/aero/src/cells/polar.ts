@@ -5,6 +5,7 @@ import { ShapeInputError } from '../section-case';
 import { computeFlow } from './flow';
 import { prepareSectionCell } from './section';
 import { upstreamOf, type Upstream } from './types';
+import { warningNotes, type ResultTable, type TableValue } from './result-table';
 
 /**
  * Polar: the section cell's shape over a range of incidence or lift coefficient at the flow cell's
@@ -39,4 +40,19 @@ export function computePolar(p: PolarInputs, upstream: Upstream): PolarResult {
     }
   });
   return { reynolds: flow.reynolds, mach: flow.mach, nCrit: flow.nCrit, outline: prepared.outline, points, warnings };
+}
+
+/** A polar as a table: a row per point and surface, the point's lift, moment and drag repeated on each. */
+export function polarTable(r: PolarResult): ResultTable {
+  const rows: TableValue[][] = [];
+  for (const p of r.points) {
+    if (p.surfaces.length === 0) rows.push([p.alphaDeg, p.cl, p.cm, p.cd, null, null, null, null, null, null, p.problem]);
+    for (const s of p.surfaces) rows.push([p.alphaDeg, p.cl, p.cm, p.cd, s.name, s.transitionX, s.transitionBy, s.laminarSeparationX, s.turbulentSeparationX, s.cd, p.problem]);
+  }
+  const notes = [`Reynolds number ${r.reynolds}, Mach ${r.mach}, N_crit ${r.nCrit}`];
+  return {
+    fields: ['alphaDeg', 'cl', 'cm', 'cd', 'surface', 'transitionX', 'transitionBy', 'laminarSeparationX', 'turbulentSeparationX', 'cdSurface', 'problem'],
+    rows,
+    notes: [...notes, ...warningNotes(r.warnings)],
+  };
 }

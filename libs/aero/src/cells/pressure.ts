@@ -4,6 +4,7 @@ import { loopArcLength, splitAtStagnation } from '../stagnation';
 import { oneSurfaceWarnings } from '../surface-checks';
 import { fail, stagnationFailure } from './errors';
 import { readCellTable } from './table';
+import { warningNotes, type ResultTable, type TableValue } from './result-table';
 
 /**
  * Pressure distribution: the table as read (pressure-table.ts) and, for a closed loop, split at the
@@ -99,4 +100,14 @@ function smoothingView(p: PressureInputs, s: Float64Array, ue: Float64Array, kee
     dUeds: keep.map((j) => slope[j]!),
     dUedsRaw: keep.map((j) => raw[j]!),
   };
+}
+
+/** A pressure distribution as a table: each surface's points from the stagnation point, with the line each came from. */
+export function pressureTable(r: PressureResult): ResultTable {
+  const rows: TableValue[][] = [];
+  for (const surface of r.surfaces) {
+    surface.x.forEach((x, i) => rows.push([surface.name, surface.line[i]!, x, surface.y?.[i] ?? null, surface.cp[i]!, surface.s[i]!, surface.r?.[i] ?? null]));
+  }
+  const notes = [`${r.layout === 'closedLoop' ? 'closed loop' : 'one surface'}, ${r.rowCount} rows`, `Cp minimum ${r.cpMin.cp} at x ${r.cpMin.x} (${r.cpMin.surface})`];
+  return { fields: ['surface', 'line', 'x', 'y', 'cp', 's', 'r'], rows, notes: [...notes, ...warningNotes(r.warnings)] };
 }

@@ -3,6 +3,7 @@ import { inviscidTable, prepareSection, sectionAt, ShapeInputError, type Prepare
 import { fail } from './errors';
 import { computeFlow } from './flow';
 import { optionalUpstreamOf, type Upstream } from './types';
+import { warningNotes, type ResultTable } from './result-table';
 
 /**
  * Section: the shape from a NACA designation (Reports 460, 537/610) or pasted coordinates, its geometry,
@@ -57,4 +58,17 @@ export function computeSection(s: SectionInputs, upstream: Upstream): SectionRes
 export function sectionAsPressure(s: SectionInputs, flow: FlowInputs): { pressure: PressureInputs; inviscid: SectionResult['inviscid'] } {
   const inviscid = solveSectionCell(prepareSectionCell(s), s, flow.mach);
   return { pressure: pressureInputsSchema.parse({ text: inviscidTable(inviscid), layout: 'closedLoop' }), inviscid };
+}
+
+/** A section as a table: Cp at the panel midpoints from the trailing edge over the upper surface, with lift and shape above. */
+export function sectionTable(r: SectionResult): ResultTable {
+  const v = r.inviscid;
+  const g = r.geometry;
+  const rows = v.x.map((x, i) => [x, v.y[i]!, v.cp[i]!, v.cpPrandtlGlauert?.[i] ?? null]);
+  const notes = [
+    `alpha ${v.alphaDeg} deg, cl ${v.cl}, cm ${v.cm} (quarter chord), Mach ${v.mach}, ${v.panels} panels`,
+    `critical Cp ${v.criticalCp ?? 'not given (Mach 0)'}, critical Mach ${v.criticalMach ?? 'not given'}`,
+    `t/c ${g.thickness} at x ${g.thicknessAt}, f/c ${g.camber} at x ${g.camberAt}, nose radius ${g.leadingEdgeRadius ?? 'not found'}, trailing-edge gap ${g.trailingEdgeGap}`,
+  ];
+  return { fields: ['x', 'y', 'cp', 'cpPrandtlGlauert'], rows, notes: [...notes, ...warningNotes(r.warnings)] };
 }

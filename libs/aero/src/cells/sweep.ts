@@ -3,6 +3,7 @@ import { xAtArc } from '../arc-position';
 import { computeAnalysis } from './analysis';
 import { CellInputError, toCellError } from './errors';
 import { upstreamOf, type Upstream } from './types';
+import { warningNotes, type ResultTable, type TableValue } from './result-table';
 
 function sweptFlow(flow: FlowInputs, parameter: SweepInputs['parameter'], value: number): FlowInputs {
   switch (parameter) {
@@ -127,4 +128,21 @@ export function computeSweep(sw: SweepInputs, upstream: Upstream): SweepResult {
     sw,
     Array.from({ length: sweepCaseCount(sw) }, (_, index) => computeSweepCase(sw, upstream, index)),
   );
+}
+
+/** A sweep as a table: a row per step and surface (a grid's second parameter beside the first). */
+export function sweepTable(r: SweepResult): ResultTable {
+  const grid = r.second !== undefined;
+  const rows: TableValue[][] = [];
+  for (const step of r.steps) {
+    const head: TableValue[] = grid ? [step.value, step.value2 ?? null] : [step.value];
+    if (step.status === 'error') rows.push([...head, null, null, null, null, null, null, null, step.error?.message ?? 'failed']);
+    for (const s of step.surfaces) rows.push([...head, s.name, s.transitionS, s.transitionX, s.by, s.laminarSeparationS, s.cd, step.cd, null]);
+  }
+  const params = grid ? [r.parameter, r.second!.parameter] : [r.parameter];
+  return {
+    fields: [...params, 'surface', 'transitionS', 'transitionX', 'transitionBy', 'laminarSeparationS', 'cdSurface', 'cd', 'error'],
+    rows,
+    notes: [`${r.steps.length} steps over ${params.join(' and ')}`, ...warningNotes(r.warnings)],
+  };
 }
