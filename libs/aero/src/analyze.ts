@@ -17,7 +17,7 @@ import { criticalReTheta, envelopeGrowthRate, MACK_TURBULENCE_RANGE, mackCritica
 import { deriveFlowCondition, type FlowCondition } from './flow-condition';
 import { granvilleReThetaRise } from './granville';
 import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './head';
-import { hRexTransitionReX } from './h-rex';
+import { hRexTransitionLog10ReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
 import { parsePressureTable } from './pressure-table';
 import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
@@ -42,7 +42,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.2.3';
+export const ENGINE_VERSION = '1.2.4';
 
 export { ENGINE_CAUTION } from './caution';
 
@@ -534,7 +534,8 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
       gMichel = g;
     }
     if (wantHRx && found.hRx === null && reS > 0) {
-      const g = Math.log(reS) - Math.log(hRexTransitionReX(h));
+      // In logarithms, with the correlation's own log10: no power and no second logarithm per station.
+      const g = Math.log(reS) - Math.LN10 * hRexTransitionLog10ReX(h);
       if (g >= 0) record('hRx', i, crossing(gHRx, g));
       gHRx = g;
     }

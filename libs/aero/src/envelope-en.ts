@@ -20,7 +20,8 @@
 /** Re_θ at which Tollmien–Schlichting waves start to grow (neutral point), for shape factor H. */
 export function criticalReTheta(shapeFactor: number): number {
   const hm1 = 1 / (shapeFactor - 1);
-  return Math.pow(10, (1.415 * hm1 - 0.489) * Math.tanh(20 * hm1 - 12.9) + 3.295 * hm1 + 0.44);
+  // 10^x as exp(x ln 10): evaluated at every laminar station (V8's Math.pow is the slower).
+  return Math.exp(Math.LN10 * ((1.415 * hm1 - 0.489) * Math.tanh(20 * hm1 - 12.9) + 3.295 * hm1 + 0.44));
 }
 
 /** Envelope growth dN/dRe_θ for shape factor H. */

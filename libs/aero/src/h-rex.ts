@@ -10,8 +10,13 @@
  */
 export const H_REX_SHAPE_RANGE = [2.1, 2.8] as const;
 
+/** log10 of the transition Reynolds number Ue x / ν at local shape factor H. */
+export function hRexTransitionLog10ReX(shapeFactor: number): number {
+  const h = shapeFactor < H_REX_SHAPE_RANGE[0] ? H_REX_SHAPE_RANGE[0] : shapeFactor > H_REX_SHAPE_RANGE[1] ? H_REX_SHAPE_RANGE[1] : shapeFactor;
+  return -40.4557 + h * (64.8066 + h * (-26.7538 + h * 3.3819));
+}
+
 /** Transition Reynolds number Ue x / ν at local shape factor H. */
 export function hRexTransitionReX(shapeFactor: number): number {
-  const h = shapeFactor < H_REX_SHAPE_RANGE[0] ? H_REX_SHAPE_RANGE[0] : shapeFactor > H_REX_SHAPE_RANGE[1] ? H_REX_SHAPE_RANGE[1] : shapeFactor;
-  return Math.pow(10, -40.4557 + h * (64.8066 + h * (-26.7538 + h * 3.3819)));
+  return Math.pow(10, hRexTransitionLog10ReX(shapeFactor));
 }

@@ -8,5 +8,6 @@
  * attachment line. Transition is where the laminar Re_θ first reaches this value.
  */
 export function michelTransitionReTheta(reX: number): number {
-  return 1.174 * (1 + 22_400 / reX) * Math.pow(reX, 0.46);
+  // Re_x^0.46 as exp(0.46 ln Re_x): evaluated at every laminar station (V8's Math.pow is the slower).
+  return 1.174 * (1 + 22_400 / reX) * Math.exp(0.46 * Math.log(reX));
 }
