@@ -65,6 +65,11 @@ export class VersionApi {
     return `${this.base}/compare/report.${format}?a=${encodeURIComponent(a)}&b=${encodeURIComponent(b)}${download ? '&download=1' : ''}`;
   }
 
+  /** Where a version's whole study downloads from: one document that `aero study` recomputes, or another Laminote imports. */
+  studyExportUrl(versionId: string): string {
+    return `${this.base}/versions/${encodeURIComponent(versionId)}/export`;
+  }
+
   /** Where a version's report is: opened by the browser itself (a file to keep or send, not JSON). */
   reportUrl(versionId: string, format: 'html' | 'pdf', download = false): string {
     return `${this.base}/versions/${encodeURIComponent(versionId)}/report.${format}${download ? '?download=1' : ''}`;

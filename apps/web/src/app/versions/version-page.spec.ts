@@ -123,5 +123,9 @@ describe('VersionPage', () => {
     expect(await analysis.getSummaryText()).toContain('25.40');
     const compare = await loader.getHarness(MatButtonHarness.with({ text: /What changed/ }));
     expect(await (await compare.host()).getAttribute('href')).toBe(`/studies/${STUDY_ID}/compare?a=${V1_ID}&b=${V2_ID}`);
+    // The whole version as one study document, to recompute with the command line or import elsewhere.
+    const studyFile = await (await loader.getHarness(MatButtonHarness.with({ text: /Study file/ }))).host();
+    expect(await studyFile.getAttribute('href')).toBe(`/api/versions/${V2_ID}/export`);
+    expect(await studyFile.getAttribute('download')).not.toBeNull();
   });
 });

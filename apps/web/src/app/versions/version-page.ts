@@ -3,6 +3,7 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input } f
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { DomSanitizer, type SafeHtml, Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
 import { engineResultSchema, FIELD_LABELS, CELL_REFERENCE_FIELDS, TRANSITION_CRITERIA, orderedFields, valueLabel, type VersionCell } from '@laminote/contracts';
@@ -60,7 +61,7 @@ function inputRows(cell: VersionCell, titles: Map<string, string>): { label: str
  */
 @Component({
   selector: 'lam-version-page',
-  imports: [CellThreads, CellThreadsButton, DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, NotFound, Plot, ProblemBanner, RouterLink, VersionReview],
+  imports: [CellThreads, CellThreadsButton, DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, MatTooltipModule, NotFound, Plot, ProblemBanner, RouterLink, VersionReview],
   templateUrl: './version-page.html',
   styleUrl: './version-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -117,6 +118,10 @@ export class VersionPage {
   protected readonly fixed = fixed;
   protected reportUrl(versionId: string, format: 'html' | 'pdf', download = false): string {
     return this.api.reportUrl(versionId, format, download);
+  }
+
+  protected studyExportUrl(versionId: string): string {
+    return this.api.studyExportUrl(versionId);
   }
   protected readonly sci = sci;
 
