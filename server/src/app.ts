@@ -3,7 +3,6 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express, { Router, type Express } from 'express';
 import compression from 'compression';
-import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type PgBoss from 'pg-boss';
 import type { Config } from './config';
@@ -15,6 +14,7 @@ import { authRouter, loadUser, requireUser } from './auth/routes';
 import { sessionMiddleware } from './auth/session';
 import { databaseUnavailable, errorHandler, notFoundHandler } from './http/problem';
 import { checkPathParams, inputGuard } from './http/edge';
+import { securityHeaders } from './http/security-headers';
 import type { EnginePool } from './engine/pool';
 import type { JobEvents } from './jobs/events';
 import { jobsRouter } from './jobs/routes';
@@ -74,8 +74,9 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   );
+  // helmet's headers, worked out once from these fixed options (http/security-headers.ts).
   app.use(
-    helmet({
+    securityHeaders({
       contentSecurityPolicy: {
         useDefaults: false,
         directives: {
@@ -140,7 +141,7 @@ export function createApp(deps: AppDeps): Express {
   // Hostile input (NUL, broken Unicode, deep nesting, non-finite numbers, unknown cell inputs) answers
   // 400 here, for every route, before any handler or the database sees it.
   app.use(inputGuard);
-  app.use(authRouter({ config, db, pool: database.pool, oidc: deps.oidc, logger }));
+  app.use('/auth', authRouter({ config, db, pool: database.pool, oidc: deps.oidc, logger }));
 
   const api = Router();
   const notebook = new NotebookService(db, deps.engine, logger);

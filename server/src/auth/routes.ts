@@ -44,6 +44,7 @@ function destroy(req: Request): Promise<void> {
   return new Promise((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
 }
 
+/** Sign-in, its callback and sign-out; mounted at /auth, so no other request walks these routes. */
 export function authRouter({ config, db, pool, oidc, logger }: AuthDeps): Router {
   const router = Router();
   const redirectUri = `${config.PUBLIC_URL}/auth/callback`;
@@ -65,7 +66,7 @@ export function authRouter({ config, db, pool, oidc, logger }: AuthDeps): Router
   });
 
   // Authorization code flow with PKCE; state and nonce are checked on the way back.
-  router.get('/auth/login', signInBudget, async (req, res) => {
+  router.get('/login', signInBudget, async (req, res) => {
     const configuration = await oidc.configuration().catch((err: unknown) => {
       throw unavailable(err);
     });
@@ -90,7 +91,7 @@ export function authRouter({ config, db, pool, oidc, logger }: AuthDeps): Router
     res.redirect(url.href);
   });
 
-  router.get('/auth/callback', signInBudget, async (req, res) => {
+  router.get('/callback', signInBudget, async (req, res) => {
     const pending = req.session.login;
     if (!pending) {
       throw new ProblemError(400, 'sign-in-expired', 'This sign-in was not started here or has expired', {
@@ -150,7 +151,7 @@ export function authRouter({ config, db, pool, oidc, logger }: AuthDeps): Router
   });
 
   // Ends our session and hands the browser the provider's end-session address.
-  router.post('/auth/logout', async (req, res) => {
+  router.post('/logout', async (req, res) => {
     const idToken = req.session.idToken;
     await destroy(req);
     res.clearCookie(SESSION_COOKIE, { path: '/' });
