@@ -10,6 +10,12 @@ export type { CellTask, ComputedOutput } from '@laminote/aero';
  */
 export interface EnginePool {
   run(task: CellTask): Promise<ComputedOutput>;
+  /**
+   * Several cells in one task of one worker: one hand-over each way instead of one per cell (a flow
+   * condition is microseconds of arithmetic, its message costs more). Each cell's promise settles
+   * on its own: a defect in one rejects that one only.
+   */
+  runAll(tasks: CellTask[]): Promise<ComputedOutput>[];
   /** Tasks the workers have finished since the pool started (tests use it to see that a cached run computed nothing). */
   readonly completed: number;
   readonly threads: number;
@@ -25,6 +31,9 @@ export interface EnginePoolOptions {
   queuePerThread?: number;
 }
 
+/** One cell of a task of several (worker.mjs computeCellOutputs). */
+type BatchEntry = { output: ComputedOutput } | { defect: string };
+
 /** The pool is full: the caller should answer 503 and the client try again. */
 export class EngineBusyError extends Error {}
 /** A task ran past its time limit and was stopped. */
@@ -33,7 +42,7 @@ export class EngineTimeoutError extends Error {}
 export function createEnginePool(options: EnginePoolOptions = {}): EnginePool {
   const threads = options.threads && options.threads > 0 ? options.threads : Math.max(1, availableParallelism());
   const timeoutMs = options.taskTimeoutMs ?? 60_000;
-  const piscina = new Piscina<CellTask, ComputedOutput>({
+  const piscina = new Piscina<CellTask | CellTask[], ComputedOutput | BatchEntry[]>({
     filename: new URL('./worker.mjs', import.meta.url).href,
     // The worker registers its own TypeScript loader; see worker.mjs.
     execArgv: [],
@@ -45,25 +54,38 @@ export function createEnginePool(options: EnginePoolOptions = {}): EnginePool {
     recordTiming: false,
   });
   let completed = 0;
+  /** One task on the pool: refused at once when the queue is full, stopped past the time limit. */
+  const submit = async <T>(task: CellTask | CellTask[], name?: string): Promise<T> => {
+    if (piscina.queueSize >= piscina.options.maxQueue) throw new EngineBusyError(`the engine has ${piscina.queueSize} tasks waiting`);
+    const abort = new AbortController();
+    const timer = setTimeout(() => abort.abort(), timeoutMs);
+    try {
+      return (await piscina.run(task, name ? { signal: abort.signal, name } : { signal: abort.signal })) as T;
+    } catch (error) {
+      if (abort.signal.aborted) throw new EngineTimeoutError(`the computation took longer than ${timeoutMs / 1000} s and was stopped`);
+      throw error;
+    } finally {
+      clearTimeout(timer);
+    }
+  };
   return {
     threads,
     get completed() {
       return completed;
     },
     async run(task) {
-      if (piscina.queueSize >= piscina.options.maxQueue) throw new EngineBusyError(`the engine has ${piscina.queueSize} tasks waiting`);
-      const abort = new AbortController();
-      const timer = setTimeout(() => abort.abort(), timeoutMs);
-      try {
-        const outcome = await piscina.run(task, { signal: abort.signal });
+      const outcome = await submit<ComputedOutput>(task);
+      completed++;
+      return outcome;
+    },
+    runAll(tasks) {
+      const batch = submit<BatchEntry[]>(tasks, 'computeCellOutputs');
+      return tasks.map(async (_task, i) => {
+        const entry = (await batch)[i]!;
+        if ('defect' in entry) throw new Error(entry.defect);
         completed++;
-        return outcome;
-      } catch (error) {
-        if (abort.signal.aborted) throw new EngineTimeoutError(`the computation took longer than ${timeoutMs / 1000} s and was stopped`);
-        throw error;
-      } finally {
-        clearTimeout(timer);
-      }
+        return entry.output;
+      });
     },
     close: () => piscina.close({ force: true }),
   };

@@ -7,4 +7,18 @@ import { register } from 'tsx/esm/api';
 register();
 const { computeCellOutput } = await import('../../../libs/aero/src/cells/compute.ts');
 
+/**
+ * Several cells in one task, each on its own: a fault that is not the input's (a defect, which
+ * computeCellOutput throws) is handed back as that cell's `defect`, and the others stand.
+ */
+export function computeCellOutputs(tasks) {
+  return tasks.map((task) => {
+    try {
+      return { output: computeCellOutput(task) };
+    } catch (error) {
+      return { defect: error instanceof Error ? error.message : String(error) };
+    }
+  });
+}
+
 export default computeCellOutput;

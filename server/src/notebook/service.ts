@@ -358,11 +358,19 @@ export class NotebookService {
     const { row, stored, plans, targets, known } = planned;
     const reports = new Map<string, CellRunReport>();
     const outputsByCell = new Map<string, CachedOutput | FreshOutput>();
+    // Every cell that has to compute goes to the engine at once: a task carries the inputs of the cells
+    // it uses, so none waits for another's result. The ranks below then settle each cell in order, so
+    // one whose upstream failed still fails as that upstream did.
+    const computing = this.computeAll(
+      stored.filter((c) => targets.has(c.cellId)).map((c) => plans.get(c.cellId)!),
+      plans,
+      known,
+    );
     for (const rank of RUN_RANKS) {
       const level = stored.filter((c) => targets.has(c.cellId) && RUN_RANK[c.kind as CellKind] === rank);
       await Promise.all(
         level.map(async (cell) => {
-          const { report, output } = await this.runOne(plans.get(cell.cellId)!, plans, reports, known);
+          const { report, output } = await this.runOne(plans.get(cell.cellId)!, plans, reports, known, computing);
           reports.set(cell.cellId, report);
           if (output) outputsByCell.set(cell.cellId, output);
         }),
@@ -474,6 +482,7 @@ export class NotebookService {
     plans: Map<string, CellPlan>,
     reports: Map<string, CellRunReport>,
     known: Map<string, CachedOutput>,
+    computing: Map<string, Promise<ComputedOutput>>,
   ): Promise<{ report: CellRunReport; output: CachedOutput | FreshOutput | null }> {
     const base = { cellId: plan.cell.cellId, kind: plan.kind };
     const started = performance.now();
@@ -507,7 +516,7 @@ export class NotebookService {
       return fresh({ status: 'error', resultJson: null, error, durationMs: 0 });
     }
     try {
-      return fresh(await this.compute(plan.key, plan, plans));
+      return fresh(await computing.get(plan.key)!);
     } catch (error) {
       if (error instanceof EngineBusyError) throw new ProblemError(503, 'engine-busy', 'The engine is busy', { detail: 'Too many computations are waiting; try the run again in a moment.' });
       this.logger.error({ err: error, cellId: plan.cell.cellId }, 'engine task failed');
@@ -515,12 +524,39 @@ export class NotebookService {
     }
   }
 
-  /** Computes a cell on the engine pool; two runs of the same key at once compute it once. */
-  private compute(key: string, plan: CellPlan, plans: Map<string, CellPlan>): Promise<ComputedOutput> {
-    const running = this.inFlight.get(key);
-    if (running) return running;
-    const promise = this.engine.run(taskOf(plan, plans)!).finally(() => this.inFlight.delete(key));
-    this.inFlight.set(key, promise);
-    return promise;
+  /**
+   * Starts computing the cells whose outputs are not stored, by key, on the engine pool; two runs of
+   * the same key at once compute it once. Flow conditions (microseconds of arithmetic) ride in the task
+   * of the first other cell; every other cell is a task of its own, so heavy cells share the threads.
+   */
+  private computeAll(wanted: CellPlan[], plans: Map<string, CellPlan>, known: Map<string, CachedOutput>): Map<string, Promise<ComputedOutput>> {
+    const out = new Map<string, Promise<ComputedOutput>>();
+    const starting = new Set<string>();
+    const light: CellPlan[] = [];
+    const batches: CellPlan[][] = [];
+    for (const plan of wanted) {
+      if (plan.key === null || known.has(plan.key) || out.has(plan.key) || starting.has(plan.key)) continue;
+      const running = this.inFlight.get(plan.key);
+      if (running) {
+        out.set(plan.key, running);
+        continue;
+      }
+      starting.add(plan.key);
+      if (plan.kind === 'flow') light.push(plan);
+      else batches.push([plan]);
+    }
+    if (light.length) (batches[0] ?? (batches[0] = [])).unshift(...light);
+    for (const batch of batches) {
+      const promises = this.engine.runAll(batch.map((plan) => taskOf(plan, plans)!));
+      batch.forEach((plan, i) => {
+        const key = plan.key!;
+        const promise = promises[i]!.finally(() => this.inFlight.delete(key));
+        // A cell whose upstream failed does not wait for its own result: that result is dropped, not left unhandled.
+        promise.catch(() => undefined);
+        this.inFlight.set(key, promise);
+        out.set(key, promise);
+      });
+    }
+    return out;
   }
 }
