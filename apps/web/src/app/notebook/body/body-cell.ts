@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
@@ -25,7 +26,7 @@ interface BodyFormValue {
  */
 @Component({
   selector: 'lam-body-cell',
-  imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, Plot, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, Plot, ReactiveFormsModule],
   templateUrl: './body-cell.html',
   styleUrls: ['../simple-cell.scss', '../shape-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,

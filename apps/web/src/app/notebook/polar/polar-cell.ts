@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
@@ -36,7 +37,7 @@ type Point = PolarResult['points'][number];
  */
 @Component({
   selector: 'lam-polar-cell',
-  imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, DecimalPipe, MatButtonToggleModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './polar-cell.html',
   styleUrls: ['../simple-cell.scss', '../shape-cell.scss', './polar-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,3 +1,4 @@
+import { ReadablePipe } from '../../shared/readable';
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
@@ -33,7 +34,7 @@ const INCOMPRESSIBLE = '';
  */
 @Component({
   selector: 'lam-section-cell',
-  imports: [CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
+  imports: [ReadablePipe, CellResult, DecimalPipe, MatButtonToggleModule, MatFormFieldModule, MatInputModule, MatSelectModule, Plot, ReactiveFormsModule],
   templateUrl: './section-cell.html',
   styleUrls: ['../simple-cell.scss', '../shape-cell.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,
