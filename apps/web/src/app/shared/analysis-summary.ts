@@ -13,10 +13,20 @@ export const REASON_WORDS: Record<CriterionMissingReason, string> = {
   noSweep: 'no sweep',
 };
 
-/** A location along a surface, as x/c where the stations carry x, else as s/c from the attachment line. */
+/**
+ * A location along a surface, as x/c where the stations carry x, else as s/c from the attachment line;
+ * on a body of revolution x/L, from the nose on the body's length.
+ */
 export interface Location {
   readonly value: number;
-  readonly along: 'x/c' | 's/c';
+  readonly along: Along;
+}
+
+export type Along = 'x/c' | 's/c' | 'x/L';
+
+/** Whether the analysis is of a body of revolution (a body cell named in place of a pressure cell). */
+export function isBodyResult(result: EngineResult): boolean {
+  return result.inviscid?.kind === 'body';
 }
 
 /** One surface's line in the summary table. */
@@ -56,19 +66,21 @@ function interpolate(xs: readonly number[], ys: readonly number[], at: number): 
   return ys[lo] + t * (ys[hi] - ys[lo]);
 }
 
-/** The chordwise axis of a surface: x/c where the engine reports x, else the arc length. */
-export function alongAxis(surface: EngineSurfaceResult): { values: number[]; along: 'x/c' | 's/c' } {
+/** The chordwise axis of a surface: x/c (x/L on a body) where the engine reports x, else the arc length. */
+export function alongAxis(surface: EngineSurfaceResult, body = false): { values: number[]; along: Along } {
   const x = surface.stations.x;
-  return x && x.length === surface.stations.s.length ? { values: x, along: 'x/c' } : { values: surface.stations.s, along: 's/c' };
+  return x && x.length === surface.stations.s.length ? { values: x, along: body ? 'x/L' : 'x/c' } : { values: surface.stations.s, along: 's/c' };
 }
 
-export function locate(surface: EngineSurfaceResult, s: number | null | undefined): Location | null {
+export function locateOn(surface: EngineSurfaceResult, s: number | null | undefined, body = false): Location | null {
   if (s === null || s === undefined || !Number.isFinite(s)) return null;
-  const axis = alongAxis(surface);
-  return { value: axis.along === 'x/c' ? interpolate(surface.stations.s, axis.values, s) : s, along: axis.along };
+  const axis = alongAxis(surface, body);
+  return { value: axis.along === 's/c' ? s : interpolate(surface.stations.s, axis.values, s), along: axis.along };
 }
 
 export function summarise(result: EngineResult, criteria: readonly TransitionCriterion[]): SurfaceSummary[] {
+  const body = isBodyResult(result);
+  const locate = (surface: EngineSurfaceResult, s: number | null | undefined) => locateOn(surface, s, body);
   return result.surfaces.map((surface) => {
     const byCriterion: Partial<Record<TransitionCriterion, Location | null>> = {};
     const reasons: Partial<Record<TransitionCriterion, string>> = {};
@@ -107,13 +119,15 @@ export function summarise(result: EngineResult, criteria: readonly TransitionCri
 const SURFACE_COLOURS = [PLOT_COLOURS[0], PLOT_COLOURS[1], PLOT_COLOURS[2], PLOT_COLOURS[3]];
 
 function transitionMarkers(result: EngineResult): PlotMarker[] {
+  const body = isBodyResult(result);
   return result.surfaces.flatMap((surface, i): PlotMarker[] => {
-    const at = locate(surface, surface.transition.s);
+    const at = locateOn(surface, surface.transition.s, body);
     return at ? [{ at: at.value, axis: 'x', label: `${surface.name} transition`, color: SURFACE_COLOURS[i % 4], dash: 'dash' }] : [];
   });
 }
 
 function axisTitle(result: EngineResult): string {
+  if (isBodyResult(result)) return 'x/L (from the nose, on the body length)';
   return result.surfaces.every((s) => alongAxis(s).along === 'x/c') ? 'x/c' : 's/c (arc length from the attachment line)';
 }
 
@@ -176,11 +190,12 @@ export function analysisFigures(result: EngineResult): { id: string; label: stri
     traces: stationTraces(result, (s) => s.stations.cf),
     markers,
   };
+  const along = isBodyResult(result) ? 'along the body' : 'along the chord';
   const figures: { id: string; label: string; figure: PlotFigure }[] = [
-    { id: 'n', label: 'N-factor envelope along the chord against N_crit', figure: nFigure },
-    { id: 'h', label: 'Shape factor H along the chord', figure: hFigure },
-    { id: 'retheta', label: 'Momentum-thickness Reynolds number along the chord with Michel’s transition line', figure: reThetaFigure },
-    { id: 'cf', label: 'Skin-friction coefficient along the chord', figure: cfFigure },
+    { id: 'n', label: `N-factor envelope ${along} against N_crit`, figure: nFigure },
+    { id: 'h', label: `Shape factor H ${along}`, figure: hFigure },
+    { id: 'retheta', label: `Momentum-thickness Reynolds number ${along} with Michel’s transition line`, figure: reThetaFigure },
+    { id: 'cf', label: `Skin-friction coefficient ${along}`, figure: cfFigure },
   ];
   const swept = result.surfaces.some((surface) => surface.stations.reCf?.some((v) => v !== null && v > 0));
   if (swept) {

@@ -17,7 +17,7 @@ import { bindCellForm, numberInput, numberText } from '../cell-form';
 import { CellResult, shownResult } from '../cell-result';
 import { DraftSession } from '../../shared/draft-session';
 import { sci } from '../../shared/format';
-import { CRITERION_LABELS, type Location, analysisFigures, summarise } from '../../shared/analysis-summary';
+import { CRITERION_LABELS, type Location, analysisFigures, isBodyResult, summarise } from '../../shared/analysis-summary';
 import { analysisOutlineFigure } from '../section/section-figures';
 
 interface AnalysisFormValue {
@@ -162,6 +162,11 @@ export class AnalysisCell {
     const result = this.result();
     return result ? summarise(result, this.resultCriteria()) : [];
   });
+  /** A body of revolution named in place of a pressure cell: locations on its length, no drag coefficient. */
+  protected readonly body = computed(() => {
+    const result = this.result();
+    return result !== null && isBodyResult(result);
+  });
   protected readonly columns = computed(() => [
     'surface',
     ...this.resultCriteria(),
@@ -170,7 +175,7 @@ export class AnalysisCell {
     'laminarSeparation',
     'turbulentSeparation',
     'laminarExtent',
-    'cd',
+    ...(this.body() ? [] : ['cd']),
   ]);
   protected readonly figures = computed(() => {
     const result = this.result();
