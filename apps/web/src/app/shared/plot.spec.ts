@@ -69,6 +69,12 @@ describe('Plot', () => {
     expect(plotlyFigure(FIGURE, 280).config['displayModeBar']).toBe(false);
   });
 
+  it('writes large and small tick values as powers of ten, not with the library’s SI prefixes (20M)', () => {
+    const { layout } = plotlyFigure({ ...FIGURE, x: { title: 'Reynolds number', log: true } }, 280);
+    expect(layout['xaxis']).toMatchObject({ type: 'log', exponentformat: 'power' });
+    expect(layout['yaxis']).toMatchObject({ exponentformat: 'power' });
+  });
+
   it('offers a toolbar of its own: export PNG or SVG, and reset the view to the axes it was drawn with', async () => {
     const { plot, fixture } = await render();
     expect(await plot.getTools()).toEqual(['Export PNG', 'Export SVG', 'Reset view']);

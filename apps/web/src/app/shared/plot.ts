@@ -132,6 +132,8 @@ function axisLayout(axis: PlotAxis): Record<string, unknown> {
     autorange: axis.range ? false : axis.reversed ? 'reversed' : true,
     range: axis.range ? (axis.reversed ? [axis.range[1], axis.range[0]] : [...axis.range]) : undefined,
     tickfont: { family: MONO, size: 10 },
+    // Large and small numbers as the trade writes them (2×10⁷), not the library's SI prefixes ("20M").
+    exponentformat: 'power',
     gridcolor: '#e4e9eb',
     zerolinecolor: '#a7acae',
     linecolor: '#8d9193',
