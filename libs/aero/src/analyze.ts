@@ -23,6 +23,7 @@ import { parsePressureTable } from './pressure-table';
 import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
 import { leastSquaresSlope, smoothedSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
+import { Scratch } from './scratch';
 import { squireYoungDrag } from './squire-young';
 import { attachmentLinePressureCoefficient, chordwiseVelocityRatio } from './swept-wing';
 import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
@@ -95,8 +96,16 @@ interface SurfaceContext {
   warnings: string[];
 }
 
+/**
+ * The analysis's internal station arrays (a surface's copies of its input, its laminar and turbulent
+ * states, the slopes) come from here; the result is built of plain arrays copied out of them. Kept up
+ * to 2^16 doubles (512 kB), which holds an analysis of two surfaces of about 3 600 stations.
+ */
+const scratch = new Scratch(1 << 16);
+
 /** Analyse a case (any JSON value); throws CaseError for bad input. */
 export function analyzeCase(input: unknown): EngineResult {
+  scratch.reset();
   const parsed = engineCaseSchema.safeParse(input);
   if (!parsed.success) throw caseErrorFromIssue(parsed.error.issues[0]);
   const engineCase: EngineCase = parsed.data;
@@ -264,8 +273,9 @@ function caseErrorFromIssue(issue: z.core.$ZodIssue): CaseError {
 
 function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number], index: number, mach: number, sweep: number, warnings: string[]): PreparedSurface {
   let n = surface.s.length;
-  const s = new Float64Array(surface.s);
-  const ue = new Float64Array(n);
+  const s = scratch.take(n);
+  for (let i = 0; i < n; i++) s[i] = surface.s[i];
+  const ue = scratch.take(n);
   const prefix = `surfaces[${index}]`;
   let maxLocalMach = 0;
   if (surface.cp !== undefined) {
@@ -282,7 +292,8 @@ function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number],
       if (mach > 0) maxLocalMach = Math.max(maxLocalMach, localMach(cp, mach));
     }
   } else {
-    ue.set(surface.ue!);
+    const given = surface.ue!;
+    for (let i = 0; i < n; i++) ue[i] = given[i];
     if (mach > 0) for (let i = 0; i < n; i++) maxLocalMach = Math.max(maxLocalMach, localMachFromVelocity(Math.hypot(ue[i], Math.sin(sweep)), mach));
   }
   const end = rearStagnation(s, ue);
@@ -302,7 +313,7 @@ function surfaceFromArrays(surface: NonNullable<EngineCase['surfaces']>[number],
     s: s.subarray(0, n),
     ue: ue.subarray(0, n),
     x: null,
-    radius: surface.r === undefined ? null : new Float64Array(surface.r).subarray(0, n),
+    radius: surface.r === undefined ? null : copyOf(surface.r).subarray(0, n),
     trip: surface.trip !== undefined && surface.trip <= s[n - 1] ? surface.trip : null,
     stagnationGradient: null,
   };
@@ -332,9 +343,9 @@ function surfacesFromTable(text: string, mach: number, sweep: number, warnings: 
   }
   const rows = table.rows;
   const n = rows.length;
-  const x = new Float64Array(n);
-  const y = table.hasY ? new Float64Array(n) : null;
-  const speed = new Float64Array(n);
+  const x = scratch.take(n);
+  const y = table.hasY ? scratch.take(n) : null;
+  const speed = scratch.take(n);
   const cp0 = attachmentLinePressureCoefficient(mach, sweep);
   const where = sweep === 0 ? 'stagnation' : 'attachment-line';
   let maxLocalMach = 0;
@@ -406,34 +417,30 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   const { reynolds, nCrit, criteria, warnings } = context;
   const n = s.length;
 
-  // The station arrays of this surface share one buffer: a typed array of this size is a separate
-  // allocation outside the heap, and at a few hundred stations seven of them cost more than filling them.
-  const stationBuffer = new Float64Array(7 * n);
-  const stationArray = (k: number) => stationBuffer.subarray(k * n, (k + 1) * n);
-  const dUeds = stationArray(0);
+  const dUeds = scratch.take(n);
   const smoothing = smoothedSlope(s, ue, context.smoothing === 'off' ? 1 : context.smoothing, dUeds);
   const stagnationStart = ue[0] === 0;
   if (stagnationStart && surface.stagnationGradient !== null) dUeds[0] = surface.stagnationGradient;
   if (stagnationStart && dUeds[0] > 0) gradients.push(dUeds[0]);
   let dRds: Float64Array | null = null;
-  if (radius !== null) dRds = leastSquaresSlope(s, radius, new Float64Array(n), RADIUS_SMOOTHING_HALF_WIDTH);
+  if (radius !== null) dRds = leastSquaresSlope(s, radius, scratch.take(n), RADIUS_SMOOTHING_HALF_WIDTH);
 
-  const theta = stationArray(1);
-  const lambda = stationArray(2);
+  const theta = scratch.take(n);
+  const lambda = scratch.take(n);
   // The kinematic shape factor, which the transition correlations take; `physicalShape` is δ*/θ.
-  const shape = stationArray(3);
-  const cf = stationArray(4);
-  const wallShear = stationArray(5);
+  const shape = scratch.take(n);
+  const cf = scratch.take(n);
+  const wallShear = scratch.take(n);
   const laminar = { theta, lambda, shapeFactor: shape, skinFriction: cf, wallShear };
   // Local unit Reynolds number over the free-stream one (ρe μ∞ / ρ∞ μe): 1 in incompressible flow.
   let reynoldsRatio: Float64Array | null = null;
   let physicalShape = shape;
   if (context.mach > 0) {
-    reynoldsRatio = new Float64Array(n);
-    physicalShape = new Float64Array(n);
+    reynoldsRatio = scratch.take(n);
+    physicalShape = scratch.take(n);
     compressibleThwaitesMarch(s, ue, dUeds, reynolds, radius, { mach: context.mach, sweep: context.sweep, temperature_K: context.temperature_K }, laminar, {
       reynoldsRatio,
-      densityRatio: new Float64Array(n),
+      densityRatio: scratch.take(n),
       shapeFactor: physicalShape,
     });
   } else {
@@ -464,10 +471,10 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   // Every chosen criterion along the laminar solution, marched on to laminar separation or the end of
   // the surface whatever governs.
   const localRe = (i: number) => (reynoldsRatio === null ? reynolds : reynolds * reynoldsRatio[i]);
-  const nFactor = stationArray(6);
+  const nFactor = scratch.take(n);
   const spanwise = Math.sin(Math.abs(context.sweep));
   const swept = spanwise > 0;
-  const reCf = swept ? new Float64Array(n) : null;
+  const reCf = swept ? scratch.take(n) : null;
   const wantEN = criteria.includes('eN');
   const wantMichel = criteria.includes('michel');
   const wantHRx = criteria.includes('hRx');
@@ -676,7 +683,7 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
   if (reCf !== null) markFrom(reCf, curveEnd(s, last, transitionS, found.crossflow?.s ?? null), n);
   let outputShape = shape;
   if (physicalShape !== shape) {
-    outputShape = Float64Array.from(shape);
+    outputShape = copyOf(shape);
     for (let i = 0; i < Math.min(firstTurbulent, n); i++) outputShape[i] = physicalShape[i];
   }
   const stations: EngineSurfaceResult['stations'] = {
@@ -742,6 +749,13 @@ function curveEnd(s: Float64Array, last: number, transitionS: number | null, cri
 
 function markFrom(a: Float64Array, from: number, n: number): void {
   for (let i = from; i < n; i++) a[i] = NaN;
+}
+
+/** A scratch copy of `values`. */
+function copyOf(values: ArrayLike<number>): Float64Array {
+  const out = scratch.take(values.length);
+  for (let i = 0; i < values.length; i++) out[i] = values[i];
+  return out;
 }
 
 /** A plain array of a typed one's values (an indexed copy: `Array.from` goes through the iterator). */

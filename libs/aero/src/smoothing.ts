@@ -1,4 +1,5 @@
 import { Matrix, solve } from 'ml-matrix';
+import { Scratch } from './scratch';
 
 /**
  * Least-squares smoothing and differentiation of sampled data such as Ue(s) from pressure taps.
@@ -126,7 +127,8 @@ function scatterAndSlopes(s: ArrayLike<number>, f: ArrayLike<number>, slope: Flo
   // At most SCATTER_SAMPLES windows, evenly spread: plenty for a variance, and bounded cost on long surfaces.
   const stride = Math.max(1, Math.floor((n - 4) / SCATTER_SAMPLES));
   const slopes = stride === 1 ? slope : null;
-  const r2 = new Float64Array(Math.ceil((n - 4) / stride));
+  work.reset();
+  const r2 = work.take(Math.ceil((n - 4) / stride));
   for (let i = 2, k = 0; i < n - 2; i += stride, k++) {
     const scale = 0.5 * (s[i + 2] - s[i - 2]);
     const si = s[i];
@@ -151,7 +153,9 @@ function scatterAndSlopes(s: ArrayLike<number>, f: ArrayLike<number>, slope: Flo
     const r = f[i] - fit;
     r2[k] = (r * r) / (1 - leverage);
   }
-  const median = medianOf(r2.slice());
+  const reordered = work.take(r2.length);
+  reordered.set(r2);
+  const median = medianOf(reordered);
   let sum = 0;
   let count = 0;
   for (let k = 0; k < r2.length; k++) {
@@ -165,6 +169,9 @@ function scatterAndSlopes(s: ArrayLike<number>, f: ArrayLike<number>, slope: Flo
 }
 
 const SCATTER_SAMPLES = 2000;
+
+/** The work arrays of the scatter estimate and the median spacing (at most 4 000 and n − 1 doubles). */
+const work = new Scratch(1 << 14);
 
 /** Whether `scatterAndSlopes` fits every five-station window of n stations (and so writes their slopes). */
 function fitsEveryWindow(n: number): boolean {
@@ -189,7 +196,8 @@ export function automaticHalfWidth(s: ArrayLike<number>, f: ArrayLike<number>): 
 function halfWidthForScatter(s: ArrayLike<number>, scatter: number): { halfWidth: number; scatter: number } {
   const n = s.length;
   if (n < 3 || scatter === 0) return { halfWidth: SMOOTHING_MIN_HALF_WIDTH, scatter };
-  const steps = new Float64Array(n - 1);
+  work.reset();
+  const steps = work.take(n - 1);
   for (let i = 1; i < n; i++) steps[i - 1] = s[i] - s[i - 1];
   const spacing = medianOf(steps);
   let h = SMOOTHING_MIN_HALF_WIDTH;
