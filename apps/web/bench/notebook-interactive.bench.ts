@@ -85,7 +85,8 @@ function bundleReport(): { plotChunks: Set<string>; firstScreenGzip: number; zod
   if (!existsSync(path.join(DIST, 'index.html'))) throw new Error(`no built app in ${DIST}: run \`ng build web\` first`);
   const chunks = readChunks();
   const html = readFileSync(path.join(DIST, 'index.html'), 'utf8');
-  const entry = [...html.matchAll(/<script src="([\w-]+\.js)" type="module">/g)].map((m) => m[1]!);
+  // Every script the page names: the app's module entry and any plain script before it (early-reads.js).
+  const entry = [...html.matchAll(/<script src="([\w-]+\.js)"[^>]*>/g)].map((m) => m[1]!);
   const initial = closure(chunks, entry);
   const notebookRoot = [...chunks.values()].find((c) => c.text.includes('lam-notebook-page'))?.file;
   if (!notebookRoot) throw new Error('no chunk holds the notebook page');

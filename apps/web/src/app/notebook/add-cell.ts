@@ -32,14 +32,17 @@ import { loadRuntimeChecks, runtimeChecks } from '../shared/runtime-checks';
         Add cell
       </button>
     }
+    <!-- The kinds are made when the list opens: a long study has an insertion line between every two cells. -->
     <mat-menu #kinds="matMenu" class="lam-add-cell-menu">
-      @for (kind of kinds_; track kind.kind) {
-        <button mat-menu-item type="button" class="kind-item" [disabled]="!ready()" (click)="add.emit(kind.kind)">
-          <mat-icon aria-hidden="true">{{ kind.icon }}</mat-icon>
-          <span class="kind-name">{{ kind.label }}</span>
-          <span class="kind-hint">{{ kind.hint }}</span>
-        </button>
-      }
+      <ng-template matMenuContent>
+        @for (kind of kinds_; track kind.kind) {
+          <button mat-menu-item type="button" class="kind-item" [disabled]="!ready()" (click)="add.emit(kind.kind)">
+            <mat-icon aria-hidden="true">{{ kind.icon }}</mat-icon>
+            <span class="kind-name">{{ kind.label }}</span>
+            <span class="kind-hint">{{ kind.hint }}</span>
+          </button>
+        }
+      </ng-template>
     </mat-menu>
   `,
   styleUrl: './add-cell.scss',

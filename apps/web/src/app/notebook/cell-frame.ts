@@ -40,6 +40,12 @@ export class CellFrame {
   readonly running = input(false);
   /** Why the last run request failed as a whole (the server refused it, or could not be reached). */
   readonly runProblem = input<Problem | null>(null);
+  /**
+   * False while a long study is still being drawn and this frame is below the first screen: its head
+   * shows the kind, the title and the run state, and gets its buttons (comments, run, collapse, actions,
+   * drag handle) with its body, so the first screen does not wait for every frame's controls.
+   */
+  readonly complete = input(true);
 
   readonly runRequested = output<void>();
   readonly duplicateRequested = output<void>();

@@ -242,6 +242,8 @@ describe('NotebookPage', () => {
     await fixture.whenStable();
     const frames = await loader.getAllHarnesses(CellFrameHarness);
     expect(await frames[8].isCollapsed()).toBe(false);
+    // The frames below the first screen get their buttons with their bodies.
+    expect(await frames[8].hasActions()).toBe(true);
     expect((fixture.nativeElement as HTMLElement).querySelectorAll('.body-pending')).toHaveLength(0);
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('Reading 9');
   });

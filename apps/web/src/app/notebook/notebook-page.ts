@@ -193,7 +193,8 @@ export class NotebookPage {
   /**
    * How many cells, from the top, have their bodies drawn. A long study shows every frame at once and
    * the bodies of the first screen, then draws the others a few at a time between the person's input,
-   * so the page answers at once. A cell the person adds, copies, brings back or goes to is drawn at once.
+   * so the page answers at once. A frame gets its buttons with its body. A cell the person adds, copies,
+   * brings back or goes to is drawn at once.
    */
   protected readonly bodiesShown = signal(FIRST_BODIES);
   private readonly pendingTasks = inject(PendingTasks);

@@ -15,6 +15,7 @@ import {
 } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
+import { scheduleDraw } from './plot-schedule';
 
 /** One line or set of markers on a plot. `y` may hold nulls where a quantity is undefined. */
 export interface PlotTrace {
@@ -248,8 +249,8 @@ export function plotlyFigure(figure: PlotFigure, height: number): { data: unknow
 
 /**
  * A plot, drawn by plotly.js through angular-plotly.js. The library is fetched the first time a plot
- * comes near the screen, in a chunk of its own, so the first screen never waits for it and a long
- * study does not draw plots nobody has scrolled to yet.
+ * comes near the screen and the page is quiet, in a chunk of its own, so the first screen never waits
+ * for it and a long study does not draw plots nobody has scrolled to yet.
  */
 @Component({
   selector: 'lam-plot',
@@ -391,9 +392,9 @@ export class Plot {
         (entries) => {
           if (entries.some((e) => e.isIntersecting)) {
             observer.disconnect();
-            // The library takes a long task to start: leave the first moments to the person's input.
-            if (typeof requestIdleCallback === 'function') requestIdleCallback(() => this.draw(), { timeout: 2000 });
-            else this.draw();
+            // The library takes a long task to start, and each plot one to draw: after the page has
+            // been quiet for a moment, one plot per frame (plot-schedule.ts).
+            destroyRef.onDestroy(scheduleDraw(() => this.draw()));
           }
         },
         { rootMargin: '50% 0px' },
@@ -403,8 +404,8 @@ export class Plot {
     });
   }
 
-  private draw(): void {
-    this.load()
+  private draw(): Promise<void> {
+    return this.load()
       .then((component) => {
         this.loaded = component;
         this.renderer.set(component);

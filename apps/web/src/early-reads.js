@@ -1,0 +1,61 @@
+// The app's first reads, started by this small script as soon as the page is parsed, while the app's
+// own code is still arriving and starting: who is signed in and, on a study's address, the study, its
+// branches and its draft. Without it they come in rounds after the app has started: the sign-in check,
+// then the study and its branches, then the draft.
+//
+// The app takes each answer once, for the same GET of the same address (core/early-reads.ts); it asks
+// the server itself for anything not here. So a wrong guess here costs a wasted read, never a wrong
+// screen.
+//
+// A plain script (angular.json "scripts"), not a module: it runs before the module graph has loaded.
+(function () {
+  'use strict';
+  var reads = new Map();
+  var startedAt = Date.now();
+  function read(url) {
+    var answer = fetch(url, { credentials: 'same-origin', headers: { accept: 'application/json, text/plain, */*' } }).then(function (response) {
+      return response.text().then(function (body) {
+        return { status: response.status, statusText: response.statusText, contentType: response.headers.get('content-type'), body: body };
+      });
+    });
+    // A failed read is asked again by the app; nobody waits on this one's failure.
+    answer.catch(function () {});
+    reads.set(url, answer);
+    return answer;
+  }
+  function json(answer) {
+    return answer.then(function (a) {
+      return a.status === 200 ? JSON.parse(a.body) : null;
+    });
+  }
+  var me = read('/api/me');
+  var study = /^\/studies\/([0-9a-fA-F-]{36})\/?$/.exec(location.pathname);
+  if (study) {
+    var studyId = study[1];
+    var wanted = new URLSearchParams(location.search).get('branch');
+    var readStudy = function () {
+      read('/api/studies/' + studyId);
+      return json(read('/api/studies/' + studyId + '/branches'));
+    };
+    // The anti-forgery cookie is set at sign-in: with it, the study is read beside the sign-in check
+    // rather than after it (it outlives a session that ended, which costs two refused reads at most).
+    var signedInBefore = /(?:^|;\s*)XSRF-TOKEN=/.test(document.cookie);
+    (signedInBefore
+      ? readStudy()
+      : json(me).then(function (person) {
+          return person ? readStudy() : null;
+        })
+    )
+      .then(function (branches) {
+        if (!Array.isArray(branches)) return;
+        // The branch the notebook opens (notebook-page.ts, pickBranch): the one named or, without a
+        // name, main. Anything else is left to the app.
+        var branch = branches.find(function (b) {
+          return wanted ? b.id === wanted || b.name === wanted : b.name === 'main';
+        });
+        if (branch) read('/api/branches/' + branch.id + '/draft');
+      })
+      .catch(function () {});
+  }
+  window.laminoteEarlyReads = { startedAt: startedAt, reads: reads };
+})();
