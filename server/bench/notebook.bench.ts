@@ -18,6 +18,8 @@ import type { AddressInfo } from 'node:net';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import type { Draft, RunResponse } from '@laminote/contracts';
+import { pino } from 'pino';
+import { SERVER_POOL_SIZE } from '../src/db/client';
 import { createTestApp } from '../../tests/support/app';
 import { testEnv } from '../../tests/support/env';
 import { demoUser, providerRoundTrip } from '../../tests/support/sign-in';
@@ -245,8 +247,12 @@ const DATABASE = isMainThread ? '' : (workerData as { database: string }).databa
 /**
  * With BENCH_CPU_PROFILE=folder, the server's thread records a CPU profile of the 20-client runs only
  * (not the saves between them), written there as runs.cpuprofile for Chrome's or VS Code's profiler.
+ * V8's profiles are wall-clock samples; for CPU time, BENCH_PERF_CTL=fifo makes the bench write
+ * `enable` and `disable` there around the same runs, for `perf record --control=fifo:… -D -1` started
+ * around the bench (with NODE_OPTIONS=--perf-basic-prof to name the JavaScript frames).
  */
-const PROFILE_DIR = process.env['BENCH_CPU_PROFILE'] ?? '';
+const PERF_CTL = process.env['BENCH_PERF_CTL'] ?? '';
+const PROFILE_DIR = process.env['BENCH_CPU_PROFILE'] ?? PERF_CTL;
 
 /** A message to the server's thread, answered once it has done what it says. */
 function askServer(what: 'profile-resume' | 'profile-pause'): Promise<void> {
@@ -367,21 +373,30 @@ async function measure(clients: Client[], rounds: number, profile = false) {
 
 if (isMainThread) {
   // No job worker in this process: a server runs without one (workers are processes of their own), and
-  // the runs timed here are small enough for the server to compute at once.
-  const t = await createTestApp({}, { worker: false });
+  // the runs timed here are small enough for the server to compute at once. The server is set up as in
+  // production: its database pool as large as main.ts makes it, and a log line for every request at
+  // info (the production default), written synchronously as pino writes standard output, here to
+  // /dev/null so the bench's own output stays readable.
+  const t = await createTestApp({ LOG_LEVEL: 'info' }, { worker: false, poolSize: SERVER_POOL_SIZE, logDestination: pino.destination({ dest: '/dev/null', sync: true }) });
   const server = t.app.listen(0, '127.0.0.1');
   await new Promise((resolve) => server.once('listening', resolve));
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   try {
     const section = benchSection();
     out(`notebook run round trip: ${base}, engine pool ${t.engine.threads} threads, ${section.name}: ${section.rows} table rows (2 × 300 stations)`);
+    out(`server as in production: database pool of ${SERVER_POOL_SIZE} connections, a log line per request at info (to /dev/null)`);
     out('each round: every client saves a new Reynolds number (untimed apart), then all run the analysis at once (timed)');
     out('clients run in a worker thread of their own, so their parsing does not hold up the server\'s event loop');
     // The clients' thread: sign in, set up one study each, then the timed rounds.
     // A worker thread has no TypeScript loader of its own: it registers tsx, then loads this file.
     const boot = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}); })`;
     const clients = new Worker(boot, { eval: true, workerData: { base, projectId: t.demo.projectId, table: section.text, database: t.database.name } });
-    const profiler = PROFILE_DIR ? new RunProfiler() : null;
+    if (PERF_CTL) out(`server process ${process.pid} (its main thread has the same id)`);
+    const profiler = PERF_CTL
+      ? { resume: async () => writeFileSync(PERF_CTL, 'enable\n'), pause: async () => writeFileSync(PERF_CTL, 'disable\n'), write: async () => `perf, through ${PERF_CTL}` }
+      : PROFILE_DIR
+        ? new RunProfiler()
+        : null;
     await new Promise<void>((resolve, reject) => {
       clients.on('message', (m: { line?: string; ask?: 'profile-resume' | 'profile-pause' }) => {
         if (m.line !== undefined) out(m.line);

@@ -1,7 +1,9 @@
-import { pino, type Logger } from 'pino';
+import { pino, type DestinationStream, type Logger } from 'pino';
 
 export type { Logger };
 
-export function createLogger(level: string, name = 'laminote'): Logger {
-  return pino({ name, level, redact: ['req.headers.cookie', 'req.headers.authorization', 'req.headers["x-xsrf-token"]'] });
+/** `destination`: where the lines go; standard output (written synchronously, pino's default) when absent. */
+export function createLogger(level: string, name = 'laminote', destination?: DestinationStream): Logger {
+  const options = { name, level, redact: ['req.headers.cookie', 'req.headers.authorization', 'req.headers["x-xsrf-token"]'] };
+  return destination ? pino(options, destination) : pino(options);
 }

@@ -1,7 +1,7 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { loadConfigOrExit } from './config';
-import { connect } from './db/client';
+import { connect, SERVER_POOL_SIZE } from './db/client';
 import { applyMigrations } from './db/migrate';
 import { createLogger } from './logger';
 import { createOidcClient } from './auth/oidc';
@@ -13,7 +13,7 @@ import { startMailOutbox } from './mail/start';
 async function main(): Promise<void> {
   const config = loadConfigOrExit();
   const logger = createLogger(config.LOG_LEVEL);
-  const database = connect(config.DATABASE_URL, 10, (err) => logger.warn({ err: err.message }, 'a database connection was closed; the pool makes a new one when needed'));
+  const database = connect(config.DATABASE_URL, SERVER_POOL_SIZE, (err) => logger.warn({ err: err.message }, 'a database connection was closed; the pool makes a new one when needed'));
   await applyMigrations(database.db);
   const engine = createEnginePool({ threads: config.ENGINE_THREADS });
   const jobs = await startJobSender(config, database, logger);

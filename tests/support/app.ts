@@ -1,4 +1,5 @@
 import type { Express } from 'express';
+import type { DestinationStream } from 'pino';
 import { createApp } from '../../server/src/app';
 import { createEnginePool, type EnginePool } from '../../server/src/engine/pool';
 import { createOidcClient } from '../../server/src/auth/oidc';
@@ -24,8 +25,17 @@ export interface TestApp {
 }
 
 /** The real app on a database of its own with the demo scenario seeded, mounted without a port. */
-export async function createTestApp(overrides: Record<string, string> = {}, options: { worker?: boolean } = {}): Promise<TestApp> {
-  const database = await createTestDatabase();
+export async function createTestApp(
+  overrides: Record<string, string> = {},
+  options: {
+    worker?: boolean;
+    /** Connections of the app's database pool (a test's 5 when absent). */
+    poolSize?: number;
+    /** Where the app's log lines go (at the config's LOG_LEVEL): standard output when absent. */
+    logDestination?: DestinationStream;
+  } = {},
+): Promise<TestApp> {
+  const database = await createTestDatabase(options.poolSize);
   const config = loadConfig({
     ...process.env,
     NODE_ENV: 'test',
@@ -38,7 +48,7 @@ export async function createTestApp(overrides: Record<string, string> = {}, opti
   });
   const demo = await seedDemo(database.db, demoStudyFillers);
   const engine = createEnginePool({ threads: 2 });
-  const logger = createLogger(config.LOG_LEVEL);
+  const logger = createLogger(config.LOG_LEVEL, undefined, options.logDestination);
   const jobs = await startJobSender(config, database, logger);
   // Runs are jobs: a worker takes them, here in the test's own process (fault tests start real ones).
   const worker = options.worker === false ? null : await startJobWorker(config, database, logger, { threads: 2 });

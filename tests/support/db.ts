@@ -22,12 +22,13 @@ async function admin<T>(fn: (client: pg.Client) => Promise<T>): Promise<T> {
   }
 }
 
-export async function createTestDatabase(): Promise<TestDatabase> {
+/** `poolSize`: connections of its pool (5 for a test; a benchmark takes the server's own). */
+export async function createTestDatabase(poolSize = 5): Promise<TestDatabase> {
   const name = `t_${randomBytes(6).toString('hex')}`;
   await admin((c) => c.query(`create database ${name} template ${testEnv.templateDatabase}`));
   const url = new URL(testEnv.pgAdminUrl);
   url.pathname = `/${name}`;
-  const database = connect(url.href, 5);
+  const database = connect(url.href, poolSize);
   return {
     ...database,
     url: url.href,

@@ -19,7 +19,10 @@ export interface Database {
  * pool drops a broken client and makes a new one on demand; a request that was using it fails with an
  * error that isDatabaseUnavailable recognises (answered 503).
  */
-export function connect(url: string, max = 10, onConnectionError?: (err: Error) => void): Database {
+/** Connections of the app server's pool (main.ts); benchmarks use the same. */
+export const SERVER_POOL_SIZE = 10;
+
+export function connect(url: string, max = SERVER_POOL_SIZE, onConnectionError?: (err: Error) => void): Database {
   const pool = new pg.Pool({
     connectionString: url,
     max,
