@@ -766,17 +766,32 @@ function numbers(a: Float64Array): number[] {
   return out;
 }
 
+// The result arrays: where every value is finite, a loop that stores numbers only (V8 keeps the array
+// unboxed and the store site simple); the loop with nulls otherwise. One loop for both cases was twice
+// as slow for either (its store site saw both kinds), a few per cent of an analysis at 300 stations.
 function nullable(a: Float64Array, n: number): (number | null)[] {
+  let finite = 0;
+  while (finite < n && Number.isFinite(a[finite])) finite++;
   const out = new Array<number | null>(n);
-  for (let i = 0; i < n; i++) out[i] = Number.isFinite(a[i]) ? a[i] : null;
+  if (finite === n) {
+    for (let i = 0; i < n; i++) out[i] = a[i];
+  } else {
+    for (let i = 0; i < n; i++) out[i] = Number.isFinite(a[i]) ? a[i] : null;
+  }
   return out;
 }
 
 function product(a: Float64Array, b: Float64Array, n: number): (number | null)[] {
+  let finite = 0;
+  while (finite < n && Number.isFinite(a[finite] * b[finite])) finite++;
   const out = new Array<number | null>(n);
-  for (let i = 0; i < n; i++) {
-    const v = a[i] * b[i];
-    out[i] = Number.isFinite(v) ? v : null;
+  if (finite === n) {
+    for (let i = 0; i < n; i++) out[i] = a[i] * b[i];
+  } else {
+    for (let i = 0; i < n; i++) {
+      const v = a[i] * b[i];
+      out[i] = Number.isFinite(v) ? v : null;
+    }
   }
   return out;
 }
