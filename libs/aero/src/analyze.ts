@@ -43,7 +43,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.2.4';
+export const ENGINE_VERSION = '1.2.5';
 
 export { ENGINE_CAUTION } from './caution';
 
@@ -697,6 +697,7 @@ function analyzeSurface(surface: PreparedSurface, context: SurfaceContext, gradi
     reCf: reCf === null ? new Array<null>(n).fill(null) : nullable(reCf, n),
   };
   if (surface.x !== null) stations.x = numbers(surface.x);
+  if (reynoldsRatio !== null) stations.reynoldsRatio = numbers(reynoldsRatio);
   return {
     name: surface.name,
     stations,

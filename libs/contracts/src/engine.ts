@@ -266,6 +266,12 @@ const surfaceResultSchema = z.object({
      * the crossflow location; null where not computed (no sweep, engines before 1.2.0).
      */
     reCf: nullableStations.optional(),
+    /**
+     * Local unit Reynolds number over the free stream's (ρe μ∞ / ρ∞ μe) at each station, which the
+     * compressible laminar layer and the criteria use (Re_θ = Re∞ · ratio · Ue θ); only when M > 0
+     * (engines from 1.2.5): absent, the ratio is 1.
+     */
+    reynoldsRatio: z.array(z.number()).optional(),
   }),
   transition: z.object({
     s: z.number().nullable(),

@@ -31,3 +31,26 @@ describe('analysis summary', () => {
     expect(analysisFigures(result)[0]!.label).toContain('along the chord');
   });
 });
+
+describe('Re_θ plot', () => {
+  it('takes the local unit Reynolds number at Mach > 0, as the criteria do', () => {
+    // A plate in a stream 20 % faster than the free stream (Cp = −0.44 all along) at M 0.78: the edge
+    // density and viscosity differ from the free stream's, so local and free-stream Re_θ differ.
+    const plate = ['x cp', ...Array.from({ length: 401 }, (_, i) => `${i / 400} -0.44`)].join('\n');
+    const pressure = { kind: 'pressure' as const, inputs: inputs('pressure', { text: plate, layout: 'surface' }), upstream: {} };
+    const cruise = { kind: 'flow' as const, inputs: inputs('flow', { mode: 'reynolds', reynolds: 1.5e7, mach: 0.78, nCrit: 9 }), upstream: {} };
+    const result = computeCell('analysis', inputs('analysis', { flowCellId: ID, pressureCellId: ID2, criteria: ['michel'] }), { flowCellId: cruise, pressureCellId: pressure });
+    const surface = result.surfaces[0]!;
+    const ratio = surface.stations.reynoldsRatio!;
+    expect(Math.abs(ratio[100]! - 1)).toBeGreaterThan(0.05);
+    const michel = surface.transition.criteria.michel as { s: number; reTheta: number };
+    const figure = analysisFigures(result).find((f) => f.id === 'retheta')!.figure;
+    const [reTheta, line] = figure.traces;
+    // The last laminar station before the criterion: the plotted Re_θ is the criterion's own, within
+    // the station spacing, and still under the plotted Michel line.
+    const last = surface.stations.s.findIndex((s) => s >= michel.s) - 1;
+    expect((reTheta!.y[last] as number) / michel.reTheta).toBeCloseTo(1, 1);
+    expect(Math.abs((reTheta!.y[last] as number) / michel.reTheta - 1)).toBeLessThan(0.02);
+    expect(reTheta!.y[last] as number).toBeLessThan(line!.y[last] as number);
+  });
+});

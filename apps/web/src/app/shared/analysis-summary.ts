@@ -171,11 +171,13 @@ export function analysisFigures(result: EngineResult): { id: string; label: stri
     markers: [...markers, { at: result.flow.nCrit, axis: 'y', label: `N_crit = ${result.flow.nCrit.toFixed(2)}`, color: '#ba1a1a', dash: 'dot' }],
   };
   const hFigure: PlotFigure = { x, y: { title: 'H = δ*/θ' }, traces: stationTraces(result, (s) => s.stations.H), markers };
-  const reThetaTraces: PlotTrace[] = stationTraces(result, (s) => s.stations.theta.map((theta, k) => (theta === null ? null : reynolds * s.stations.ue[k] * theta)));
+  // On the local unit Reynolds number where the layer is compressible (as the criteria take it).
+  const localRe = (surface: EngineSurfaceResult, k: number) => reynolds * (surface.stations.reynoldsRatio?.[k] ?? 1);
+  const reThetaTraces: PlotTrace[] = stationTraces(result, (s) => s.stations.theta.map((theta, k) => (theta === null ? null : localRe(s, k) * s.stations.ue[k] * theta)));
   const michelTraces: PlotTrace[] = result.surfaces.map((surface, i) => ({
     x: alongAxis(surface).values,
     y: surface.stations.s.map((s, k) => {
-      const reX = reynolds * surface.stations.ue[k] * s;
+      const reX = localRe(surface, k) * surface.stations.ue[k] * s;
       return reX >= 1e4 ? michelTransitionReTheta(reX) : null;
     }),
     name: `Michel line, ${surface.name}`,
@@ -183,7 +185,7 @@ export function analysisFigures(result: EngineResult): { id: string; label: stri
     dash: 'dot',
     width: 1.25,
   }));
-  const reThetaFigure: PlotFigure = { x, y: { title: 'Re_θ = Ue θ / ν', log: true }, traces: [...reThetaTraces, ...michelTraces], markers };
+  const reThetaFigure: PlotFigure = { x, y: { title: 'Re_θ = Ue θ / νe', log: true }, traces: [...reThetaTraces, ...michelTraces], markers };
   const cfFigure: PlotFigure = {
     x,
     y: { title: 'c_f (on local Ue)', range: [0, awayFromAttachment(result, (s) => s.stations.cf) * 1.15] },
