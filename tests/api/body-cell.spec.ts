@@ -83,3 +83,33 @@ describe('a body of revolution cell', () => {
     expect(cell.problems.map((p) => p.field)).toContain('fineness');
   });
 });
+
+describe('the nacelle project’s demo study (invented data)', () => {
+  it('is seeded for the nacelle team only, and runs: the pod’s forebody laminar to eᴺ transition, a sweep of N_crit moving it aft as N_crit rises', async () => {
+    const mine = (await engineer.get('/api/projects').expect(200)).body as { id: string; name: string }[];
+    const nacelle = mine.find((p) => p.name === 'Larkspur T-62 nacelles')!;
+    const studies = (await engineer.get(`/api/projects/${nacelle.id}/studies`).expect(200)).body as { id: string; title: string }[];
+    const pod = studies.find((s) => s.title === 'Nacelle pod, cruise: laminar forebody (invented data)')!;
+    expect(pod).toBeDefined();
+    const reviewer = await signIn(t.app, 'reviewer', testEnv.publicUrl);
+    await reviewer.get(`/api/studies/${pod.id}/branches`).expect(404);
+
+    const branchId = (await engineer.get(`/api/studies/${pod.id}/branches`).expect(200)).body[0].id as string;
+    await runAndWait(engineer, branchId);
+    const draft = (await engineer.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    expect(draft.cells.map((c) => c.kind)).toEqual(['note', 'flow', 'body', 'analysis', 'sweep']);
+    expect(draft.cells.filter((c) => c.kind !== 'note').map((c) => c.output?.status)).toEqual(['ok', 'ok', 'ok', 'ok']);
+    const analysis = draft.cells.find((c) => c.kind === 'analysis')!.output!.result as EngineResult;
+    const surface = analysis.surfaces[0]!;
+    expect(surface.transition.by).toBe('eN');
+    // Ahead of the pod's widest point (x/L 0.42): transition on the forebody's falling pressure.
+    const x = surface.stations.x!;
+    const at = x[surface.stations.s.findIndex((s) => s >= surface.transition.s!)]!;
+    expect(at).toBeGreaterThan(0.1);
+    expect(at).toBeLessThan(0.42);
+    const sweep = draft.cells.find((c) => c.kind === 'sweep')!.output!.result as { steps: { value: number; surfaces: { transitionX: number | null }[] }[] };
+    const moves = sweep.steps.map((s) => s.surfaces[0]!.transitionX!);
+    expect(moves).toHaveLength(7);
+    for (let i = 1; i < moves.length; i++) expect(moves[i]!).toBeGreaterThanOrEqual(moves[i - 1]!);
+  });
+});

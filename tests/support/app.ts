@@ -7,7 +7,7 @@ import { loadConfig, type Config } from '../../server/src/config';
 import { createLogger } from '../../server/src/logger';
 import { startJobSender, startJobWorker, type JobWorker } from '../../server/src/jobs/start';
 import { seedDemo } from '../../server/src/seed/demo';
-import { demoStudyFillers } from '../../server/src/seed/fillers';
+import { demoNacelleFillers, demoStudyFillers } from '../../server/src/seed/fillers';
 import { createTestDatabase, type TestDatabase } from './db';
 import { testEnv } from './env';
 
@@ -46,7 +46,7 @@ export async function createTestApp(
     WEB_DIST: '/nonexistent',
     ...overrides,
   });
-  const demo = await seedDemo(database.db, demoStudyFillers);
+  const demo = await seedDemo(database.db, demoStudyFillers, demoNacelleFillers);
   const engine = createEnginePool({ threads: 2 });
   const logger = createLogger(config.LOG_LEVEL, undefined, options.logDestination);
   const jobs = await startJobSender(config, database, logger);

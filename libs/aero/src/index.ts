@@ -6,6 +6,7 @@ export * from './atmosphere';
 export * from './attachment-line';
 export * from './compressible';
 export * from './demo-sections';
+export * from './demo-nacelle';
 export * from './envelope-en';
 export * from './flat-plate';
 export * from './flow-condition';

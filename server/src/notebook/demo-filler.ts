@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
-import { DEMO_SWEEP_DEG, deriveFlowCondition, ENGINE_CAUTION, inventedDemoSections } from '@laminote/aero';
+import { DEMO_SWEEP_DEG, deriveFlowCondition, ENGINE_CAUTION, inventedDemoNacelle, inventedDemoSections } from '@laminote/aero';
 import type { CellInputs, CellKind } from '@laminote/contracts';
 import { branches, cells, drafts } from '../db/schema';
 import type { DemoStudyFiller } from '../seed/demo';
@@ -21,15 +21,26 @@ const N_CRIT = 9;
 /** Leading-edge radius of the invented section, per chord (its shape's own value). */
 const LEADING_EDGE_RADIUS = 0.0085;
 
-export const fillDemoNotebook: DemoStudyFiller = async (tx, { studyId, authorId }) => {
+const stored = <K extends CellKind>(cellId: string, kind: K, title: string, inputs: Partial<CellInputs[K]>): StoredCell => ({ cellId, kind, title, collapsed: false, inputs, lastOutputKey: null, lastGoodOutputKey: null });
+
+/** Writes a demo study's main-branch draft (revision 1) and its cells. */
+async function writeDemoDraft(tx: Parameters<DemoStudyFiller>[0], studyId: string, authorId: string, stack: StoredCell[]): Promise<void> {
   const [branch] = await tx.select().from(branches).where(and(eq(branches.studyId, studyId), eq(branches.name, MAIN_BRANCH)));
   if (!branch) return;
+  await tx.insert(cells).values(stack.map((c) => ({ id: c.cellId, studyId, kind: c.kind, createdBy: authorId })));
+  await tx
+    .insert(drafts)
+    .values({ branchId: branch.id, revision: 1, cells: stack, updatedBy: authorId })
+    .onConflictDoUpdate({ target: drafts.branchId, set: { revision: 1, cells: stack, updatedBy: authorId } });
+}
+
+export const fillDemoNotebook: DemoStudyFiller = async (tx, { studyId, authorId }) => {
   const section = inventedDemoSections().find((s) => s.id === 'larkspur-t62-cruise') ?? inventedDemoSections()[0]!;
   const { altitude_m, mach, referenceLength_m } = section.flow;
   const air = deriveFlowCondition({ altitude_m, mach, referenceLength_m });
 
   const id = { note: randomUUID(), flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID(), sweep: randomUUID(), plate: randomUUID(), le: randomUUID() };
-  const cell = <K extends CellKind>(cellId: string, kind: K, title: string, inputs: Partial<CellInputs[K]>): StoredCell => ({ cellId, kind, title, collapsed: false, inputs, lastOutputKey: null, lastGoodOutputKey: null });
+  const cell = stored;
   const stack: StoredCell[] = [
     cell(id.note, 'note', 'About this study (invented data)', {
       markdown: [
@@ -63,9 +74,40 @@ export const fillDemoNotebook: DemoStudyFiller = async (tx, { studyId, authorId 
     }),
     cell(id.le, 'leadingEdge', 'Attachment line at 18° sweep', { flowCellId: id.flow, sweepDeg: SWEEP_DEG, mode: 'radius', leadingEdgeRadius: LEADING_EDGE_RADIUS }),
   ];
-  await tx.insert(cells).values(stack.map((c) => ({ id: c.cellId, studyId, kind: c.kind, createdBy: authorId })));
-  await tx
-    .insert(drafts)
-    .values({ branchId: branch.id, revision: 1, cells: stack, updatedBy: authorId })
-    .onConflictDoUpdate({ target: drafts.branchId, set: { revision: 1, cells: stack, updatedBy: authorId } });
+  await writeDemoDraft(tx, studyId, authorId, stack);
+};
+
+/**
+ * The notebook of the nacelle project's demo study: the invented Larkspur T-62 nacelle pod as a body of
+ * revolution at the wing's cruise, its transition by each criterion, and how firmly the laminar forebody
+ * holds as N_crit changes.
+ */
+export const fillDemoNacelleNotebook: DemoStudyFiller = async (tx, { studyId, authorId }) => {
+  const pod = inventedDemoNacelle();
+  const id = { note: randomUUID(), flow: randomUUID(), body: randomUUID(), analysis: randomUUID(), sweep: randomUUID() };
+  const stack: StoredCell[] = [
+    stored(id.note, 'note', 'About this study (invented data)', {
+      markdown: [
+        '**Invented data for the demonstration.** Tamsk Aerodynamics and its Larkspur T-62 are fictional; the nacelle pod is an analytic shape written for Laminote (an elliptic forebody and a parabolic afterbody), not any aircraft’s.',
+        '',
+        `Scenario: the nacelle pod, ${pod.length_m} m long, at the wing’s cruise (${pod.flow.altitude_m.toLocaleString('en-GB')} m, Mach ${pod.flow.mach}), treated as a closed body of revolution at zero incidence. Where does its forebody boundary layer turn turbulent, by which criterion, and how much does that lean on N_crit? The pod’s surface speeds come from the axisymmetric panel method and are incompressible (the analysis says so); the boundary layer is compressible.`,
+        '',
+        `**Caution.** ${ENGINE_CAUTION}`,
+      ].join('\n'),
+    }),
+    stored(id.flow, 'flow', 'Cruise, 12 500 m, on the pod length (invented)', {
+      mode: 'altitude',
+      altitude_m: pod.flow.altitude_m,
+      isaTemperatureOffset_K: 0,
+      mach: pod.flow.mach,
+      referenceLength_m: pod.length_m,
+      turbulenceMode: 'nCrit',
+      nCrit: N_CRIT,
+      sweepDeg: 0,
+    }),
+    stored(id.body, 'body', `${pod.title} (invented)`, { source: 'coordinates', fineness: 6, coordinates: pod.meridian, panels: 120 }),
+    stored(id.analysis, 'analysis', 'Transition on the pod at cruise', { flowCellId: id.flow, pressureCellId: id.body, criteria: ['eN', 'michel', 'hRx', 'granville'], trips: {}, turbulent: true }),
+    stored(id.sweep, 'sweep', 'Sensitivity to N_crit', { analysisCellId: id.analysis, parameter: 'nCrit', from: 6, to: 12, steps: 7 }),
+  ];
+  await writeDemoDraft(tx, studyId, authorId, stack);
 };

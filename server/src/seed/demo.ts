@@ -11,6 +11,7 @@ import { createStudy } from '../studies/service';
 export const DEMO_PROJECT = 'Larkspur T-62 wing';
 export const DEMO_NACELLE_PROJECT = 'Larkspur T-62 nacelles';
 export const DEMO_STUDY = 'Outboard section, cruise: laminar run and drag (invented data)';
+export const DEMO_NACELLE_STUDY = 'Nacelle pod, cruise: laminar forebody (invented data)';
 
 export interface DemoSeedResult {
   projectId: string;
@@ -21,7 +22,11 @@ export interface DemoSeedResult {
 /** Hooks that later parts of the product use to put content in the demo study (cells, versions). */
 export type DemoStudyFiller = (tx: Tx, ids: { projectId: string; studyId: string; authorId: string }) => Promise<void>;
 
-export async function seedDemo(db: Db, fillers: DemoStudyFiller[] = []): Promise<DemoSeedResult> {
+/**
+ * Seeds the scenario; `fillers` fill the wing study and `nacelleFillers` the nacelle study when each is
+ * first created.
+ */
+export async function seedDemo(db: Db, fillers: DemoStudyFiller[] = [], nacelleFillers: DemoStudyFiller[] = []): Promise<DemoSeedResult> {
   return db.transaction(async (tx) => {
     const ids = new Map<string, string>();
     for (const person of DEMO_USERS) {
@@ -66,6 +71,15 @@ export async function seedDemo(db: Db, fillers: DemoStudyFiller[] = []): Promise
           'Invented data for the demo: where does the boundary layer of the Larkspur T-62 outboard section turn turbulent at cruise, and what is it worth in drag?',
       }));
     if (!existing) for (const fill of fillers) await fill(tx, { projectId: wing.id, studyId: study.id, authorId: actor.id });
+
+    const [existingPod] = await tx.select().from(studies).where(and(eq(studies.projectId, nacelle.id), eq(studies.title, DEMO_NACELLE_STUDY)));
+    if (!existingPod) {
+      const pod = await createStudy(tx, actor, nacelle.id, {
+        title: DEMO_NACELLE_STUDY,
+        description: 'Invented data for the demo: how far does the boundary layer on the Larkspur T-62 nacelle pod stay laminar at cruise, and how firmly?',
+      });
+      for (const fill of nacelleFillers) await fill(tx, { projectId: nacelle.id, studyId: pod.id, authorId: actor.id });
+    }
     return { projectId: wing.id, studyId: study.id, created: !existing };
   });
 }

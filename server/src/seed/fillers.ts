@@ -1,4 +1,4 @@
-import { fillDemoNotebook } from '../notebook/demo-filler';
+import { fillDemoNacelleNotebook, fillDemoNotebook } from '../notebook/demo-filler';
 import type { DemoStudyFiller } from './demo';
 
 /**
@@ -6,3 +6,6 @@ import type { DemoStudyFiller } from './demo';
  * notebook, a first version). Each part appends its filler here.
  */
 export const demoStudyFillers: DemoStudyFiller[] = [fillDemoNotebook];
+
+/** What fills the nacelle project's demo study when it is first created. */
+export const demoNacelleFillers: DemoStudyFiller[] = [fillDemoNacelleNotebook];

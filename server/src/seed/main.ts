@@ -2,7 +2,7 @@ import { loadConfig } from '../config';
 import { connect } from '../db/client';
 import { applyMigrations } from '../db/migrate';
 import { createLogger } from '../logger';
-import { demoStudyFillers } from './fillers';
+import { demoNacelleFillers, demoStudyFillers } from './fillers';
 import { seedDemo } from './demo';
 
 /** Migrate and seed the demo scenario: `tsx server/src/seed/main.ts`. */
@@ -11,7 +11,7 @@ const logger = createLogger(config.LOG_LEVEL, 'seed');
 const database = connect(config.DATABASE_URL, 2);
 try {
   await applyMigrations(database.db);
-  const result = await seedDemo(database.db, demoStudyFillers);
+  const result = await seedDemo(database.db, demoStudyFillers, demoNacelleFillers);
   logger.info(result, result.created ? 'demo scenario seeded' : 'demo scenario already present');
 } finally {
   await database.close();
