@@ -43,7 +43,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.2.5';
+export const ENGINE_VERSION = '1.2.6';
 
 export { ENGINE_CAUTION } from './caution';
 
@@ -179,7 +179,7 @@ export function analyzeCase(input: unknown): EngineResult {
       r.cd = null;
       r.cdFriction = null;
     }
-    warnings.push('body: no drag coefficient is given for a body of revolution (Squire–Young and the friction integral are used in their plane form); transition and separation are');
+    warnings.push('body: no drag coefficient is given for a body of revolution (Squire–Young and the friction integral are plane forms, per unit span); transition and separation are given as on any surface');
   }
 
   let attachmentLine: EngineResult['attachmentLine'] = null;
@@ -229,7 +229,7 @@ function surfacesFromShape(
       return { surfaces: surfacesFromTable(table, mach, sweep, warnings), inviscid, leadingEdgeRadius: Number.isFinite(radius) && radius > 0 ? radius : undefined };
     }
     const body = bodyAt(engineCase.body!);
-    if (mach > 0) warnings.push(`body: the surface speeds are incompressible; mach ${mach} enters only through the boundary layer`);
+    if (mach > 0) warnings.push(`body: the surface speeds are incompressible; the Mach number (${mach}) enters only through the boundary layer`);
     const surface = surfaceFromArrays({ name: 'body', s: [0, ...body.s], ue: [0, ...body.speed.map(Math.abs)], r: [0, ...body.r] }, 0, mach, sweep, warnings);
     surface.x = Float64Array.from([0, ...body.x]);
     const { s: _s, speed: _speed, ...inviscid } = body;
