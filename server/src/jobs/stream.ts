@@ -23,10 +23,22 @@ export function streamBranchJobs(db: Db, events: JobEvents, branchId: string, re
   });
   res.write('retry: 2000\n\n');
   let open = true;
+  // Notices that come while the first snapshot is being read wait for it: the stream starts with the
+  // true state, whatever lands meanwhile.
+  let started = false;
+  const held: JobEvent[] = [];
   const send = (event: JobEvent) => {
-    if (open) res.write(`data: ${JSON.stringify(event)}\n\n`);
+    if (!open) return;
+    if (!started && event.type !== 'snapshot') held.push(event);
+    else res.write(`data: ${JSON.stringify(event)}\n\n`);
   };
-  const snapshot = async () => send({ type: 'snapshot', jobs: await Promise.all((await branchJobs(db, branchId)).map((row) => jobView(db, row))) });
+  const snapshot = async () => {
+    send({ type: 'snapshot', jobs: await Promise.all((await branchJobs(db, branchId)).map((row) => jobView(db, row))) });
+    if (!started) {
+      started = true;
+      for (const event of held.splice(0)) send(event);
+    }
+  };
   const pending = new Map<string, NodeJS.Timeout>();
   const sendJob = (jobId: string) => {
     if (pending.has(jobId)) return;
