@@ -1,11 +1,17 @@
 import { availableParallelism } from 'node:os';
+import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { Piscina } from 'piscina';
-import type { CellTask, ComputedOutput } from '@laminote/aero';
-import type { SweepCaseOutput, SweepCasesTask } from './sweep-cases';
+import { computeCellOutput, type CellTask, type ComputedOutput } from '@laminote/aero';
+import { computeSweepCase, type SweepCaseOutput, type SweepCasesTask } from './sweep-cases';
 
 /**
- * A job worker's compute threads (piscina): cells and chunks of sweep cases run off the event loop,
- * one per thread, so the process keeps talking to the database (and answering its signals) meanwhile.
+ * Where a job worker computes: cells and chunks of sweep cases. With more than one compute thread they
+ * run on piscina threads, one piece per thread, off the event loop. A worker process with one thread
+ * (`ENGINE_THREADS=1`, the process being the unit of parallelism) computes on its own main thread
+ * instead: handing every piece to a second thread costs that thread's own heap, collector and
+ * compiled code besides the copy both ways, for nothing, since the process has nothing else to do
+ * meanwhile. A chunk there gives way to the event loop between cases (at most every YIELD_MS), so the
+ * queue's upkeep, the database connections and the process's signals are still seen to promptly.
  */
 export interface ComputePool {
   cell(task: CellTask): Promise<ComputedOutput>;
@@ -14,8 +20,15 @@ export interface ComputePool {
   close(): Promise<void>;
 }
 
+/** Longest a worker computing on its main thread goes without letting the event loop run. */
+const YIELD_MS = 25;
+
 export function createComputePool(threads = 0): ComputePool {
   const size = threads > 0 ? threads : Math.max(1, availableParallelism());
+  return size === 1 ? createInlinePool() : createThreadPool(size);
+}
+
+function createThreadPool(size: number): ComputePool {
   const piscina = new Piscina({
     filename: new URL('./compute-worker.mjs', import.meta.url).href,
     execArgv: [],
@@ -28,5 +41,28 @@ export function createComputePool(threads = 0): ComputePool {
     cell: (task) => piscina.run(task) as Promise<ComputedOutput>,
     sweepCases: (task) => piscina.run(task, { name: 'computeSweepCases' }) as Promise<SweepCaseOutput[]>,
     close: () => piscina.close({ force: true }),
+  };
+}
+
+function createInlinePool(): ComputePool {
+  return {
+    threads: 1,
+    async cell(task) {
+      await yieldToEventLoop();
+      return computeCellOutput(task);
+    },
+    async sweepCases({ task, indices }) {
+      const out: SweepCaseOutput[] = [];
+      let since = performance.now();
+      for (const index of indices) {
+        out.push(computeSweepCase(task, index));
+        if (performance.now() - since >= YIELD_MS) {
+          await yieldToEventLoop();
+          since = performance.now();
+        }
+      }
+      return out;
+    },
+    close: async () => undefined,
   };
 }

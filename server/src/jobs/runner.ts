@@ -1,5 +1,5 @@
 import { setTimeout as sleep } from 'node:timers/promises';
-import { and, asc, eq, gte, inArray, lt, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type PgBoss from 'pg-boss';
 import { assembleSweep, ENGINE_VERSION, roundedNumber, toCellError, upstreamFailedError, type ComputedOutput } from '@laminote/aero';
 import { CELL_KIND_LABELS, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs } from '@laminote/contracts';
@@ -13,7 +13,7 @@ import type { ComputePool } from './compute-pool';
 import { markDraftCells } from './mark';
 import { RETENTION_QUEUE, stableJobId, WORK_QUEUE, type WorkMessage } from './queue';
 import { pruneRetained, type RetentionPolicy } from './retention';
-import { loadJob, notifyJob, type RunJobRow } from './store';
+import { JOB_CHANNEL, loadJob, notifyJob, type JobNotice, type RunJobRow } from './store';
 import { CASES_PER_CHUNK, type JobWork } from './work';
 
 /**
@@ -207,26 +207,35 @@ export class JobRunner {
 
   private async sweepChunk(message: Extract<WorkMessage, { type: 'cases' }>): Promise<void> {
     const row = await this.row(message.jobId);
-    const state = row ? await this.state(row.id) : null;
-    if (!row || state === null || !jobIsActive(state)) return;
-    const w = (row.work as JobWork[]).find((u) => u.cellId === message.cellId);
-    if (!w?.key || !w.task) return;
+    const w = row ? (row.work as JobWork[]).find((u) => u.cellId === message.cellId) : undefined;
+    if (!row || !w?.key || !w.task) return;
     const key = w.key;
-    // A chunk handed out again (its worker died, or a run after a cancelled one) computes only what is missing.
-    const have = await this.db
-      .select({ index: sweepCases.index })
-      .from(sweepCases)
-      .where(and(eq(sweepCases.sweepKey, key), gte(sweepCases.index, message.from), lt(sweepCases.index, message.to)));
-    const present = new Set(have.map((h) => h.index));
-    const missing = [];
+    // The job's state, and the chunk's cases stored already, in one round trip: a chunk handed out again
+    // (its worker died, or a run after a cancelled one) computes only what is missing.
+    const { rows } = await this.database.pool.query<{ state: JobState | null; have: number[] | null }>(
+      `select (select state from run_jobs where id = $1) as state,
+              (select array_agg(index) from sweep_cases where sweep_key = $2 and index >= $3 and index < $4) as have`,
+      [row.id, key, message.from, message.to],
+    );
+    const state = rows[0]?.state ?? null;
+    if (state === null || !jobIsActive(state)) return;
+    const present = new Set(rows[0]?.have ?? []);
+    const missing: number[] = [];
     for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
     if (missing.length) {
       const computed = await this.compute.sweepCases({ task: w.task, indices: missing });
-      await this.db
-        .insert(sweepCases)
-        .values(computed.map((c) => ({ sweepKey: key, index: c.index, step: sql`${c.json}::jsonb` })))
-        .onConflictDoNothing();
-      await notifyJob(this.db, { type: 'job', jobId: row.id, branchId: row.branchId });
+      // Each case stored once (one stored by an earlier try stays), the app servers told, in one statement:
+      // the cases go as two arrays, the JSON text of each as the engine wrote it.
+      await this.database.pool.query(
+        `with stored as (
+           insert into sweep_cases (sweep_key, index, step)
+           select $1, c.index, c.step::jsonb from unnest($2::int[], $3::text[]) as c(index, step)
+           on conflict do nothing
+           returning 1
+         )
+         select pg_notify($4, $5)`,
+        [key, computed.map((c) => c.index), computed.map((c) => c.json), JOB_CHANNEL, JSON.stringify({ type: 'job', jobId: row.id, branchId: row.branchId } satisfies JobNotice)],
+      );
     }
     if (await this.assembleIfComplete(row, w)) await this.finishIfDone(row);
   }

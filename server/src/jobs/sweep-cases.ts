@@ -1,9 +1,9 @@
-import { computeSweepCase, roundedNumber, type CellTask } from '@laminote/aero';
+import { computeSweepCase as computeCase, roundedNumber, type CellTask } from '@laminote/aero';
 import type { SweepInputs } from '@laminote/contracts';
 
 /**
- * What a job worker's threads compute for a chunk of a sweep: each case on its own, as the sweep
- * cell computes it (libs/aero/src/cells/sweep.ts), kept as JSON text to store.
+ * What a job worker computes for a chunk of a sweep: each case on its own, as the sweep cell computes
+ * it (libs/aero/src/cells/sweep.ts), kept as JSON text to store.
  */
 
 export interface SweepCasesTask {
@@ -18,7 +18,11 @@ export interface SweepCaseOutput {
   json: string;
 }
 
+/** One case of the sweep `task`, as stored. */
+export function computeSweepCase(task: CellTask, index: number): SweepCaseOutput {
+  return { index, json: JSON.stringify(computeCase(task.inputs as SweepInputs, task.upstream, index), roundedNumber) };
+}
+
 export function computeSweepCases({ task, indices }: SweepCasesTask): SweepCaseOutput[] {
-  const inputs = task.inputs as SweepInputs;
-  return indices.map((index) => ({ index, json: JSON.stringify(computeSweepCase(inputs, task.upstream, index), roundedNumber) }));
+  return indices.map((index) => computeSweepCase(task, index));
 }

@@ -25,11 +25,12 @@ export interface JobWork {
 }
 
 /**
- * Sweep cases per queue job: about a tenth of a second of computing for a 2 × 300-station analysis, so
- * a lost worker costs little, while the queue's round trips for a chunk are spread over enough cases
- * (npm run bench -- jobs).
+ * Sweep cases per queue job: about a tenth of a second of computing for a 2 × 300-station analysis
+ * (0.8-1 ms a case), so a lost worker costs little and a sweep of 1,000 still shows ten steps of
+ * progress, while the queue's round trips for a chunk (five, about 0.5 ms of a worker's CPU each) are
+ * spread over enough cases (npm run bench -- jobs).
  */
-export const CASES_PER_CHUNK = 50;
+export const CASES_PER_CHUNK = 100;
 
 export function planWork(order: readonly string[], plans: Map<string, CellPlan>, stored: ReadonlySet<string>, draftOrder: readonly string[]): JobWork[] {
   return order.map((cellId) => {
