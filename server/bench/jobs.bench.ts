@@ -13,37 +13,21 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
-import { computeSweepCase } from '@laminote/aero';
-import { CELL_SCHEMAS, type CellInputs, type CellKind, type Job } from '@laminote/contracts';
-import { joukowskiLoop } from '../../libs/aero/test/joukowski';
+import { createInterface } from 'node:readline';
+import type { Job } from '@laminote/contracts';
 import { ROOT } from '../../scripts/lib/paths';
 import { createTestApp } from '../../tests/support/app';
 import { testEnv } from '../../tests/support/env';
 import { signIn } from '../../tests/support/sign-in';
+import { JOB_CHANNEL, type JobNotice } from '../src/jobs/store';
+import { CASES, inProcessCases, studyCells, WARM_UP } from './sweep-case-loop';
 
-const CASES = 1000;
-/** Cases each side computes before it is measured: enough for the engine's code to be optimised (about 200). */
-const WARM_UP = 300;
 /** Rounds of (one worker, two workers), each beside in-process cases; BENCH_ROUNDS overrides. */
 const ROUNDS = Number(process.env['BENCH_ROUNDS'] ?? 3);
 const out = (line: string) => process.stdout.write(`${line}\n`);
-const parsed = <K extends CellKind>(kind: K, inputs: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(inputs) as CellInputs[K];
 
 const t = await createTestApp({ LOG_LEVEL: 'silent' }, { worker: false });
 const engineer = await signIn(t.app, 'engineer', testEnv.publicUrl);
-
-function studyCells(label: string) {
-  const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 601);
-  const table = [`# ${label}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
-  const ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID(), sweep: randomUUID() };
-  const inputs = {
-    flow: { mode: 'reynolds', reynolds: 6e6, mach: 0, nCrit: 9 },
-    pressure: { text: table },
-    analysis: { flowCellId: ids.flow, pressureCellId: ids.pressure, criteria: ['eN', 'michel'] },
-    sweep: { analysisCellId: ids.analysis, parameter: 'reynolds', from: 1e6, to: 3e7, steps: CASES },
-  };
-  return { ids, inputs };
-}
 
 /**
  * Starts a worker process (DATABASE_URL only, one compute thread) and waits until it takes work.
@@ -82,15 +66,44 @@ async function newStudy(label: string, steps: number): Promise<string> {
   return branchId;
 }
 
+/**
+ * Job notices (the channel workers notify and app servers LISTEN to), so the bench follows a job as a
+ * browser does over server-sent events: it asks for the job when it has moved, not on a timer (polling
+ * every 100 ms cost the app server more CPU than the notices, on the same two cores as the workers).
+ */
+const listener = await t.database.pool.connect();
+const noticeWaiters = new Map<string, () => void>();
+listener.on('notification', (msg) => {
+  const notice = JSON.parse(msg.payload ?? '{}') as JobNotice;
+  noticeWaiters.get(notice.jobId)?.();
+});
+await listener.query(`LISTEN ${JOB_CHANNEL}`);
+
+/** Resolves at the job's next notice, or after a second whatever happens. */
+function nextNotice(jobId: string): Promise<void> {
+  return new Promise((resolve) => {
+    const timer = setTimeout(done, 1000);
+    function done() {
+      clearTimeout(timer);
+      noticeWaiters.delete(jobId);
+      resolve();
+    }
+    noticeWaiters.set(jobId, done);
+  });
+}
+
 async function runToEnd(branchId: string): Promise<Job> {
   const run = await engineer.post(`/api/branches/${branchId}/run`, {}).expect(202);
+  const jobId = run.body.jobId as string;
   for (;;) {
-    const job = (await engineer.get(`/api/jobs/${run.body.jobId}`).expect(200)).body as Job;
+    // Waiting for the next notice starts before the job is read, so none falls between the two.
+    const moved = nextNotice(jobId);
+    const job = (await engineer.get(`/api/jobs/${jobId}`).expect(200)).body as Job;
     if (job.state !== 'queued' && job.state !== 'running') {
       if (job.state !== 'completed') throw new Error(`the job ended ${job.state}: ${job.error ?? ''}`);
       return job;
     }
-    await new Promise((resolve) => setTimeout(resolve, 100));
+    await moved;
   }
 }
 
@@ -190,23 +203,22 @@ async function timedRun(workers: number): Promise<TimedRun> {
   return { wallMs, cpuMs: cpuAfter - cpuBefore, mainMs, computeMs, idleCpuMsPerS, warmUpCpuMsPerCase, appMs: appAfter - appBefore, postgresMs: pgAfter - pgBefore };
 }
 
-/** The same 1,000 cases computed one after another in this process with no queue (after WARM_UP cases): wall and CPU ms a case. */
-function inProcessCase(): { wallMs: number; cpuMs: number } {
-  const { inputs } = studyCells('in-process');
-  const upstream = {
-    analysisCellId: {
-      kind: 'analysis' as const,
-      inputs: parsed('analysis', inputs.analysis),
-      upstream: { flowCellId: { kind: 'flow' as const, inputs: parsed('flow', inputs.flow), upstream: {} }, pressureCellId: { kind: 'pressure' as const, inputs: parsed('pressure', inputs.pressure), upstream: {} } },
-    },
-  };
-  const sweep = parsed('sweep', inputs.sweep);
-  for (let i = 0; i < WARM_UP; i++) computeSweepCase(sweep, upstream, (i * 37) % CASES);
-  const start = performance.now();
-  const cpu = process.cpuUsage();
-  for (let index = 0; index < CASES; index++) computeSweepCase(sweep, upstream, index);
-  const used = process.cpuUsage(cpu);
-  return { wallMs: (performance.now() - start) / CASES, cpuMs: (used.user + used.system) / 1000 / CASES };
+
+/**
+ * Two in-process loops at once, each in a process of its own (warmed up, then started together): what
+ * the cases cost when two processes compute side by side on this machine, as two workers do. Their
+ * mean CPU and wall time a case.
+ */
+async function inProcessPair(): Promise<{ wallMs: number; cpuMs: number }> {
+  const loops = [0, 1].map(() => {
+    const child = spawn(process.execPath, ['--import', 'tsx', 'server/bench/sweep-case-loop.ts'], { cwd: ROOT, env: { PATH: process.env['PATH'] }, stdio: ['pipe', 'pipe', 'inherit'] });
+    const lines = createInterface({ input: child.stdout! })[Symbol.asyncIterator]();
+    return { child, next: async () => ((await lines.next()).value as string | undefined) ?? '' };
+  });
+  for (const loop of loops) if ((await loop.next()) !== 'ready') throw new Error('an in-process loop did not start');
+  for (const loop of loops) loop.child.stdin!.write('go\n');
+  const figures = await Promise.all(loops.map(async (loop) => JSON.parse(await loop.next()) as { wallMs: number; cpuMs: number }));
+  return { wallMs: (figures[0]!.wallMs + figures[1]!.wallMs) / 2, cpuMs: (figures[0]!.cpuMs + figures[1]!.cpuMs) / 2 };
 }
 
 /** The median of a few figures. */
@@ -218,28 +230,44 @@ function median(xs: readonly number[]): number {
 
 try {
   // In-process and job runs alternate, so each job run is compared with in-process cases computed in
-  // the same minutes (the mean of the one just before and the one just after it): on a shared machine
-  // CPU time a case drifts with what else runs.
-  const inProcess = [inProcessCase()];
-  const runs: { workers: 1 | 2; run: TimedRun; caseCpu: number; caseWall: number; load: number }[] = [];
+  // the same minutes (the mean of those just before and just after it): on a shared machine CPU time
+  // a case drifts with what else runs. One worker is held against one loop in this process; two
+  // workers against that and against two loops computing at once (two processes on two cores slow
+  // each other down, whatever runs in them).
+  const runs: { workers: 1 | 2; run: TimedRun; caseCpu: number; caseWall: number; pairCpu: number | null; load: number }[] = [];
+  const singles: number[] = [];
+  const pairs: number[] = [];
   for (let round = 0; round < ROUNDS; round++) {
     for (const workers of [1, 2] as const) {
+      const before = await inProcessCases();
+      const pairBefore = workers === 2 ? await inProcessPair() : null;
       const run = await timedRun(workers);
       const load = loadavg()[0]!;
-      inProcess.push(inProcessCase());
-      const [a, b] = inProcess.slice(-2) as [{ cpuMs: number; wallMs: number }, { cpuMs: number; wallMs: number }];
-      runs.push({ workers, run, caseCpu: (a.cpuMs + b.cpuMs) / 2, caseWall: (a.wallMs + b.wallMs) / 2, load });
+      const pairAfter = workers === 2 ? await inProcessPair() : null;
+      const after = await inProcessCases();
+      singles.push(before.cpuMs, after.cpuMs);
+      if (pairBefore && pairAfter) pairs.push(pairBefore.cpuMs, pairAfter.cpuMs);
+      runs.push({
+        workers,
+        run,
+        caseCpu: (before.cpuMs + after.cpuMs) / 2,
+        caseWall: (before.wallMs + after.wallMs) / 2,
+        pairCpu: pairBefore && pairAfter ? (pairBefore.cpuMs + pairAfter.cpuMs) / 2 : null,
+        load,
+      });
     }
   }
   const pct = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} %`;
   const perCase = (ms: number) => `${(ms / CASES).toFixed(2)} ms`;
   const overhead = (r: (typeof runs)[number]) => (r.run.cpuMs / CASES / r.caseCpu - 1) * 100;
+  const pairOverhead = (r: (typeof runs)[number]) => (r.run.cpuMs / CASES / r.pairCpu! - 1) * 100;
   out(`jobs: ${CASES}-case Reynolds-number sweep of a 2 × 300-station analysis (e^N and Michel), as a job through the API; ${ROUNDS} rounds`);
-  out(`  in-process, no queue (the same ${CASES} cases one after another, one thread), between the job runs: ${inProcess.map((c) => `${c.cpuMs.toFixed(2)}`).join(', ')} ms CPU a case`);
+  out(`  in-process, no queue (the same ${CASES} cases one after another, one thread), around the job runs: ${singles.map((ms) => ms.toFixed(2)).join(', ')} ms CPU a case`);
+  out(`  two such loops at once, in two processes, around the two-worker runs: ${pairs.map((ms) => ms.toFixed(2)).join(', ')} ms CPU a case`);
   for (const r of runs) {
     const n = r.workers;
     out(
-      `  ${n} worker process${n > 1 ? 'es' : ''} × 1 thread: wall ${(r.run.wallMs / 1000).toFixed(2)} s; worker CPU ${perCase(r.run.cpuMs)} a case against ${r.caseCpu.toFixed(2)} ms in-process, job overhead ${pct(overhead(r))}` +
+      `  ${n} worker process${n > 1 ? 'es' : ''} × 1 thread: wall ${(r.run.wallMs / 1000).toFixed(2)} s; worker CPU ${perCase(r.run.cpuMs)} a case against ${r.caseCpu.toFixed(2)} ms in-process, job overhead ${pct(overhead(r))}${r.pairCpu === null ? '' : ` (against two loops at once ${r.pairCpu.toFixed(2)} ms: ${pct(pairOverhead(r))})`}` +
         `; wall × processes ${((r.run.wallMs * n) / CASES).toFixed(2)} ms a case (${pct(((r.run.wallMs * n) / CASES / r.caseWall - 1) * 100)} against in-process wall); load ${r.load.toFixed(1)}`,
     );
     out(
@@ -249,14 +277,18 @@ try {
   }
   for (const n of [1, 2] as const) {
     const of = runs.filter((r) => r.workers === n);
-    out(`  median job overhead, ${n} worker process${n > 1 ? 'es' : ''}: ${pct(median(of.map(overhead)))} (target < 20 %); median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s`);
+    out(
+      `  median job overhead, ${n} worker process${n > 1 ? 'es' : ''}: ${pct(median(of.map(overhead)))} against one in-process loop (target < 20 %)` +
+        `${n > 1 ? `, ${pct(median(of.map(pairOverhead)))} against two loops at once` : ''}; median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s`,
+    );
   }
   const idle = runs.filter((r) => r.workers === 1).map((r) => r.run.idleCpuMsPerS);
   out(`  an idle worker process uses ${median(idle).toFixed(1)} ms CPU a second, included above`);
   out(`  speed-up of two workers over one (median wall): ${(median(runs.filter((r) => r.workers === 1).map((r) => r.run.wallMs)) / median(runs.filter((r) => r.workers === 2).map((r) => r.run.wallMs))).toFixed(2)}×`);
-  out(`  (wall: POST /run to the job completed, its 3 light cells and the sweep's assembly included; each side warmed up by ${WARM_UP} cases (each worker) first;`);
+  out(`  (wall: POST /run to the job seen completed (followed by its notices, as the browser does), its 3 light cells and the sweep's assembly included; each side warmed up by ${WARM_UP} cases (each worker) first;`);
   out(`   CPU: the worker processes' user + system time from /proc, all threads; ${availableParallelism()} cores, shared with whatever else runs)`);
 } finally {
+  listener.release();
   await t.close();
 }
 process.exit(0);

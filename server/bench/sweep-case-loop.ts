@@ -1,0 +1,61 @@
+/**
+ * The sweep the jobs benchmark runs (jobs.bench.ts), and its cases computed one after another in one
+ * process with no queue at all: the in-process figure the job's cost is held against. Run as a script
+ * (`tsx server/bench/sweep-case-loop.ts`) it is one of two such loops at once, for the two-worker
+ * comparison: it warms up, prints "ready", waits for a line on stdin, computes, prints its figures as JSON.
+ */
+import { randomUUID } from 'node:crypto';
+import { createInterface } from 'node:readline';
+import { computeSweepCase } from '@laminote/aero';
+import { CELL_SCHEMAS, type CellInputs, type CellKind } from '@laminote/contracts';
+import { joukowskiLoop } from '../../libs/aero/test/joukowski';
+
+export const CASES = 1000;
+/** Cases each side computes before it is measured: enough for the engine's code to be optimised (about 200). */
+export const WARM_UP = 300;
+
+const parsed = <K extends CellKind>(kind: K, inputs: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(inputs) as CellInputs[K];
+
+/** A study of a Joukowski section's pressures (601 points), its flow, a 2 × 300-station analysis and a Reynolds-number sweep of it. */
+export function studyCells(label: string) {
+  const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 601);
+  const table = [`# ${label}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
+  const ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID(), sweep: randomUUID() };
+  const inputs = {
+    flow: { mode: 'reynolds', reynolds: 6e6, mach: 0, nCrit: 9 },
+    pressure: { text: table },
+    analysis: { flowCellId: ids.flow, pressureCellId: ids.pressure, criteria: ['eN', 'michel'] },
+    sweep: { analysisCellId: ids.analysis, parameter: 'reynolds', from: 1e6, to: 3e7, steps: CASES },
+  };
+  return { ids, inputs };
+}
+
+/** The same CASES cases computed one after another in this process with no queue (after WARM_UP cases): wall and CPU ms a case. */
+export async function inProcessCases(beforeMeasuring: () => Promise<void> = async () => undefined): Promise<{ wallMs: number; cpuMs: number }> {
+  const { inputs } = studyCells('in-process');
+  const upstream = {
+    analysisCellId: {
+      kind: 'analysis' as const,
+      inputs: parsed('analysis', inputs.analysis),
+      upstream: { flowCellId: { kind: 'flow' as const, inputs: parsed('flow', inputs.flow), upstream: {} }, pressureCellId: { kind: 'pressure' as const, inputs: parsed('pressure', inputs.pressure), upstream: {} } },
+    },
+  };
+  const sweep = parsed('sweep', inputs.sweep);
+  for (let i = 0; i < WARM_UP; i++) computeSweepCase(sweep, upstream, (i * 37) % CASES);
+  await beforeMeasuring();
+  const start = performance.now();
+  const cpu = process.cpuUsage();
+  for (let index = 0; index < CASES; index++) computeSweepCase(sweep, upstream, index);
+  const used = process.cpuUsage(cpu);
+  return { wallMs: (performance.now() - start) / CASES, cpuMs: (used.user + used.system) / 1000 / CASES };
+}
+
+if (process.argv[1]?.endsWith('sweep-case-loop.ts')) {
+  const lines = createInterface({ input: process.stdin })[Symbol.asyncIterator]();
+  const figures = await inProcessCases(async () => {
+    process.stdout.write('ready\n');
+    await lines.next();
+  });
+  process.stdout.write(`${JSON.stringify(figures)}\n`);
+  process.exit(0);
+}
