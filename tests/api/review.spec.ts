@@ -447,7 +447,9 @@ describe('the mail outbox', () => {
     const db = t.database.db;
     const engineer = demoUser('engineer');
     const thread = await startThread(as['reviewer']!, `@${engineer.name} sink-down check: please confirm the trip location.`);
-    const sender = new OutboxSender(db, mailer(), logger, { baseDelayMs: 200, maxDelayMs: 400, leaseMs: 5_000, batchSize: 500 });
+    // A first retry 1.2–2 s later: long enough that a loaded machine's pauses between the failed round
+    // and the checks below do not make the row due again before they run.
+    const sender = new OutboxSender(db, mailer(), logger, { baseDelayMs: 1_500, maxDelayMs: 3_000, leaseMs: 5_000, batchSize: 500 });
 
     // Nothing listens on the SMTP port: every due row fails and stays, with its error and a later try.
     const down = await sender.runOnce();
@@ -463,7 +465,9 @@ describe('the mail outbox', () => {
     expect(await sender.runOnce()).toEqual({ sent: 0, failed: 0 });
 
     sink = await startSink({ smtpPort });
-    await new Promise((r) => setTimeout(r, 600));
+    // Until every failed row is due again.
+    const due = Math.max(...pending.map((row) => row.nextAttemptAt.getTime()));
+    await new Promise((r) => setTimeout(r, Math.max(0, due - Date.now()) + 100));
     // Two senders at once, as two server processes would run them: each row is taken by one of them.
     const other = new OutboxSender(db, mailer(), logger, { baseDelayMs: 200, batchSize: 500 });
     const [a, b] = await Promise.all([sender.runOnce(), other.runOnce()]);
