@@ -1,9 +1,7 @@
-import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express, { Router, type Express } from 'express';
 import compression from 'compression';
-import { pinoHttp } from 'pino-http';
 import type PgBoss from 'pg-boss';
 import type { Config } from './config';
 import type { Database } from './db/client';
@@ -14,6 +12,7 @@ import { authRouter, loadUser, requireUser } from './auth/routes';
 import { sessionMiddleware } from './auth/session';
 import { databaseUnavailable, errorHandler, notFoundHandler } from './http/problem';
 import { checkPathParams, inputGuard } from './http/edge';
+import { requestLog } from './http/request-log';
 import { securityHeaders } from './http/security-headers';
 import type { EnginePool } from './engine/pool';
 import type { JobEvents } from './jobs/events';
@@ -59,21 +58,7 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   if (config.PUBLIC_URL.startsWith('https://')) app.set('trust proxy', 1);
 
-  app.use(
-    pinoHttp({
-      logger,
-      genReqId: (req, res) => {
-        const id = (req.headers['x-request-id'] as string | undefined) ?? randomUUID();
-        res.setHeader('x-request-id', id);
-        return id;
-      },
-      autoLogging: { ignore: (req) => req.url === '/healthz' },
-      serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
-  );
+  app.use(requestLog(logger));
   // helmet's headers, worked out once from these fixed options (http/security-headers.ts).
   app.use(
     securityHeaders({
