@@ -64,6 +64,11 @@ describe('rough edges of the notebook', () => {
     // Two lines: the description starts below the name, in a lighter weight.
     expect(hintBox!.y).toBeGreaterThanOrEqual(nameBox!.y + nameBox!.height - 1);
     expect(Number(await style(name, 'font-weight'))).toBeGreaterThan(Number(await style(hint, 'font-weight')));
+    // Two columns, so the whole list fits above or below the button in a window of ordinary height.
+    const second = await page.getByRole('menuitem', { name: /Pressure distribution/ }).boundingBox();
+    const first = await item.boundingBox();
+    expect(second!.y).toBeCloseTo(first!.y, 0);
+    expect(second!.x).toBeGreaterThan(first!.x + first!.width / 2);
     await page.screenshot({ path: `${shots}-add-cell.png` });
     await page.keyboard.press('Escape');
   });
