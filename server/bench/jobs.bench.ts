@@ -11,7 +11,7 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { readdirSync, readFileSync } from 'node:fs';
+import { appendFileSync, readdirSync, readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { createInterface } from 'node:readline';
 import type { Job } from '@laminote/contracts';
@@ -31,16 +31,19 @@ const engineer = await signIn(t.app, 'engineer', testEnv.publicUrl);
 
 /**
  * Starts a worker process (DATABASE_URL only, one compute thread) and waits until it takes work.
- * BENCH_CPU_PROF=dir writes each worker's CPU profile (node --cpu-prof) there.
+ * BENCH_CPU_PROF=dir writes each worker's CPU profile (node --cpu-prof) there. For diagnosis,
+ * BENCH_WORKER_FLAGS adds Node/V8 options to each worker (e.g. "--trace-gc" or "--trace-deopt"), and
+ * BENCH_WORKER_LOG=path keeps each worker's standard output (its log and any such trace) in path.<pid>.
  */
 function startWorker(): Promise<ChildProcess> {
-  const child = spawn(process.execPath, [...(process.env['BENCH_CPU_PROF'] ? ['--cpu-prof', '--cpu-prof-dir', process.env['BENCH_CPU_PROF']] : []), '--import', 'tsx', 'server/src/jobs/worker-main.ts'], {
+  const child = spawn(process.execPath, [...(process.env['BENCH_CPU_PROF'] ? ['--cpu-prof', '--cpu-prof-dir', process.env['BENCH_CPU_PROF']] : []), ...(process.env['BENCH_WORKER_FLAGS'] ? process.env['BENCH_WORKER_FLAGS'].split(/\s+/).filter(Boolean) : []), '--import', 'tsx', 'server/src/jobs/worker-main.ts'], {
     cwd: ROOT,
     env: { PATH: process.env['PATH'], DATABASE_URL: t.database.url, ENGINE_THREADS: '1', LOG_LEVEL: 'info' },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   return new Promise((resolve, reject) => {
     child.stdout!.on('data', (chunk: Buffer) => {
+      if (process.env['BENCH_WORKER_LOG']) appendFileSync(`${process.env['BENCH_WORKER_LOG']}.${child.pid}`, chunk);
       if (chunk.toString().includes('job worker is running')) resolve(child);
     });
     child.once('exit', (code) => reject(new Error(`the worker exited (${code})`)));
