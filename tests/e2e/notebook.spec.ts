@@ -4,7 +4,7 @@ import { studyDocumentSchema } from '@laminote/contracts';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
+import { bodiesDrawn, collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
 
 /**
  * The notebook in the browser: the demo engineer adds a flow condition, a pressure cell with a pasted
@@ -48,7 +48,11 @@ function frame(title: string): Locator {
 /** Adds a cell of `kind` at the end of the stack and names it. */
 async function addCell(kind: string, title: string): Promise<Locator> {
   const before = await page.locator('lam-cell-frame').count();
-  await page.getByRole('button', { name: 'Add cell' }).click();
+  await bodiesDrawn(page);
+  const add = page.getByRole('button', { name: 'Add cell' });
+  // In the middle of the window, as a person adding a cell has it, with room for the menu either way.
+  await add.evaluate((button) => button.scrollIntoView({ block: 'center' }));
+  await add.click();
   await page.getByRole('menuitem', { name: new RegExp(kind) }).click();
   await expect.poll(() => page.locator('lam-cell-frame').count()).toBe(before + 1);
   const added = page.locator('lam-cell-frame').last();

@@ -73,6 +73,25 @@ describe('rough edges of the notebook', () => {
     await page.keyboard.press('Escape');
   });
 
+  it('opens the add-cell menu whole from a button low in the window', async () => {
+    await openDemoStudy();
+    await page.waitForFunction(() => document.querySelectorAll('.body-pending').length === 0);
+    const add = page.getByRole('button', { name: 'Add cell' });
+    // Put the button 60 px above the bottom of the window, where a menu placed below it cannot fit.
+    await add.evaluate((button) => window.scrollBy(0, button.getBoundingClientRect().bottom - window.innerHeight + 60));
+    await add.click();
+    const first = page.getByRole('menuitem', { name: /Flow condition/ });
+    const last = page.getByRole('menuitem', { name: /Note/ });
+    await last.waitFor();
+    const viewport = page.viewportSize()!;
+    for (const item of [first, last]) {
+      const box = (await item.boundingBox())!;
+      expect(box.y).toBeGreaterThanOrEqual(0);
+      expect(box.y + box.height).toBeLessThanOrEqual(viewport.height);
+    }
+    await page.keyboard.press('Escape');
+  });
+
   it('shows the plots with a toolbar of its own, not the charting library’s', async () => {
     await openDemoStudy();
     // The demo study is seeded without results: run its analysis (with the cells it uses) for the plots.

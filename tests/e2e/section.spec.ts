@@ -2,7 +2,7 @@ import { computeCell } from '@laminote/aero';
 import { CELL_SCHEMAS, type CellInputs } from '@laminote/contracts';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
+import { bodiesDrawn, collectPageProblems, launchBrowser, signInThroughProvider } from '../support/browser';
 
 /**
  * From a shape to a drag polar in the browser: the demo engineer adds a flow condition, a section cell
@@ -36,7 +36,11 @@ function frame(title: string): Locator {
 
 async function addCell(kind: string, title: string): Promise<Locator> {
   const before = await page.locator('lam-cell-frame').count();
-  await page.getByRole('button', { name: 'Add cell' }).click();
+  await bodiesDrawn(page);
+  const add = page.getByRole('button', { name: 'Add cell' });
+  // In the middle of the window, as a person adding a cell has it, with room for the menu either way.
+  await add.evaluate((button) => button.scrollIntoView({ block: 'center' }));
+  await add.click();
   await page.getByRole('menuitem', { name: new RegExp(kind) }).click();
   await expect.poll(() => page.locator('lam-cell-frame').count()).toBe(before + 1);
   const added = page.locator('lam-cell-frame').last();

@@ -45,3 +45,12 @@ export function collectPageProblems(page: Page, problems: string[], label = ''):
   page.on('pageerror', (e) => problems.push(`${tag}${e.message}`));
   page.on('response', (r) => r.status() >= 400 && !r.url().endsWith('/api/me') && problems.push(`${tag}${r.status()} ${r.url()}`));
 }
+
+/**
+ * Waits until every cell body of the open notebook is drawn: the page draws the bodies below the first
+ * screen in idle batches, and each one drawn above a control moves it down the page, so a menu opened
+ * from a control meanwhile can be left where the control was. A person waits for the page to settle too.
+ */
+export async function bodiesDrawn(page: Page): Promise<void> {
+  await page.waitForFunction(() => document.querySelectorAll('lam-cell-frame').length > 0 && document.querySelectorAll('.body-pending').length === 0, undefined, { timeout: 30_000 });
+}
