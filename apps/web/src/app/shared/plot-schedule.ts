@@ -44,6 +44,8 @@ export function pageQuiet(): Promise<void> {
 
 const waiting: (() => Promise<unknown> | void)[] = [];
 let draining = false;
+/** Which queue a drain belongs to: a reset (tests) starts a new one, and an old drain still under way stops. */
+let generation = 0;
 
 /**
  * Calls `draw` when the page is quiet, after the plots asked for before it, one plot per frame. Answers a
@@ -55,7 +57,8 @@ export function scheduleDraw(draw: () => Promise<unknown> | void): () => void {
   waiting.push(entry);
   if (!draining) {
     draining = true;
-    void pageQuiet().then(drainNext);
+    const mine = generation;
+    void pageQuiet().then(() => drainNext(mine));
   }
   return () => {
     cancelled = true;
@@ -64,7 +67,8 @@ export function scheduleDraw(draw: () => Promise<unknown> | void): () => void {
   };
 }
 
-function drainNext(): void {
+function drainNext(mine: number): void {
+  if (mine !== generation) return;
   const next = waiting.shift();
   if (!next) {
     draining = false;
@@ -72,7 +76,8 @@ function drainNext(): void {
   }
   const idle = idleApi();
   // The next plot once this one is drawn and its frame is out: one long task per frame at most.
-  const after = () => (typeof requestAnimationFrame === 'function' ? requestAnimationFrame(() => setTimeout(drainNext)) : setTimeout(drainNext));
+  const again = () => drainNext(mine);
+  const after = () => (typeof requestAnimationFrame === 'function' ? requestAnimationFrame(() => setTimeout(again)) : setTimeout(again));
   const run = () => {
     try {
       void Promise.resolve(next()).catch(() => undefined).then(after);
@@ -86,6 +91,7 @@ function drainNext(): void {
 
 /** For tests: forget that the page was once quiet. */
 export function resetPlotScheduleForTests(): void {
+  generation++;
   quiet = null;
   waiting.length = 0;
   draining = false;
