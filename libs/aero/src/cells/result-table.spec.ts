@@ -71,5 +71,9 @@ describe('a result as one table', () => {
     expect(t.fields).toEqual(['quantity', 'value']);
     expect(t.rows).toContainEqual(['reynolds', r.reynolds]);
     expect(t.rows).toContainEqual(['mach', r.mach]);
+    // Its warnings above the rows, said as warnings like every other kind's.
+    const high = computeCell('flow', inputs('flow', { mode: 'reynolds', reynolds: 5e6, mach: 0, turbulenceMode: 'intensity', turbulenceIntensity: 0.0005 }), {});
+    expect(high.warnings.length).toBeGreaterThan(0);
+    expect(resultTable('flow', high).notes).toEqual(high.warnings.map((w) => `warning: ${w}`));
   });
 });

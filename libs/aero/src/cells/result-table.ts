@@ -26,8 +26,10 @@ export function scalarTable(result: object): ResultTable {
     }
   }
   const warnings = (result as { warnings?: unknown }).warnings;
-  return { fields: ['quantity', 'value'], rows, notes: Array.isArray(warnings) ? warnings.filter((w): w is string => typeof w === 'string') : [] };
+  return { fields: ['quantity', 'value'], rows, notes: warningNotes(Array.isArray(warnings) ? warnings.filter((w): w is string => typeof w === 'string') : []) };
 }
 
 /** Warnings of a result, for the notes. */
-export const warningNotes = (warnings: readonly string[]): string[] => warnings.map((w) => `warning: ${w}`);
+export function warningNotes(warnings: readonly string[]): string[] {
+  return warnings.map((w) => `warning: ${w}`);
+}
