@@ -10,6 +10,7 @@ import { computePolar, polarTable } from './polar';
 import { computePressure, pressureTable } from './pressure';
 import { scalarTable, type ResultTable } from './result-table';
 import { computeSection, sectionTable } from './section';
+import { resultJson } from './result-json';
 import { computeSweep, sweepTable } from './sweep';
 import type { Upstream } from './types';
 
@@ -79,13 +80,7 @@ export interface ComputedOutput {
   durationMs: number;
 }
 
-/** Significant digits results are kept to: beyond single precision, far beyond what the methods resolve. */
-export const RESULT_DIGITS = 7;
-
-/** A JSON replacer keeping non-integer numbers to RESULT_DIGITS significant digits. */
-export function roundedNumber(_key: string, v: unknown): unknown {
-  return typeof v === 'number' && !Number.isInteger(v) && Number.isFinite(v) ? Number(v.toPrecision(RESULT_DIGITS)) : v;
-}
+export { RESULT_DIGITS, resultJson, roundedCopy, roundedNumber } from './result-json';
 
 /**
  * Compute a cell into its stored form: the result as JSON text, or the one-line message with the
@@ -95,7 +90,7 @@ export function computeCellOutput(task: CellTask): ComputedOutput {
   const started = performance.now();
   try {
     const result = computeCell(task.kind, task.inputs, task.upstream);
-    return { status: 'ok', resultJson: JSON.stringify(result, roundedNumber), error: null, durationMs: performance.now() - started };
+    return { status: 'ok', resultJson: resultJson(result), error: null, durationMs: performance.now() - started };
   } catch (error) {
     const cellError = toCellError(error);
     if (!cellError) throw error;
