@@ -7,7 +7,15 @@
  * analysis case computed in this process with no queue at all (computeSweepCase, one thread). The job
  * overhead per case is the worker processes' CPU time per case (all their threads) over the in-process
  * case's CPU time (all this process's threads), less one; target (issue 13): under 20 % at 1,000 cases.
- * The app server's and PostgreSQL's CPU over the same run are shown beside it, not counted in it.
+ *
+ * The engine's CPU time per case drifts by ±30 % from minute to minute on a shared machine, in a worker
+ * and in a lone loop alike, so each job run is paired with an in-process loop run just before it
+ * (A B A B …, BENCH_ROUNDS rounds, 5 unless told) and the medians are read with their spread. Beside
+ * the target figure the overhead is split in two: the engine's own time in the worker (its computing
+ * thread's CPU around the engine's calls, which the worker reports from inside the job) against the
+ * loop's, which moves with the machine; and the job's code, the worker's CPU over its engine's against
+ * the loop's CPU over its engine's, which does not. The app server's and PostgreSQL's CPU over the same
+ * run are shown beside it, not counted in it. BENCH_WORKERS=1 runs the one-worker rounds only.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
@@ -20,17 +28,22 @@ import { createTestApp } from '../../tests/support/app';
 import { testEnv } from '../../tests/support/env';
 import { signIn } from '../../tests/support/sign-in';
 import { JOB_CHANNEL, type JobNotice } from '../src/jobs/store';
-import { CASES, inProcessCases, studyCells, WARM_UP } from './sweep-case-loop';
+import { CASES, inProcessCases, studyCells, WARM_UP, type CaseCost } from './sweep-case-loop';
 
-/** Rounds of (one worker, two workers), each beside in-process cases; BENCH_ROUNDS overrides. */
-const ROUNDS = Number(process.env['BENCH_ROUNDS'] ?? 3);
+/** Rounds of (in-process loop, one worker, two loops at once, two workers); BENCH_ROUNDS overrides. */
+const ROUNDS = Number(process.env['BENCH_ROUNDS'] ?? 5);
+const WORKER_COUNTS = process.env['BENCH_WORKERS'] === '1' ? ([1] as const) : ([1, 2] as const);
 const out = (line: string) => process.stdout.write(`${line}\n`);
 
 const t = await createTestApp({ LOG_LEVEL: 'silent' }, { worker: false });
 const engineer = await signIn(t.app, 'engineer', testEnv.publicUrl);
 
+/** The engine's CPU time in the workers by job (ms, and the cases it covers), as they report it for each chunk. */
+const engineByJob = new Map<string, { cases: number; engineCpuMs: number }>();
+
 /**
- * Starts a worker process (DATABASE_URL only, one compute thread) and waits until it takes work.
+ * Starts a worker process (DATABASE_URL only, one compute thread) and waits until it takes work. Its
+ * log is read at debug level for the engine's CPU time of each chunk ("sweep cases computed").
  * BENCH_CPU_PROF=dir writes each worker's CPU profile (node --cpu-prof) there. For diagnosis,
  * BENCH_WORKER_FLAGS adds Node/V8 options to each worker (e.g. "--trace-gc" or "--trace-deopt"), and
  * BENCH_WORKER_LOG=path keeps each worker's standard output (its log and any such trace) in path.<pid>.
@@ -38,16 +51,31 @@ const engineer = await signIn(t.app, 'engineer', testEnv.publicUrl);
 function startWorker(): Promise<ChildProcess> {
   const child = spawn(process.execPath, [...(process.env['BENCH_CPU_PROF'] ? ['--cpu-prof', '--cpu-prof-dir', process.env['BENCH_CPU_PROF']] : []), ...(process.env['BENCH_WORKER_FLAGS'] ? process.env['BENCH_WORKER_FLAGS'].split(/\s+/).filter(Boolean) : []), '--import', 'tsx', 'server/src/jobs/worker-main.ts'], {
     cwd: ROOT,
-    env: { PATH: process.env['PATH'], DATABASE_URL: t.database.url, ENGINE_THREADS: '1', LOG_LEVEL: 'info' },
+    env: { PATH: process.env['PATH'], DATABASE_URL: t.database.url, ENGINE_THREADS: '1', LOG_LEVEL: 'debug' },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
+  if (process.env['BENCH_WORKER_LOG']) child.stdout!.on('data', (chunk: Buffer) => appendFileSync(`${process.env['BENCH_WORKER_LOG']}.${child.pid}`, chunk));
   return new Promise((resolve, reject) => {
-    child.stdout!.on('data', (chunk: Buffer) => {
-      if (process.env['BENCH_WORKER_LOG']) appendFileSync(`${process.env['BENCH_WORKER_LOG']}.${child.pid}`, chunk);
-      if (chunk.toString().includes('job worker is running')) resolve(child);
+    createInterface({ input: child.stdout! }).on('line', (line) => {
+      if (!line.startsWith('{')) return;
+      const entry = JSON.parse(line) as { msg?: string; jobId?: string; cases?: number; engineCpuMs?: number };
+      if (entry.msg === 'job worker is running') resolve(child);
+      if (entry.msg === 'sweep cases computed' && entry.jobId) {
+        const sum = engineByJob.get(entry.jobId) ?? { cases: 0, engineCpuMs: 0 };
+        engineByJob.set(entry.jobId, { cases: sum.cases + entry.cases!, engineCpuMs: sum.engineCpuMs + entry.engineCpuMs! });
+      }
     });
     child.once('exit', (code) => reject(new Error(`the worker exited (${code})`)));
   });
+}
+
+/** The workers' engine CPU time over a job's cases (each chunk's report read from their logs, which may lag the job's end a little). */
+async function engineCpuOf(jobId: string): Promise<number> {
+  for (let waited = 0; (engineByJob.get(jobId)?.cases ?? 0) < CASES; waited += 20) {
+    if (waited > 5000) throw new Error(`the workers reported the engine's time for ${engineByJob.get(jobId)?.cases ?? 0} of ${CASES} cases`);
+    await new Promise((resolve) => setTimeout(resolve, 20));
+  }
+  return engineByJob.get(jobId)!.engineCpuMs;
 }
 
 async function stopWorkers(workers: ChildProcess[]): Promise<void> {
@@ -160,6 +188,8 @@ interface TimedRun {
   wallMs: number;
   /** Worker processes, all threads. */
   cpuMs: number;
+  /** Of which: the engine's own, on the computing threads around its calls (the workers' reports). */
+  engineCpuMs: number;
   /** Of which: their main threads (queue, database, assembly), and their busiest other thread each (the compute thread when there is one). */
   mainMs: number;
   computeMs: number;
@@ -192,9 +222,10 @@ async function timedRun(workers: number): Promise<TimedRun> {
   const threadsBefore = procs.map((p) => threadCpuMs(p.pid!));
   const [cpuBefore, appBefore, pgBefore] = [sum(cpuMsOf), ownCpuMs(), await postgresCpuMs()];
   const started = performance.now();
-  await runToEnd(branchId);
+  const job = await runToEnd(branchId);
   const wallMs = performance.now() - started;
   const [cpuAfter, appAfter, pgAfter] = [sum(cpuMsOf), ownCpuMs(), await postgresCpuMs()];
+  const engineCpuMs = await engineCpuOf(job.jobId);
   let mainMs = 0;
   let computeMs = 0;
   procs.forEach((p, i) => {
@@ -203,16 +234,16 @@ async function timedRun(workers: number): Promise<TimedRun> {
     computeMs += Math.max(0, ...used.filter((u) => u.tid !== String(p.pid)).map((u) => u.ms));
   });
   await stopWorkers(procs);
-  return { wallMs, cpuMs: cpuAfter - cpuBefore, mainMs, computeMs, idleCpuMsPerS, warmUpCpuMsPerCase, appMs: appAfter - appBefore, postgresMs: pgAfter - pgBefore };
+  return { wallMs, cpuMs: cpuAfter - cpuBefore, engineCpuMs, mainMs, computeMs, idleCpuMsPerS, warmUpCpuMsPerCase, appMs: appAfter - appBefore, postgresMs: pgAfter - pgBefore };
 }
 
 
 /**
  * Two in-process loops at once, each in a process of its own (warmed up, then started together): what
  * the cases cost when two processes compute side by side on this machine, as two workers do. Their
- * mean CPU and wall time a case.
+ * mean costs a case.
  */
-async function inProcessPair(): Promise<{ wallMs: number; cpuMs: number }> {
+async function inProcessPair(): Promise<CaseCost> {
   const loops = [0, 1].map(() => {
     const child = spawn(process.execPath, ['--import', 'tsx', 'server/bench/sweep-case-loop.ts'], { cwd: ROOT, env: { PATH: process.env['PATH'] }, stdio: ['pipe', 'pipe', 'inherit'] });
     const lines = createInterface({ input: child.stdout! })[Symbol.asyncIterator]();
@@ -220,8 +251,8 @@ async function inProcessPair(): Promise<{ wallMs: number; cpuMs: number }> {
   });
   for (const loop of loops) if ((await loop.next()) !== 'ready') throw new Error('an in-process loop did not start');
   for (const loop of loops) loop.child.stdin!.write('go\n');
-  const figures = await Promise.all(loops.map(async (loop) => JSON.parse(await loop.next()) as { wallMs: number; cpuMs: number }));
-  return { wallMs: (figures[0]!.wallMs + figures[1]!.wallMs) / 2, cpuMs: (figures[0]!.cpuMs + figures[1]!.cpuMs) / 2 };
+  const [a, b] = await Promise.all(loops.map(async (loop) => JSON.parse(await loop.next()) as CaseCost));
+  return { wallMs: (a!.wallMs + b!.wallMs) / 2, cpuMs: (a!.cpuMs + b!.cpuMs) / 2, engineCpuMs: (a!.engineCpuMs + b!.engineCpuMs) / 2 };
 }
 
 /** The median of a few figures. */
@@ -231,65 +262,63 @@ function median(xs: readonly number[]): number {
   return sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
 }
 
+/** One job run beside the in-process loop run just before it. */
+interface Round {
+  workers: 1 | 2;
+  run: TimedRun;
+  /** The loop it is held against: one loop for one worker, two loops at once for two workers. */
+  loop: CaseCost;
+  /** For two workers, the one-worker round's lone loop too. */
+  lone: CaseCost;
+  load: number;
+}
+
+/** Worker CPU a case over the loop's, less one: the issue's figure. */
+const overhead = (r: Round, loop = r.loop) => r.run.cpuMs / CASES / loop.cpuMs - 1;
+/** The engine's own CPU in the worker against the loop's engine thread: the machine's drift, and living in a worker. */
+const engineShift = (r: Round) => r.run.engineCpuMs / CASES / r.loop.engineCpuMs - 1;
+/** The job's code: the worker's CPU over its engine's, against the loop's CPU over its engine's (threads besides it). Drift cancels. */
+const jobCode = (r: Round) => r.run.cpuMs / r.run.engineCpuMs / (r.loop.cpuMs / r.loop.engineCpuMs) - 1;
+
 try {
-  // In-process and job runs alternate, so each job run is compared with in-process cases computed in
-  // the same minutes (the mean of those just before and just after it): on a shared machine CPU time
-  // a case drifts with what else runs. One worker is held against one loop in this process; two
-  // workers against that and against two loops computing at once (two processes on two cores slow
-  // each other down, whatever runs in them).
-  const runs: { workers: 1 | 2; run: TimedRun; caseCpu: number; caseWall: number; pairCpu: number | null; load: number }[] = [];
-  const singles: number[] = [];
-  const pairs: number[] = [];
+  const rounds: Round[] = [];
   for (let round = 0; round < ROUNDS; round++) {
-    for (const workers of [1, 2] as const) {
-      const before = await inProcessCases();
-      const pairBefore = workers === 2 ? await inProcessPair() : null;
+    const lone = await inProcessCases();
+    for (const workers of WORKER_COUNTS) {
+      const loop = workers === 1 ? lone : await inProcessPair();
       const run = await timedRun(workers);
-      const load = loadavg()[0]!;
-      const pairAfter = workers === 2 ? await inProcessPair() : null;
-      const after = await inProcessCases();
-      singles.push(before.cpuMs, after.cpuMs);
-      if (pairBefore && pairAfter) pairs.push(pairBefore.cpuMs, pairAfter.cpuMs);
-      runs.push({
-        workers,
-        run,
-        caseCpu: (before.cpuMs + after.cpuMs) / 2,
-        caseWall: (before.wallMs + after.wallMs) / 2,
-        pairCpu: pairBefore && pairAfter ? (pairBefore.cpuMs + pairAfter.cpuMs) / 2 : null,
-        load,
-      });
+      rounds.push({ workers, run, loop, lone, load: loadavg()[0]! });
     }
   }
-  const pct = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} %`;
-  const perCase = (ms: number) => `${(ms / CASES).toFixed(2)} ms`;
-  const overhead = (r: (typeof runs)[number]) => (r.run.cpuMs / CASES / r.caseCpu - 1) * 100;
-  const pairOverhead = (r: (typeof runs)[number]) => (r.run.cpuMs / CASES / r.pairCpu! - 1) * 100;
-  out(`jobs: ${CASES}-case Reynolds-number sweep of a 2 × 300-station analysis (e^N and Michel), as a job through the API; ${ROUNDS} rounds`);
-  out(`  in-process, no queue (the same ${CASES} cases one after another, one thread), around the job runs: ${singles.map((ms) => ms.toFixed(2)).join(', ')} ms CPU a case`);
-  out(`  two such loops at once, in two processes, around the two-worker runs: ${pairs.map((ms) => ms.toFixed(2)).join(', ')} ms CPU a case`);
-  for (const r of runs) {
-    const n = r.workers;
-    out(
-      `  ${n} worker process${n > 1 ? 'es' : ''} × 1 thread: wall ${(r.run.wallMs / 1000).toFixed(2)} s; worker CPU ${perCase(r.run.cpuMs)} a case against ${r.caseCpu.toFixed(2)} ms in-process, job overhead ${pct(overhead(r))}${r.pairCpu === null ? '' : ` (against two loops at once ${r.pairCpu.toFixed(2)} ms: ${pct(pairOverhead(r))})`}` +
-        `; wall × processes ${((r.run.wallMs * n) / CASES).toFixed(2)} ms a case (${pct(((r.run.wallMs * n) / CASES / r.caseWall - 1) * 100)} against in-process wall); load ${r.load.toFixed(1)}`,
-    );
-    out(
-      `      of the worker CPU: main thread${n > 1 ? 's' : ''} ${perCase(r.run.mainMs)}, busiest other thread${n > 1 ? 's' : ''} ${perCase(r.run.computeMs)}, the rest (GC, compiler) ${perCase(r.run.cpuMs - r.run.mainMs - r.run.computeMs)};` +
-        ` besides it the app server ${perCase(r.run.appMs)} and PostgreSQL ${perCase(r.run.postgresMs)} a case; fresh workers over their warm-up: ${r.run.warmUpCpuMsPerCase.toFixed(2)} ms CPU a case`,
-    );
+  const pct = (x: number) => `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
+  const ms = (x: number) => `${x.toFixed(3)} ms`;
+  const perCase = (total: number) => ms(total / CASES);
+  const spread = (xs: readonly number[]) => `median ${pct(median(xs))} (${pct(Math.min(...xs))} to ${pct(Math.max(...xs))}, ${xs.length} rounds)`;
+  out(`jobs: ${CASES}-case Reynolds-number sweep of a 2 × 300-station analysis (e^N and Michel), as a job through the API; ${ROUNDS} rounds, each an in-process loop and then the job`);
+  for (const n of WORKER_COUNTS) {
+    const of = rounds.filter((r) => r.workers === n);
+    const against = n === 1 ? 'one in-process loop' : 'two in-process loops at once (each in its own process)';
+    out(`  ${n} worker process${n > 1 ? 'es' : ''} × 1 thread, against ${against}; CPU a case (all threads; engine = the computing thread around the engine's calls):`);
+    of.forEach((r, i) => {
+      out(
+        `    round ${i + 1}: loop ${ms(r.loop.cpuMs)} (engine ${ms(r.loop.engineCpuMs)}) | job ${perCase(r.run.cpuMs)} (engine ${perCase(r.run.engineCpuMs)}): overhead ${pct(overhead(r))}` +
+          ` = engine in the job ${pct(engineShift(r))} × job code ${pct(jobCode(r))}${n > 1 ? `; against one loop ${pct(overhead(r, r.lone))}` : ''}; wall ${(r.run.wallMs / 1000).toFixed(2)} s; load ${r.load.toFixed(1)}`,
+      );
+      out(
+        `      worker CPU: main thread${n > 1 ? 's' : ''} ${perCase(r.run.mainMs)}, busiest other thread${n > 1 ? 's' : ''} ${perCase(r.run.computeMs)}, the rest ${perCase(r.run.cpuMs - r.run.mainMs - r.run.computeMs)};` +
+          ` beside it the app server ${perCase(r.run.appMs)} and PostgreSQL ${perCase(r.run.postgresMs)}; fresh workers over their warm-up ${r.run.warmUpCpuMsPerCase.toFixed(2)} ms a case`,
+      );
+    });
+    out(`    job overhead (target < 20 %): ${spread(of.map((r) => overhead(r)))}${n > 1 ? `; against one loop ${spread(of.map((r) => overhead(r, r.lone)))}` : ''}`);
+    out(`      of which the job's code (drift-free): ${spread(of.map(jobCode))}; the engine in the job against the loop's: ${spread(of.map(engineShift))}`);
+    out(`      median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s; idle worker ${median(of.map((r) => r.run.idleCpuMsPerS)).toFixed(1)} ms CPU a second (included above)`);
   }
-  for (const n of [1, 2] as const) {
-    const of = runs.filter((r) => r.workers === n);
-    out(
-      `  median job overhead, ${n} worker process${n > 1 ? 'es' : ''}: ${pct(median(of.map(overhead)))} against one in-process loop (target < 20 %)` +
-        `${n > 1 ? `, ${pct(median(of.map(pairOverhead)))} against two loops at once` : ''}; median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s`,
-    );
+  if (WORKER_COUNTS.length > 1) {
+    const wall = (n: number) => median(rounds.filter((r) => r.workers === n).map((r) => r.run.wallMs));
+    out(`  speed-up of two workers over one (median wall): ${(wall(1) / wall(2)).toFixed(2)}×`);
   }
-  const idle = runs.filter((r) => r.workers === 1).map((r) => r.run.idleCpuMsPerS);
-  out(`  an idle worker process uses ${median(idle).toFixed(1)} ms CPU a second, included above`);
-  out(`  speed-up of two workers over one (median wall): ${(median(runs.filter((r) => r.workers === 1).map((r) => r.run.wallMs)) / median(runs.filter((r) => r.workers === 2).map((r) => r.run.wallMs))).toFixed(2)}×`);
   out(`  (wall: POST /run to the job seen completed (followed by its notices, as the browser does), its 3 light cells and the sweep's assembly included; each side warmed up by ${WARM_UP} cases (each worker) first;`);
-  out(`   CPU: the worker processes' user + system time from /proc, all threads; ${availableParallelism()} cores, shared with whatever else runs)`);
+  out(`   CPU: worker processes' user + system time from /proc, all threads; loops' from process.cpuUsage; engine: the computing thread's schedstat; ${availableParallelism()} cores, shared with whatever else runs)`);
 } finally {
   listener.release();
   await t.close();

@@ -9,6 +9,7 @@ import { createInterface } from 'node:readline';
 import { computeSweepCase } from '@laminote/aero';
 import { CELL_SCHEMAS, type CellInputs, type CellKind } from '@laminote/contracts';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
+import { threadCpuMs } from '../src/jobs/thread-cpu';
 
 export const CASES = 1000;
 /** Cases each side computes before it is measured: enough for the engine's code to be optimised (about 200). */
@@ -30,8 +31,17 @@ export function studyCells(label: string) {
   return { ids, inputs };
 }
 
-/** The same CASES cases computed one after another in this process with no queue (after WARM_UP cases): wall and CPU ms a case. */
-export async function inProcessCases(beforeMeasuring: () => Promise<void> = async () => undefined): Promise<{ wallMs: number; cpuMs: number }> {
+/** What the in-process cases cost, each a mean over the CASES cases, in ms. */
+export interface CaseCost {
+  wallMs: number;
+  /** CPU time of the whole process (every thread: the computing one, the collector's and the compiler's). */
+  cpuMs: number;
+  /** CPU time of the computing thread alone: the engine's own, as a job worker reports it from inside a job. */
+  engineCpuMs: number;
+}
+
+/** The same CASES cases computed one after another in this process with no queue (after WARM_UP cases). */
+export async function inProcessCases(beforeMeasuring: () => Promise<void> = async () => undefined): Promise<CaseCost> {
   const { inputs } = studyCells('in-process');
   const upstream = {
     analysisCellId: {
@@ -45,9 +55,11 @@ export async function inProcessCases(beforeMeasuring: () => Promise<void> = asyn
   await beforeMeasuring();
   const start = performance.now();
   const cpu = process.cpuUsage();
+  const thread = threadCpuMs();
   for (let index = 0; index < CASES; index++) computeSweepCase(sweep, upstream, index);
+  const engineCpuMs = (threadCpuMs() - thread) / CASES;
   const used = process.cpuUsage(cpu);
-  return { wallMs: (performance.now() - start) / CASES, cpuMs: (used.user + used.system) / 1000 / CASES };
+  return { wallMs: (performance.now() - start) / CASES, cpuMs: (used.user + used.system) / 1000 / CASES, engineCpuMs };
 }
 
 if (process.argv[1]?.endsWith('sweep-case-loop.ts')) {

@@ -2,7 +2,7 @@ import { availableParallelism } from 'node:os';
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { Piscina } from 'piscina';
 import { computeCellOutput, type CellTask, type ComputedOutput } from '@laminote/aero';
-import { computeSweepCase, type SweepCaseOutput, type SweepCasesTask } from './sweep-cases';
+import { SweepCasesComputation, type SweepCasesOutput, type SweepCasesTask } from './sweep-cases';
 
 /**
  * Where a job worker computes: cells and chunks of sweep cases. With more than one compute thread they
@@ -15,7 +15,7 @@ import { computeSweepCase, type SweepCaseOutput, type SweepCasesTask } from './s
  */
 export interface ComputePool {
   cell(task: CellTask): Promise<ComputedOutput>;
-  sweepCases(task: SweepCasesTask): Promise<SweepCaseOutput[]>;
+  sweepCases(task: SweepCasesTask): Promise<SweepCasesOutput>;
   readonly threads: number;
   close(): Promise<void>;
 }
@@ -39,7 +39,7 @@ function createThreadPool(size: number): ComputePool {
   return {
     threads: size,
     cell: (task) => piscina.run(task) as Promise<ComputedOutput>,
-    sweepCases: (task) => piscina.run(task, { name: 'computeSweepCases' }) as Promise<SweepCaseOutput[]>,
+    sweepCases: (task) => piscina.run(task, { name: 'computeSweepCases' }) as Promise<SweepCasesOutput>,
     close: () => piscina.close({ force: true }),
   };
 }
@@ -51,17 +51,13 @@ function createInlinePool(): ComputePool {
       await yieldToEventLoop();
       return computeCellOutput(task);
     },
-    async sweepCases({ task, indices }) {
-      const out: SweepCaseOutput[] = [];
-      let since = performance.now();
-      for (const index of indices) {
-        out.push(computeSweepCase(task, index));
-        if (performance.now() - since >= YIELD_MS) {
-          await yieldToEventLoop();
-          since = performance.now();
-        }
+    async sweepCases(task) {
+      const computation = new SweepCasesComputation(task);
+      while (!computation.done) {
+        computation.step(YIELD_MS);
+        if (!computation.done) await yieldToEventLoop();
       }
-      return out;
+      return computation.output();
     },
     close: async () => undefined,
   };

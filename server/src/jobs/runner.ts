@@ -223,7 +223,9 @@ export class JobRunner {
     const missing: number[] = [];
     for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
     if (missing.length) {
-      const computed = await this.compute.sweepCases({ task: w.task, indices: missing });
+      const { cases: computed, engineCpuMs } = await this.compute.sweepCases({ task: w.task, indices: missing });
+      // The engine's own CPU time beside the job's (npm run bench -- jobs reads it to split the overhead).
+      this.logger.debug({ jobId: row.id, cellId: w.cellId, cases: computed.length, engineCpuMs }, 'sweep cases computed');
       // Each case stored once (one stored by an earlier try stays), the app servers told, in one statement:
       // the cases go as two arrays, the JSON text of each as the engine wrote it.
       await this.database.pool.query(

@@ -1,5 +1,6 @@
-import { computeSweepCase as computeCase, roundedNumber, type CellTask } from '@laminote/aero';
+import { computeSweepCase, roundedNumber, type CellTask, type SweepCase } from '@laminote/aero';
 import type { SweepInputs } from '@laminote/contracts';
+import { threadCpuMs } from './thread-cpu';
 
 /**
  * What a job worker computes for a chunk of a sweep: each case on its own, as the sweep cell computes
@@ -18,11 +19,45 @@ export interface SweepCaseOutput {
   json: string;
 }
 
-/** One case of the sweep `task`, as stored. */
-export function computeSweepCase(task: CellTask, index: number): SweepCaseOutput {
-  return { index, json: JSON.stringify(computeCase(task.inputs as SweepInputs, task.upstream, index), roundedNumber) };
+export interface SweepCasesOutput {
+  cases: SweepCaseOutput[];
+  /** CPU time the computing thread spent inside the engine for these cases, in ms (its own thread's, not the process's). */
+  engineCpuMs: number;
 }
 
-export function computeSweepCases({ task, indices }: SweepCasesTask): SweepCaseOutput[] {
-  return indices.map((index) => computeSweepCase(task, index));
+/**
+ * A chunk of cases computed a slice at a time, so a worker computing on its main thread can let its
+ * event loop run between slices. The engine's calls are timed apart from writing the cases out.
+ */
+export class SweepCasesComputation {
+  private readonly computed: SweepCase[] = [];
+  private engineCpuMs = 0;
+
+  constructor(private readonly chunk: SweepCasesTask) {}
+
+  get done(): boolean {
+    return this.computed.length === this.chunk.indices.length;
+  }
+
+  /** Computes the next cases, until all are done or at least `budgetMs` of wall time has gone. */
+  step(budgetMs = Infinity): void {
+    const { task, indices } = this.chunk;
+    const started = performance.now();
+    const cpu = threadCpuMs();
+    do {
+      this.computed.push(computeSweepCase(task.inputs as SweepInputs, task.upstream, indices[this.computed.length]!));
+    } while (!this.done && performance.now() - started < budgetMs);
+    this.engineCpuMs += threadCpuMs() - cpu;
+  }
+
+  output(): SweepCasesOutput {
+    return { cases: this.computed.map((c, i) => ({ index: this.chunk.indices[i]!, json: JSON.stringify(c, roundedNumber) })), engineCpuMs: this.engineCpuMs };
+  }
+}
+
+/** A chunk of cases at once (on a compute thread). */
+export function computeSweepCases(chunk: SweepCasesTask): SweepCasesOutput {
+  const computation = new SweepCasesComputation(chunk);
+  while (!computation.done) computation.step();
+  return computation.output();
 }
