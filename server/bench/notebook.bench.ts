@@ -9,9 +9,14 @@
  * Targets (issue 15): at 20 clients, the run's p95 at most 3× the p95 of an authenticated GET /api/me
  * at 20 clients taken in the same run (just before and after the runs), and at most 2 ms of the
  * server's main-thread CPU per run.
+ * Beside the target, the limit: the same 20 clients against the least server that could do the job
+ * (least-server.ts: the same engine entry on the same pool behind a bare node:http handler, no sign-in,
+ * no database), as a ratio to the same floor, so what share of the gap is this server's and what share
+ * the machine's can be read off one run. CPU is split by process (this one, every thread; PostgreSQL),
+ * and with BENCH_THREADS=1 by thread.
  */
 import { randomUUID } from 'node:crypto';
-import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, readlinkSync, writeFileSync } from 'node:fs';
 import inspector from 'node:inspector';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
@@ -21,6 +26,7 @@ import type { Draft, RunResponse } from '@laminote/contracts';
 import { pino } from 'pino';
 import { SERVER_POOL_SIZE } from '../src/db/client';
 import { createTestApp } from '../../tests/support/app';
+import { startLeastServer } from './least-server';
 import { testEnv } from '../../tests/support/env';
 import { demoUser, providerRoundTrip } from '../../tests/support/sign-in';
 
@@ -89,6 +95,42 @@ function mainThreadCpuMs(): number | null {
   return ((Number(fields[11]) + Number(fields[12])) * 1000) / CLOCK_TICKS_PER_SECOND;
 }
 const CLOCK_TICKS_PER_SECOND = 100;
+
+/** CPU time of each thread of this process by its Linux thread id (BENCH_THREADS=1 prints the split). */
+function threadCpuMs(): Map<number, number> {
+  const out = new Map<number, number>();
+  if (!existsSync('/proc/self/task')) return out;
+  for (const tid of readdirSync('/proc/self/task')) {
+    try {
+      const fields = readFileSync(`/proc/self/task/${tid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+      out.set(Number(tid), ((Number(fields[11]) + Number(fields[12])) * 1000) / CLOCK_TICKS_PER_SECOND);
+    } catch {
+      // the thread ended meanwhile
+    }
+  }
+  return out;
+}
+
+/** Per-thread CPU over a stretch, ms per run, largest first, the server's and the clients' thread named. */
+function threadSplit(before: Map<number, number>, after: Map<number, number>, runs: number): string {
+  const clientsTid = Number(/task\/(\d+)/.exec(readlinkSync('/proc/thread-self'))?.[1]);
+  const rows = [...after]
+    .map(([tid, ms]) => ({ tid, ms: (ms - (before.get(tid) ?? 0)) / runs }))
+    .filter((r) => r.ms > 0.005)
+    .sort((a, b) => b.ms - a.ms);
+  return rows.map((r) => `${r.tid === process.pid ? 'server' : r.tid === clientsTid ? 'clients' : r.tid} ${r.ms.toFixed(2)}`).join(', ');
+}
+const THREADS = process.env['BENCH_THREADS'] === '1';
+
+/**
+ * CPU time of this whole process, every thread: the server's, the engine's workers, the clients' thread,
+ * V8's compiler and collector threads, libuv's. Null where /proc is missing.
+ */
+function processCpuMs(): number | null {
+  if (!existsSync('/proc/self/stat')) return null;
+  const fields = readFileSync('/proc/self/stat', 'utf8').replace(/^.*\) /, '').split(' ');
+  return ((Number(fields[11]) + Number(fields[12])) * 1000) / CLOCK_TICKS_PER_SECOND;
+}
 
 /**
  * CPU time of the PostgreSQL backends serving the bench's database (every process whose command line
@@ -267,17 +309,22 @@ function askServer(what: 'profile-resume' | 'profile-pause'): Promise<void> {
   });
 }
 
+/** Each client's study: a flow condition, the pasted section, and the transition analysis of the two. */
+function studyCells(table: string) {
+  const ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID() };
+  return {
+    flow: { cellId: ids.flow, kind: 'flow', title: 'Cruise', collapsed: false, inputs: { mode: 'reynolds', reynolds: 8e6, mach: 0.72, nCrit: 9 } as Record<string, unknown> },
+    pressure: { cellId: ids.pressure, kind: 'pressure', title: 'Section', collapsed: false, inputs: { text: table } as Record<string, unknown> },
+    analysis: { cellId: ids.analysis, kind: 'analysis', title: 'Transition', collapsed: false, inputs: { flowCellId: ids.flow, pressureCellId: ids.pressure } as Record<string, unknown> },
+  };
+}
+
 async function setUpClient(session: Session, projectId: string, table: string, index: number): Promise<Client> {
   const study = await session.json<{ id: string }>(`/api/projects/${projectId}/studies`, 'POST', { title: `Bench study ${index}` });
   const [branch] = await session.json<{ id: string }[]>(`/api/studies/${study.id}/branches`);
-  const ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID() };
-  const cells = {
-    flow: { cellId: ids.flow, kind: 'flow', title: 'Cruise', collapsed: false, inputs: { mode: 'reynolds', reynolds: 8e6, mach: 0.72, nCrit: 9 } },
-    pressure: { cellId: ids.pressure, kind: 'pressure', title: 'Section', collapsed: false, inputs: { text: table } },
-    analysis: { cellId: ids.analysis, kind: 'analysis', title: 'Transition', collapsed: false, inputs: { flowCellId: ids.flow, pressureCellId: ids.pressure } },
-  };
+  const cells = studyCells(table);
   const saved = await session.json<Draft>(`/api/branches/${branch!.id}/draft`, 'PUT', { baseRevision: 0, cells: Object.values(cells) });
-  const client = { session, branchId: branch!.id, revision: saved.revision, cells, analysisId: ids.analysis, events: await BranchEvents.open(session, branch!.id) };
+  const client = { session, branchId: branch!.id, revision: saved.revision, cells, analysisId: cells.analysis.cellId, events: await BranchEvents.open(session, branch!.id) };
   await session.json<RunResponse>(`/api/branches/${branch!.id}/run`, 'POST', {});
   return client;
 }
@@ -342,13 +389,16 @@ async function measure(clients: Client[], rounds: number, profile = false) {
   const saves: number[] = [];
   const engine: number[] = [];
   let runSeconds = 0;
-  const cpu = { run: 0, save: 0, postgresRun: 0 };
+  const cpu = { run: 0, save: 0, postgresRun: 0, processRun: 0 };
+  const threadsRun = new Map<number, number>();
   for (let i = 0; i < rounds; i++) {
     const c0 = mainThreadCpuMs() ?? 0;
     saves.push(...(await Promise.all(clients.map(saveNewInputs))));
     if (profile) await askServer('profile-resume');
     const c1 = mainThreadCpuMs() ?? 0;
     const p1 = postgresCpuMs(DATABASE) ?? 0;
+    const a1 = processCpuMs() ?? 0;
+    const t1 = THREADS ? threadCpuMs() : null;
     const started = performance.now();
     for (const r of await Promise.all(clients.map(run))) {
       runs.push(r.ms);
@@ -359,6 +409,8 @@ async function measure(clients: Client[], rounds: number, profile = false) {
     cpu.save += c1 - c0;
     cpu.run += (mainThreadCpuMs() ?? 0) - c1;
     cpu.postgresRun += (postgresCpuMs(DATABASE) ?? 0) - p1;
+    cpu.processRun += (processCpuMs() ?? 0) - a1;
+    if (t1) for (const [tid, ms] of threadCpuMs()) threadsRun.set(tid, (threadsRun.get(tid) ?? 0) + ms - (t1.get(tid) ?? ms));
   }
   return {
     run: stats(runs),
@@ -367,7 +419,54 @@ async function measure(clients: Client[], rounds: number, profile = false) {
     throughput: runs.length / runSeconds,
     cpuPerRun: cpu.run / runs.length,
     postgresCpuPerRun: cpu.postgresRun / runs.length,
+    processCpuPerRun: cpu.processRun / runs.length,
+    threads: THREADS ? threadSplit(new Map(), threadsRun, runs.length) : '',
     cpuPerSave: cpu.save / saves.length,
+  };
+}
+
+/**
+ * The same rounds against the least server (least-server.ts): `count` clients at once each ask it to
+ * compute the analysis for a new Reynolds number; the answer is read and parsed as a run's is.
+ */
+async function measureLeast(base: string, count: number, rounds: number) {
+  const times: number[] = [];
+  let runSeconds = 0;
+  const cpu = { main: 0, process: 0, postgres: 0 };
+  const one = async () => {
+    const reynolds = 6e6 + ++counter * 1000;
+    const t0 = performance.now();
+    const res = await fetch(`${base}/run`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ reynolds }) });
+    const text = await res.text();
+    if (res.status !== 200) throw new Error(`the least server answered ${res.status}: ${text.slice(0, 300)}`);
+    const body = JSON.parse(text) as { analysis: { status: string } };
+    if (body.analysis.status !== 'ok') throw new Error(`the least server's analysis failed: ${text.slice(0, 300)}`);
+    return { ms: performance.now() - t0, bytes: Buffer.byteLength(text) };
+  };
+  const bytes: number[] = [];
+  const t0 = threadCpuMs();
+  for (let i = 0; i < rounds; i++) {
+    const c1 = mainThreadCpuMs() ?? 0;
+    const a1 = processCpuMs() ?? 0;
+    const p1 = postgresCpuMs(DATABASE) ?? 0;
+    const started = performance.now();
+    for (const r of await Promise.all(Array.from({ length: count }, one))) {
+      times.push(r.ms);
+      bytes.push(r.bytes);
+    }
+    runSeconds += (performance.now() - started) / 1000;
+    cpu.main += (mainThreadCpuMs() ?? 0) - c1;
+    cpu.process += (processCpuMs() ?? 0) - a1;
+    cpu.postgres += (postgresCpuMs(DATABASE) ?? 0) - p1;
+  }
+  return {
+    run: stats(times),
+    throughput: times.length / runSeconds,
+    answerBytes: stats(bytes).median,
+    cpuPerRun: cpu.main / times.length,
+    processCpuPerRun: cpu.process / times.length,
+    postgresCpuPerRun: cpu.postgres / times.length,
+    threads: THREADS ? threadSplit(t0, threadCpuMs(), times.length) : '',
   };
 }
 
@@ -381,8 +480,10 @@ if (isMainThread) {
   const server = t.app.listen(0, '127.0.0.1');
   await new Promise((resolve) => server.once('listening', resolve));
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const section = benchSection();
+  // The least server shares this thread and the app's engine pool, as the real server does.
+  const least = await startLeastServer(t.engine, studyCells(section.text));
   try {
-    const section = benchSection();
     out(`notebook run round trip: ${base}, engine pool ${t.engine.threads} threads, ${section.name}: ${section.rows} table rows (2 × 300 stations)`);
     out(`server as in production: database pool of ${SERVER_POOL_SIZE} connections, a log line per request at info (to /dev/null)`);
     out('each round: every client saves a new Reynolds number (untimed apart), then all run the analysis at once (timed)');
@@ -390,7 +491,7 @@ if (isMainThread) {
     // The clients' thread: sign in, set up one study each, then the timed rounds.
     // A worker thread has no TypeScript loader of its own: it registers tsx, then loads this file.
     const boot = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}); })`;
-    const clients = new Worker(boot, { eval: true, workerData: { base, projectId: t.demo.projectId, table: section.text, database: t.database.name } });
+    const clients = new Worker(boot, { eval: true, workerData: { base, leastBase: least.base, projectId: t.demo.projectId, table: section.text, database: t.database.name } });
     if (PERF_CTL) out(`server process ${process.pid} (its main thread has the same id)`);
     const profiler = PERF_CTL
       ? { resume: async () => writeFileSync(PERF_CTL, 'enable\n'), pause: async () => writeFileSync(PERF_CTL, 'disable\n'), write: async () => `perf, through ${PERF_CTL}` }
@@ -407,15 +508,17 @@ if (isMainThread) {
     });
     if (profiler) out(`CPU profile of the server's thread during the 20-client runs: ${await profiler.write(PROFILE_DIR)}`);
   } finally {
+    await least.close();
     server.close();
     await t.close();
   }
 } else {
-  const { base, projectId, table } = workerData as { base: string; projectId: string; table: string; database: string };
+  const { base, leastBase, projectId, table } = workerData as { base: string; leastBase: string; projectId: string; table: string; database: string };
   const say = (line: string) => parentPort!.postMessage({ line });
   const sessions = await Promise.all(Array.from({ length: 20 }, () => Session.signIn(base, 'engineer')));
   const clients = await Promise.all(sessions.map((s, i) => setUpClient(s, projectId, table, i)));
   await measure(clients.slice(0, 4), 5); // warm-up: JIT, worker threads, connection pools
+  await measureLeast(leastBase, 4, 5);
 
   /** The floor of this machine right now: a signed-in request that does no notebook work at all. */
   const floorCpu = { ms: 0, requests: 0 };
@@ -458,7 +561,19 @@ if (isMainThread) {
     );
     say(`         server main-thread CPU: ${m.cpuPerRun.toFixed(2)} ms per run, ${m.cpuPerSave.toFixed(2)} ms per save (this thread's own CPU time: it varies less than wall time with what else runs on the cores)`);
     say(`         PostgreSQL CPU (the backends of the bench's database): ${m.postgresCpuPerRun.toFixed(2)} ms per run`);
+    say(`         this process, every thread (server, engine workers, the clients, V8's compiler and collector): ${m.processCpuPerRun.toFixed(2)} ms per run; with PostgreSQL ${(m.processCpuPerRun + m.postgresCpuPerRun).toFixed(2)} ms`);
+    if (m.threads) say(`         by thread (ms per run): ${m.threads}`);
   }
+  // The least server (least-server.ts) right after, at the same concurrency: the same engine entry on the
+  // same pool behind a bare node:http handler, no sign-in, no database. Set against the same floor.
+  const least = await measureLeast(leastBase, 20, 12);
+  const leastFloor = stats(await floor(20, 6));
+  say(
+    `least server, 20 clients: ${least.run.n} runs, median ${least.run.median.toFixed(1)} ms, p95 ${least.run.p95.toFixed(1)} ms, max ${least.run.max.toFixed(1)} ms, ${least.throughput.toFixed(0)} runs/s, answer ${(least.answerBytes / 1024).toFixed(1)} kB`,
+  );
+  say(`         (bare node:http, the same engine entry on the same 2-thread pool, no sign-in, no database, no Express, no log; each run a new Reynolds number)`);
+  say(`         its thread's CPU: ${least.cpuPerRun.toFixed(2)} ms per run; this process, every thread: ${least.processCpuPerRun.toFixed(2)} ms per run; PostgreSQL ${least.postgresCpuPerRun.toFixed(2)} ms`);
+  if (least.threads) say(`         by thread (ms per run): ${least.threads}`);
   const me1 = stats(await floor(1, 20));
   const me20 = stats(floors);
   say(`reference, GET /api/me (session and user only) at  1 concurrent: median ${me1.median.toFixed(1)} ms, p95 ${me1.p95.toFixed(1)} ms`);
@@ -469,6 +584,11 @@ if (isMainThread) {
   const ratio = at20.run.p95 / me20.p95;
   say('');
   say(`run round trip at 20 clients: p95 ${at20.run.p95.toFixed(1)} ms = ${ratio.toFixed(2)}× the GET /api/me floor (p95 ${me20.p95.toFixed(1)} ms): target ≤ 3×: ${ratio <= 3 ? 'met' : 'NOT met'}`);
+  const leastRatio = least.run.p95 / me20.p95;
+  say(
+    `  limit, same floor: the least server's run p95 ${least.run.p95.toFixed(1)} ms = ${leastRatio.toFixed(2)}× (floor taken after it: p95 ${leastFloor.p95.toFixed(1)} ms); ` +
+      (ratio > 1 ? `of the run's p95 above the floor, ${((100 * Math.max(0, leastRatio - 1)) / (ratio - 1)).toFixed(0)} % is the machine's (engine, HTTP, clients on these cores), ${((100 * Math.max(0, ratio - leastRatio)) / (ratio - 1)).toFixed(0)} % this server's own` : 'the run is no slower than the floor'),
+  );
   say(`server main-thread CPU per run at 20 clients: ${at20.cpuPerRun.toFixed(2)} ms: target ≤ 2 ms: ${at20.cpuPerRun <= 2 ? 'met' : 'NOT met'}`);
   for (const client of clients) client.events?.close();
 }
