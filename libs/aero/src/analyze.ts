@@ -19,7 +19,7 @@ import { granvilleReThetaRise } from './granville';
 import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './head';
 import { hRexTransitionLog10ReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
-import { parsePressureTable } from './pressure-table';
+import { keptPressureTable } from './pressure-table';
 import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
 import { leastSquaresSlope, smoothedSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
@@ -336,7 +336,7 @@ function rearStagnation(s: ArrayLike<number>, ue: ArrayLike<number>): { zeroAt: 
 }
 
 function surfacesFromTable(text: string, mach: number, sweep: number, warnings: string[]): PreparedSurface[] {
-  const table = parsePressureTable(text, { maxRows: ENGINE_LIMITS.maxTableRows });
+  const table = keptPressureTable(text, { maxRows: ENGINE_LIMITS.maxTableRows });
   if (!table.ok) {
     const problem = table.problems[0];
     throw new CaseError(problem.line > 0 ? `pressureTable line ${problem.line}` : 'pressureTable', problem.message);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeCase, CaseError } from './analyze';
-import { binaryTableFault, parsePressureTable, type PressureTableParse } from './pressure-table';
+import { binaryTableFault, keptPressureTable, parsePressureTable, type PressureTableParse } from './pressure-table';
 
 function rows(result: PressureTableParse) {
   if (!result.ok) throw new Error(`unexpected problems: ${JSON.stringify(result.problems)}`);
@@ -86,6 +86,42 @@ describe('pressure table reader', () => {
   it('refuses more rows than the limit, naming the first line beyond it', () => {
     const text = Array.from({ length: 12 }, (_, i) => `${i} 0.1`).join('\n');
     expect(problems(parsePressureTable(text, { maxRows: 10 }))).toEqual([{ line: 11, message: 'more than 10 data rows (limit)' }]);
+  });
+});
+
+describe('keptPressureTable: the engine reads a table it has just read without parsing it again', () => {
+  const table = (label: string) => [`# ${label}`, 'x y cp', '1 0.001 0.1', '0.5 0.06 -0.4', '0 0 1', '0.5 -0.05 -0.2', '1 -0.001 0.1'].join('\n');
+
+  it('gives what parsePressureTable gives, and the same parse again for the same text and options', () => {
+    const text = table('kept A');
+    const first = keptPressureTable(text);
+    expect(first).toEqual(parsePressureTable(text));
+    // A text equal to the character, built anew (as each worker task brings its own copy), finds it.
+    expect(keptPressureTable(table('kept A'))).toBe(first);
+    // Other options are another parse: a body radius column is not in this table.
+    expect(keptPressureTable(text, { radius: true })).toEqual(parsePressureTable(text, { radius: true }));
+    expect(keptPressureTable(text, { radius: true }).ok).toBe(false);
+    expect(keptPressureTable(text)).toBe(first);
+    const bad = 'x cp\n1 0\n0.5 zero\n0 1';
+    expect(keptPressureTable(bad)).toEqual(parsePressureTable(bad));
+  });
+
+  it('is frozen, so no reader can change what the next one is given', () => {
+    const parse = keptPressureTable(table('kept B'));
+    if (!parse.ok) throw new Error('expected rows');
+    expect(() => {
+      (parse.rows[0] as { x: number }).x = 2;
+    }).toThrow(TypeError);
+    expect(() => (parse.rows as unknown[]).push({})).toThrow(TypeError);
+    expect(parse.rows[0]!.x).toBe(1);
+  });
+
+  it('keeps only the last few texts', () => {
+    const first = keptPressureTable(table('kept C 0'));
+    for (let i = 1; i <= 8; i++) keptPressureTable(table(`kept C ${i}`));
+    const again = keptPressureTable(table('kept C 0'));
+    expect(again).not.toBe(first);
+    expect(again).toEqual(first);
   });
 });
 

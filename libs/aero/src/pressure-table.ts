@@ -213,6 +213,49 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
   return { ok: true, rows, hasY: layout !== null && layout.y >= 0, headerLine };
 }
 
+/** A parse as `keptPressureTable` shares it: frozen, so no reader can change it under the next. */
+export type KeptPressureTableParse =
+  | { readonly ok: true; readonly rows: readonly Readonly<PressureTableRow>[]; readonly hasY: boolean; readonly headerLine: number | null }
+  | { readonly ok: false; readonly problems: readonly Readonly<PressureTableProblem>[] };
+
+/** Tables kept by keptPressureTable, most recently read last; texts longer than KEPT_TEXT_LIMIT are not kept. */
+const keptTables = new Map<string, { options: string; parse: KeptPressureTableParse }[]>();
+const KEPT_TABLES = 8;
+const KEPT_TEXT_LIMIT = 1 << 18;
+
+/**
+ * parsePressureTable for the engine's own analyses, which read the same table again and again (each run
+ * of a study with a changed flow, each case of a sweep): the last few texts' parses are kept and shared,
+ * frozen. The parse of a text is the same every time, so a kept one is the one a fresh read would give.
+ */
+export function keptPressureTable(text: string, options: PressureTableOptions = {}): KeptPressureTableParse {
+  const optionsKey = `${options.maxRows ?? ''}|${options.maxProblems ?? ''}|${options.radius ? 1 : 0}`;
+  const entries = keptTables.get(text);
+  const kept = entries?.find((entry) => entry.options === optionsKey);
+  if (kept) {
+    // Most recently used last: the first key is the one to drop.
+    keptTables.delete(text);
+    keptTables.set(text, entries!);
+    return kept.parse;
+  }
+  const parse = frozen(parsePressureTable(text, options));
+  if (text.length <= KEPT_TEXT_LIMIT) {
+    if (entries) entries.push({ options: optionsKey, parse });
+    else {
+      if (keptTables.size >= KEPT_TABLES) keptTables.delete(keptTables.keys().next().value!);
+      keptTables.set(text, [{ options: optionsKey, parse }]);
+    }
+  }
+  return parse;
+}
+
+function frozen(parse: PressureTableParse): KeptPressureTableParse {
+  if (parse.ok) for (const row of parse.rows) Object.freeze(row);
+  else for (const problem of parse.problems) Object.freeze(problem);
+  Object.freeze(parse.ok ? parse.rows : parse.problems);
+  return Object.freeze(parse);
+}
+
 function layoutFromHeader(header: (Column | null)[], width: number): { x: number; y: number; cp: number; cpSign: number } | null {
   const x = header.indexOf('x');
   const y = header.indexOf('y');

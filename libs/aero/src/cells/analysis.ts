@@ -1,4 +1,4 @@
-import type { AnalysisInputs, BodyInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs } from '@laminote/contracts';
+import type { AnalysisInputs, BodyInputs, EngineCaseInput, EngineResult, FlowInputs, PressureInputs, SectionInputs } from '@laminote/contracts';
 import { analyzeCase } from '../analyze';
 import { arcAtX, xAtArc } from '../arc-position';
 import type { PressureTableRow } from '../pressure-table';
@@ -87,15 +87,38 @@ export function analysisCase(a: AnalysisInputs, flow: FlowInputs, p: PressureInp
   };
 }
 
+/**
+ * What analyses of one cell at several flows share (the cases of a sweep chunk): a section's panel
+ * solution at each Mach number, solved once. The solution at a Mach number is the same every time.
+ */
+export class AnalysisShare {
+  private section: SectionInputs | null = null;
+  private readonly sections = new Map<number, ReturnType<typeof sectionAsPressure>>();
+
+  sectionAsPressure(s: SectionInputs, flow: FlowInputs): ReturnType<typeof sectionAsPressure> {
+    if (this.section !== s) {
+      this.section = s;
+      this.sections.clear();
+    }
+    let solved = this.sections.get(flow.mach);
+    if (!solved) {
+      solved = sectionAsPressure(s, flow);
+      this.sections.set(flow.mach, solved);
+    }
+    return solved;
+  }
+}
+
 /** Transition analysis of the named flow and pressure cells: the engine's analyzeCase (analyze.ts). */
-export function computeAnalysis(a: AnalysisInputs, upstream: Upstream): EngineResult {
+export function computeAnalysis(a: AnalysisInputs, upstream: Upstream, share?: AnalysisShare): EngineResult {
   const flow = upstreamOf(upstream, 'flowCellId', 'flow').inputs;
   // A section cell stands in for a pressure cell: its panel solution at this flow's Mach number.
   // The result then carries the panel solution (inviscid), whose x, y is the outline the screen marks.
   const named = upstream['pressureCellId'];
   if (named?.kind === 'body') return analyzeBody(a, flow, upstreamOf(upstream, 'pressureCellId', 'body').inputs);
   if (named?.kind === 'section') {
-    const { pressure, inviscid } = sectionAsPressure(upstreamOf(upstream, 'pressureCellId', 'section').inputs, flow);
+    const section = upstreamOf(upstream, 'pressureCellId', 'section').inputs;
+    const { pressure, inviscid } = share ? share.sectionAsPressure(section, flow) : sectionAsPressure(section, flow);
     return { ...analyzeWith(a, flow, pressure), inviscid };
   }
   return analyzeWith(a, flow, upstreamOf(upstream, 'pressureCellId', 'pressure').inputs);

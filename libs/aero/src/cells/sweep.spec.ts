@@ -1,7 +1,9 @@
 import { CELL_SCHEMAS, type CellInputs, type CellKind } from '@laminote/contracts';
 import { describe, expect, it } from 'vitest';
 import { computeCell } from './compute';
-import { assembleSweep, computeSweepCase, sweepCaseCount } from './sweep';
+import { joukowskiLoop } from '../../test/joukowski';
+import { resultJson } from './result-json';
+import { assembleSweep, computeSweepCase, computeSweepCases, sweepCaseCount } from './sweep';
 import type { CellSource } from './types';
 
 const inputs = <K extends CellKind>(kind: K, given: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
@@ -30,6 +32,38 @@ describe('a sweep computed case by case', () => {
     const sw = inputs('sweep', { analysisCellId: ID, parameter: 'nCrit', from: 5, to: 9, steps: 3 });
     expect(() => computeSweepCase(sw, { analysisCellId: analysis }, 3)).toThrow(RangeError);
     expect(() => assembleSweep(sw, [computeSweepCase(sw, { analysisCellId: analysis }, 0)])).toThrow(RangeError);
+  });
+});
+
+describe('a chunk of cases computed together (computeSweepCases)', () => {
+  // Exact potential flow about a Joukowski section (the engine's analytic test loop), as a pasted closed loop.
+  const loop = joukowskiLoop({ re: -0.08, im: 0.03 }, 1, 201);
+  const table = ['x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
+  const flow = source('flow', { mode: 'reynolds', reynolds: 6e6, mach: 0.3 });
+  const onTable = source('analysis', { flowCellId: ID, pressureCellId: ID2, criteria: ['eN', 'michel', 'hRx', 'granville'] }, { flowCellId: flow, pressureCellId: source('pressure', { text: table }) });
+  const tripped = source('analysis', { flowCellId: ID, pressureCellId: ID2, trips: { lower: 0.3 } }, { flowCellId: flow, pressureCellId: source('pressure', { text: table }) });
+  const onSection = source('analysis', { flowCellId: ID, pressureCellId: ID2 }, { flowCellId: flow, pressureCellId: source('section', { naca: '2412', alphaDeg: 1, panels: 100 }) });
+
+  it('gives each case exactly as computeSweepCase gives it alone, to the bit and to the stored character', () => {
+    const grid = { analysisCellId: ID, parameter: 'mach', from: 0, to: 0.6, steps: 3, second: { parameter: 'reynolds', from: 2e6, to: 2e7, steps: 3 } };
+    for (const [analysisCell, sw] of [
+      [onTable, inputs('sweep', grid)],
+      [tripped, inputs('sweep', grid)],
+      // A section is solved once per Mach number in a chunk: the grid repeats each Mach number three times.
+      [onSection, inputs('sweep', grid)],
+      // From Mach 0.65 the section's corrected Cp passes the stagnation value (or the vacuum limit): those cases fail, with their message, beside the one that runs.
+      [onSection, inputs('sweep', { analysisCellId: ID, parameter: 'mach', from: 0.5, to: 0.95, steps: 4 })],
+    ] as const) {
+      const upstream = { analysisCellId: analysisCell };
+      const count = sweepCaseCount(sw);
+      // Out of order and with a repeat, as a retried chunk may be.
+      const indices = [...Array.from({ length: count }, (_, i) => count - 1 - i), 0];
+      const together = computeSweepCases(sw, upstream, indices);
+      const alone = indices.map((index) => computeSweepCase(sw, upstream, index));
+      expect(together).toEqual(alone);
+      expect(together.map(resultJson)).toEqual(alone.map(resultJson));
+      expect(together.some((c) => c.step.status === 'ok')).toBe(true);
+    }
   });
 });
 

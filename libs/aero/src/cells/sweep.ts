@@ -1,6 +1,6 @@
 import type { AnalysisInputs, CellError, EngineResult, FlowInputs, SweepInputs, SweepResult } from '@laminote/contracts';
 import { xAtArc } from '../arc-position';
-import { computeAnalysis } from './analysis';
+import { AnalysisShare, computeAnalysis } from './analysis';
 import { CellInputError, toCellError } from './errors';
 import { upstreamOf, type Upstream } from './types';
 import { warningNotes, type ResultTable, type TableValue } from './result-table';
@@ -18,9 +18,9 @@ function sweptFlow(flow: FlowInputs, parameter: SweepInputs['parameter'], value:
   }
 }
 
-function analyzeStep(a: AnalysisInputs, upstream: Upstream): { result: EngineResult } | { error: CellError } {
+function analyzeStep(a: AnalysisInputs, upstream: Upstream, share: AnalysisShare | undefined): { result: EngineResult } | { error: CellError } {
   try {
-    return { result: computeAnalysis(a, upstream) };
+    return { result: computeAnalysis(a, upstream, share) };
   } catch (error) {
     const cellError = toCellError(error);
     if (!cellError) throw error;
@@ -56,6 +56,20 @@ export function sweepCaseCount(sw: SweepInputs): number {
  * exactly as computeSweep gives it whole.
  */
 export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: number): SweepCase {
+  return sweepCase(sw, upstream, index, undefined);
+}
+
+/**
+ * Several cases of one sweep (a job worker's chunk), each exactly as computeSweepCase gives it alone.
+ * What the cases share is prepared once: a section named as the analysis's pressure is solved once per
+ * Mach number (AnalysisShare), and the pressure table, read by the engine's kept reader, is parsed once.
+ */
+export function computeSweepCases(sw: SweepInputs, upstream: Upstream, indices: readonly number[]): SweepCase[] {
+  const share = new AnalysisShare();
+  return indices.map((index) => sweepCase(sw, upstream, index, share));
+}
+
+function sweepCase(sw: SweepInputs, upstream: Upstream, index: number, share: AnalysisShare | undefined): SweepCase {
   const analysis = upstreamOf(upstream, 'analysisCellId', 'analysis');
   const flowCell = upstreamOf(analysis.upstream, 'flowCellId', 'flow');
   const flow = flowCell.inputs;
@@ -67,7 +81,7 @@ export function computeSweepCase(sw: SweepInputs, upstream: Upstream, index: num
   const at = value2 === undefined ? { value } : { value, value2 };
   // The analysis as it is, with the flow cell at this case's values (a section or body named as its
   // pressure is solved again, so a Mach step moves the section's Cp too).
-  const outcome = analyzeStep(analysis.inputs, { ...analysis.upstream, flowCellId: { ...flowCell, inputs: swept } });
+  const outcome = analyzeStep(analysis.inputs, { ...analysis.upstream, flowCellId: { ...flowCell, inputs: swept } }, share);
   if ('error' in outcome) return { step: { ...at, status: 'error', error: outcome.error, reynolds: null, cd: null, surfaces: [], attachmentLine: null }, warnings: [] };
   const r = outcome.result;
   return {
@@ -126,7 +140,11 @@ export function assembleSweep(sw: SweepInputs, cases: readonly SweepCase[]): Swe
 export function computeSweep(sw: SweepInputs, upstream: Upstream): SweepResult {
   return assembleSweep(
     sw,
-    Array.from({ length: sweepCaseCount(sw) }, (_, index) => computeSweepCase(sw, upstream, index)),
+    computeSweepCases(
+      sw,
+      upstream,
+      Array.from({ length: sweepCaseCount(sw) }, (_, index) => index),
+    ),
   );
 }
 
