@@ -4,7 +4,7 @@ import type { AddressInfo } from 'node:net';
 import { CookieAccessInfo } from 'cookiejar';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { computeCell } from '@laminote/aero';
+import { computeCell, resultJson } from '@laminote/aero';
 import { CELL_SCHEMAS, type CellInputs, type CellKind, type Draft, type DraftCell, type Job, type JobEvent, type SweepResult } from '@laminote/contracts';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
 import { pruneRetained } from '../../server/src/jobs/retention';
@@ -57,6 +57,15 @@ async function sweepStudy(sweep: Record<string, unknown>, points = 201) {
   ].map((c) => ({ title: '', collapsed: false, ...c }));
   const saved = await as['engineer']!.put(`/api/branches/${branchId}/draft`, { baseRevision: 0, cells }).expect(200);
   return { branchId, ids, cells, draft: saved.body as Draft };
+}
+
+/** The reference: the engine's one entry point computing the study's whole sweep in this process. */
+function wholeSweep(cells: Awaited<ReturnType<typeof sweepStudy>>['cells'], ids: Awaited<ReturnType<typeof sweepStudy>>['ids']): SweepResult {
+  const up = (id: string) => cells.find((c) => c.cellId === id)!;
+  const flow = { kind: 'flow' as const, inputs: parsed('flow', up(ids.flow).inputs), upstream: {} };
+  const pressure = { kind: 'pressure' as const, inputs: parsed('pressure', up(ids.pressure).inputs), upstream: {} };
+  const analysis = { kind: 'analysis' as const, inputs: parsed('analysis', up(ids.analysis).inputs), upstream: { flowCellId: flow, pressureCellId: pressure } };
+  return computeCell('sweep', parsed('sweep', up(ids.sweep).inputs), { analysisCellId: analysis });
 }
 
 const cellOf = (draft: Draft, cellId: string) => draft.cells.find((c) => c.cellId === cellId)!;
@@ -123,13 +132,10 @@ describe('runs as jobs', () => {
 
     const draft = (await as['engineer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
     expect(draft.cells.map((c) => c.runState)).toEqual(['current', 'current', 'current', 'current']);
-    // The reference: the engine's one entry point computing the whole sweep in this process.
-    const up = (id: string) => cells.find((c) => c.cellId === id)!;
-    const flow = { kind: 'flow' as const, inputs: parsed('flow', up(ids.flow).inputs), upstream: {} };
-    const pressure = { kind: 'pressure' as const, inputs: parsed('pressure', up(ids.pressure).inputs), upstream: {} };
-    const analysis = { kind: 'analysis' as const, inputs: parsed('analysis', up(ids.analysis).inputs), upstream: { flowCellId: flow, pressureCellId: pressure } };
-    const whole = computeCell('sweep', parsed('sweep', up(ids.sweep).inputs), { analysisCellId: analysis });
+    const whole = wholeSweep(cells, ids);
     const stored = cellOf(draft, ids.sweep).output!.result as SweepResult;
+    // What the sweep cell stores when computed whole, to the last digit.
+    expect(stored).toEqual(JSON.parse(resultJson(whole)));
     expect(stored.steps).toHaveLength(120);
     expect(stored.values).toEqual(whole.values.map((v) => Number(v.toPrecision(7))));
     stored.steps.forEach((step, i) => {
@@ -140,6 +146,20 @@ describe('runs as jobs', () => {
     // Each case stored once.
     const [count] = (await t.database.db.execute<{ n: number; distinct: number }>(sql`select count(*)::int as n, count(distinct index)::int as distinct from sweep_cases where sweep_key = ${cellOf(draft, ids.sweep).output!.key}`)).rows;
     expect(count).toEqual({ n: 120, distinct: 120 });
+  });
+
+  it('lands a grid sweep as the engine computes it whole: both parameters\' values, every step in order, each warning once', async () => {
+    // Mach 0.6 to 0.9 × Re: each Mach step warns of its own (compressible layer, supersonic pocket), and the
+    // cases of one Mach value repeat its warnings, which the result lists once, in the order first given.
+    const sweep = { parameter: 'mach', from: 0.6, to: 0.9, steps: 4, second: { parameter: 'reynolds', from: 2e6, to: 1.2e7, steps: 5 } };
+    const { branchId, ids, cells } = await sweepStudy(sweep);
+    await runAndWait(as['engineer']!, branchId);
+    const draft = (await as['engineer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    const whole = wholeSweep(cells, ids);
+    const stored = cellOf(draft, ids.sweep).output!.result as SweepResult;
+    expect(whole.warnings.length).toBeGreaterThan(3);
+    expect(stored).toEqual(JSON.parse(resultJson(whole)));
+    expect(stored.steps.map((s) => [s.value, s.value2])).toEqual(whole.steps.map((s) => [Number(s.value.toPrecision(7)), Number(s.value2!.toPrecision(7))]));
   });
 
   it('answers 200 with the draft at once when every output is stored, computing nothing', async () => {

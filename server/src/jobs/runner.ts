@@ -1,8 +1,8 @@
 import { setTimeout as sleep } from 'node:timers/promises';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type PgBoss from 'pg-boss';
-import { assembleSweep, ENGINE_VERSION, roundedNumber, toCellError, upstreamFailedError, type ComputedOutput } from '@laminote/aero';
-import { CELL_KIND_LABELS, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs } from '@laminote/contracts';
+import { assembleSweep, ENGINE_VERSION, resultJson, sweepValues, toCellError, upstreamFailedError, type ComputedOutput, type SweepCase } from '@laminote/aero';
+import { CELL_KIND_LABELS, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs, type SweepResult } from '@laminote/contracts';
 import { audit } from '../audit/audit';
 import type { Database } from '../db/client';
 import { isDatabaseUnavailable } from '../db/availability';
@@ -223,20 +223,20 @@ export class JobRunner {
     const missing: number[] = [];
     for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
     if (missing.length) {
-      const { cases: computed, engineCpuMs } = await this.compute.sweepCases({ task: w.task, indices: missing });
+      const { indices, json, engineCpuMs } = await this.compute.sweepCases({ task: w.task, indices: missing });
       // The engine's own CPU time beside the job's (npm run bench -- jobs reads it to split the overhead).
-      this.logger.debug({ jobId: row.id, cellId: w.cellId, cases: computed.length, engineCpuMs }, 'sweep cases computed');
+      this.logger.debug({ jobId: row.id, cellId: w.cellId, cases: indices.length, engineCpuMs }, 'sweep cases computed');
       // Each case stored once (one stored by an earlier try stays), the app servers told, in one statement:
-      // the cases go as two arrays, the JSON text of each as the engine wrote it.
+      // the chunk's cases go as their indices and one JSON array, as the engine wrote it, taken apart here.
       await this.database.pool.query(
         `with stored as (
            insert into sweep_cases (sweep_key, index, step)
-           select $1, c.index, c.step::jsonb from unnest($2::int[], $3::text[]) as c(index, step)
+           select $1, c.index, c.step from rows from (unnest($2::int[]), jsonb_array_elements($3::jsonb)) as c(index, step)
            on conflict do nothing
            returning 1
          )
          select pg_notify($4, $5)`,
-        [key, computed.map((c) => c.index), computed.map((c) => c.json), JOB_CHANNEL, JSON.stringify({ type: 'job', jobId: row.id, branchId: row.branchId } satisfies JobNotice)],
+        [key, indices, json, JOB_CHANNEL, JSON.stringify({ type: 'job', jobId: row.id, branchId: row.branchId } satisfies JobNotice)],
       );
     }
     if (await this.assembleIfComplete(row, w)) await this.finishIfDone(row);
@@ -249,13 +249,11 @@ export class JobRunner {
       .from(sweepCases)
       .where(eq(sweepCases.sweepKey, w.key!));
     if (n < w.cases) return false;
-    const rows = await this.db.select({ step: sweepCases.step }).from(sweepCases).where(eq(sweepCases.sweepKey, w.key!)).orderBy(asc(sweepCases.index));
-    const started = row.startedAt ?? row.createdAt;
-    const durationMs = Date.now() - started.getTime();
+    const sw = w.task!.inputs as SweepInputs;
+    const durationMs = Date.now() - (row.startedAt ?? row.createdAt).getTime();
     let computed: ComputedOutput;
     try {
-      const result = assembleSweep(w.task!.inputs as SweepInputs, rows.map((r) => r.step as Parameters<typeof assembleSweep>[1][number]));
-      computed = { status: 'ok', resultJson: JSON.stringify(result, roundedNumber), error: null, durationMs };
+      computed = { status: 'ok', resultJson: await this.sweepResultJson(w.key!, sw), error: null, durationMs };
     } catch (err) {
       const error = toCellError(err);
       if (!error) throw err;
@@ -263,6 +261,39 @@ export class JobRunner {
     }
     await this.store(row, w, computed);
     return true;
+  }
+
+  /**
+   * The sweep's result as assembleSweep gives it, written from the stored cases' text: PostgreSQL joins
+   * the steps in order and gathers the warnings (each once, in the order the cases first give them), so
+   * a thousand cases are not read back as objects and written out again. The cases' numbers are rounded
+   * already; the values the sweep runs over are rounded here as the engine rounds results. When every
+   * step failed, assembleSweep itself says so (it throws the sweep's error).
+   */
+  private async sweepResultJson(key: string, sw: SweepInputs): Promise<string> {
+    const { rows } = await this.database.pool.query<{ steps: string; failed: boolean; warnings: string }>(
+      `select string_agg((step -> 'step')::text, ',' order by index) as steps,
+              bool_and(step -> 'step' ->> 'status' = 'error') as failed,
+              (select coalesce(json_agg(seen.warning order by seen.first), '[]')::text
+                 from (select w.warning, min(array[c.index::bigint, w.at]) as first
+                         from sweep_cases c, jsonb_array_elements_text(c.step -> 'warnings') with ordinality as w(warning, at)
+                        where c.sweep_key = $1
+                        group by w.warning) as seen) as warnings
+         from sweep_cases
+        where sweep_key = $1`,
+      [key],
+    );
+    const { steps, failed, warnings } = rows[0]!;
+    if (failed) {
+      const cases = await this.db.select({ step: sweepCases.step }).from(sweepCases).where(eq(sweepCases.sweepKey, key)).orderBy(asc(sweepCases.index));
+      return resultJson(assembleSweep(sw, cases.map((c) => c.step as SweepCase)));
+    }
+    const head: Omit<SweepResult, 'steps' | 'warnings'> = {
+      parameter: sw.parameter,
+      values: sweepValues(sw),
+      ...(sw.second ? { second: { parameter: sw.second.parameter, values: sweepValues(sw.second) } } : {}),
+    };
+    return `${resultJson(head).slice(0, -1)},"steps":[${steps}],"warnings":${warnings}}`;
   }
 
   /** When every output of the job is stored: the draft shows them all, the job is completed with its reports. */

@@ -1,4 +1,4 @@
-import { computeSweepCase, roundedNumber, type CellTask, type SweepCase } from '@laminote/aero';
+import { computeSweepCase, resultJson, type CellTask, type SweepCase } from '@laminote/aero';
 import type { SweepInputs } from '@laminote/contracts';
 import { threadCpuMs } from './thread-cpu';
 
@@ -13,14 +13,10 @@ export interface SweepCasesTask {
   indices: number[];
 }
 
-export interface SweepCaseOutput {
-  index: number;
-  /** The case (its step and warnings) as JSON, numbers to RESULT_DIGITS. */
-  json: string;
-}
-
 export interface SweepCasesOutput {
-  cases: SweepCaseOutput[];
+  indices: number[];
+  /** The cases (each its step and warnings) in the order of `indices`, as one JSON array, numbers to RESULT_DIGITS. */
+  json: string;
   /** CPU time the computing thread spent inside the engine for these cases, in ms (its own thread's, not the process's). */
   engineCpuMs: number;
 }
@@ -51,7 +47,8 @@ export class SweepCasesComputation {
   }
 
   output(): SweepCasesOutput {
-    return { cases: this.computed.map((c, i) => ({ index: this.chunk.indices[i]!, json: JSON.stringify(c, roundedNumber) })), engineCpuMs: this.engineCpuMs };
+    // One text for the chunk: one walk of the rounding and one string to send, not one of each per case.
+    return { indices: this.chunk.indices, json: resultJson(this.computed), engineCpuMs: this.engineCpuMs };
   }
 }
 
