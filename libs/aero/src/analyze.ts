@@ -19,7 +19,7 @@ import { granvilleReThetaRise } from './granville';
 import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './head';
 import { hRexTransitionLog10ReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
-import { keptPressureTable } from './pressure-table';
+import { keptPressureTable, type KeptPressureTableParse, type PressureTableRow } from './pressure-table';
 import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
 import { leastSquaresSlope, smoothedSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
@@ -335,16 +335,37 @@ function rearStagnation(s: ArrayLike<number>, ue: ArrayLike<number>): { zeroAt: 
   return { zeroAt: -1, rear: false };
 }
 
+/**
+ * The surfaces of the table read last, at the Mach number and sweep they were prepared for, with the
+ * warnings their preparation gave: a study run again with another Reynolds number or N_crit, or a sweep
+ * over them, prepares the same surfaces from the same (kept) table. Their arrays are the split's own,
+ * never the scratch buffer's, and nothing writes into a prepared surface's arrays.
+ */
+let lastTableSurfaces: { table: KeptPressureTableParse; mach: number; sweep: number; surfaces: readonly PreparedSurface[]; warnings: readonly string[] } | null = null;
+
 function surfacesFromTable(text: string, mach: number, sweep: number, warnings: string[]): PreparedSurface[] {
   const table = keptPressureTable(text, { maxRows: ENGINE_LIMITS.maxTableRows });
   if (!table.ok) {
     const problem = table.problems[0];
     throw new CaseError(problem.line > 0 ? `pressureTable line ${problem.line}` : 'pressureTable', problem.message);
   }
-  const rows = table.rows;
+  const last = lastTableSurfaces;
+  if (last !== null && last.table === table && last.mach === mach && last.sweep === sweep) {
+    warnings.push(...last.warnings);
+    return last.surfaces.map((surface) => ({ ...surface }));
+  }
+  const added: string[] = [];
+  const surfaces = splitTable(table.rows, table.hasY, mach, sweep, added);
+  warnings.push(...added);
+  lastTableSurfaces = { table, mach, sweep, surfaces: surfaces.map((surface) => ({ ...surface })), warnings: added };
+  return surfaces;
+}
+
+/** A closed loop's rows as two surfaces from the stagnation point, at this Mach number and sweep. */
+function splitTable(rows: readonly Readonly<PressureTableRow>[], hasY: boolean, mach: number, sweep: number, warnings: string[]): PreparedSurface[] {
   const n = rows.length;
   const x = scratch.take(n);
-  const y = table.hasY ? scratch.take(n) : null;
+  const y = hasY ? scratch.take(n) : null;
   const speed = scratch.take(n);
   const cp0 = attachmentLinePressureCoefficient(mach, sweep);
   const where = sweep === 0 ? 'stagnation' : 'attachment-line';

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeCase } from './analyze';
 import { Scratch } from './scratch';
+import { joukowskiLoop } from '../test/joukowski';
 
 describe('scratch storage for the engine’s work arrays', () => {
   it('hands out zeroed, separate views, zeroed again after a reset', () => {
@@ -39,5 +40,25 @@ describe('scratch storage for the engine’s work arrays', () => {
     const before = analyzeCase(first);
     analyzeCase(second);
     expect(analyzeCase(first)).toEqual(before);
+  });
+
+  it('gives the same result whether a table was prepared for this case or kept from the one before', () => {
+    // Exact potential flow about a Joukowski section (the engine's analytic test loop), with and
+    // without its y column (which adds a warning, given once).
+    const loop = joukowskiLoop({ re: -0.1, im: 0.02 }, 1, 241);
+    const withY = ['x y cp', ...loop.x.map((x, i) => `${x} ${loop.y[i]} ${loop.cp[i]}`)].join('\n');
+    const withoutY = ['x cp', ...loop.x.map((x, i) => `${x} ${loop.cp[i]}`)].join('\n');
+    let unseen = 0;
+    for (const pressureTable of [withY, withoutY]) {
+      const at = (reynolds: number, mach: number) => ({ flow: { reynolds, mach }, pressureTable, criteria: ['eN', 'michel'] });
+      // Each case prepared afresh: a comment line makes each table one the engine has not read.
+      const fresh = [at(3e6, 0.5), at(9e6, 0.5), at(9e6, 0.3)].map((c) => analyzeCase({ ...c, pressureTable: `# table ${++unseen}\n${pressureTable}` }));
+      // The same cases one after another on one text, so each finds the surfaces the one before prepared
+      // when the Mach number is the same, and prepares them again when it is not.
+      analyzeCase(at(1e6, 0.5));
+      const kept = [at(3e6, 0.5), at(9e6, 0.5), at(9e6, 0.3)].map((c) => analyzeCase(c));
+      expect(kept).toEqual(fresh);
+      expect(kept[1]!.warnings.filter((w) => w.includes('no y column')).length).toBe(pressureTable === withY ? 0 : 1);
+    }
   });
 });
