@@ -4,9 +4,11 @@
  * A 1,000-case Reynolds-number sweep of a 2 × 300-station transition analysis (a Joukowski section,
  * 601 table points), run through the API as a job on one worker process and then on two (each with
  * one compute thread), timed from POST /run to the job's completion. Against it, the cost of one
- * analysis case computed in this process with no queue at all (computeSweepCase, one thread). The job
- * overhead per case is the worker processes' CPU time per case (all their threads) over the in-process
- * case's CPU time (all this process's threads), less one; target (issue 13): under 20 % at 1,000 cases.
+ * analysis case computed in this process with no queue at all, by the workers' own compute path (the
+ * engine's chunk entry, in the same chunks and slices, one thread, nothing written out or stored). The
+ * job overhead per case is the worker processes' CPU time per case (all their threads) over the
+ * in-process case's CPU time (all this process's threads), less one; target (issue 13): under 20 % at
+ * 1,000 cases.
  *
  * The engine's CPU time per case drifts by ±30 % from minute to minute on a shared machine, in a worker
  * and in a lone loop alike, so each job run is paired with an in-process loop run just before it
@@ -271,6 +273,8 @@ interface Round {
   /** For two workers, the one-worker round's lone loop too. */
   lone: CaseCost;
   load: number;
+  /** The lone loop's cases computed one at a time (computeSweepCase), as workers did before the chunk entry. */
+  oneByOne: CaseCost;
 }
 
 /** Worker CPU a case over the loop's, less one: the issue's figure. */
@@ -283,11 +287,12 @@ const jobCode = (r: Round) => r.run.cpuMs / r.run.engineCpuMs / (r.loop.cpuMs / 
 try {
   const rounds: Round[] = [];
   for (let round = 0; round < ROUNDS; round++) {
+    const oneByOne = await inProcessCases(undefined, 'cases');
     const lone = await inProcessCases();
     for (const workers of WORKER_COUNTS) {
       const loop = workers === 1 ? lone : await inProcessPair();
       const run = await timedRun(workers);
-      rounds.push({ workers, run, loop, lone, load: loadavg()[0]! });
+      rounds.push({ workers, run, loop, lone, load: loadavg()[0]!, oneByOne });
     }
   }
   const pct = (x: number) => `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
@@ -313,6 +318,11 @@ try {
     out(`      of which the job's code (drift-free): ${spread(of.map(jobCode))}; the engine in the job against the loop's: ${spread(of.map(engineShift))}`);
     out(`      median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s; idle worker ${median(of.map((r) => r.run.idleCpuMsPerS)).toFixed(1)} ms CPU a second (included above)`);
   }
+  const ones = rounds.filter((r) => r.workers === 1);
+  out(
+    `  in-process, the engine's chunk entry (the workers' path, above) against one case at a time (computeSweepCase): wall ${ms(median(ones.map((r) => r.lone.wallMs)))} against ${ms(median(ones.map((r) => r.oneByOne.wallMs)))} a case,` +
+      ` CPU ${ms(median(ones.map((r) => r.lone.cpuMs)))} against ${ms(median(ones.map((r) => r.oneByOne.cpuMs)))} (medians; ${(median(ones.map((r) => r.oneByOne.wallMs / r.lone.wallMs))).toFixed(2)}× by the median of the rounds' ratios)`,
+  );
   if (WORKER_COUNTS.length > 1) {
     const wall = (n: number) => median(rounds.filter((r) => r.workers === n).map((r) => r.run.wallMs));
     out(`  speed-up of two workers over one (median wall): ${(wall(1) / wall(2)).toFixed(2)}×`);

@@ -9,7 +9,10 @@ import { createInterface } from 'node:readline';
 import { computeSweepCase } from '@laminote/aero';
 import { CELL_SCHEMAS, type CellInputs, type CellKind } from '@laminote/contracts';
 import { joukowskiLoop } from '../../libs/aero/test/joukowski';
+import { YIELD_MS } from '../src/jobs/compute-pool';
+import { SweepCasesComputation } from '../src/jobs/sweep-cases';
 import { threadCpuMs } from '../src/jobs/thread-cpu';
+import { CASES_PER_CHUNK } from '../src/jobs/work';
 
 export const CASES = 1000;
 /** Cases each side computes before it is measured: enough for the engine's code to be optimised (about 200). */
@@ -40,8 +43,13 @@ export interface CaseCost {
   engineCpuMs: number;
 }
 
-/** The same CASES cases computed one after another in this process with no queue (after WARM_UP cases). */
-export async function inProcessCases(beforeMeasuring: () => Promise<void> = async () => undefined): Promise<CaseCost> {
+/**
+ * The same CASES cases computed one after another in this process with no queue (after WARM_UP cases),
+ * by the job worker's own compute path: chunks of CASES_PER_CHUNK through the engine's chunk entry, in
+ * slices of YIELD_MS (SweepCasesComputation), without writing them out or storing them. `path: 'cases'`
+ * computes them one at a time through computeSweepCase instead, as workers did before the chunk entry.
+ */
+export async function inProcessCases(beforeMeasuring: () => Promise<void> = async () => undefined, path: 'chunks' | 'cases' = 'chunks'): Promise<CaseCost> {
   const { inputs } = studyCells('in-process');
   const upstream = {
     analysisCellId: {
@@ -51,15 +59,29 @@ export async function inProcessCases(beforeMeasuring: () => Promise<void> = asyn
     },
   };
   const sweep = parsed('sweep', inputs.sweep);
-  for (let i = 0; i < WARM_UP; i++) computeSweepCase(sweep, upstream, (i * 37) % CASES);
+  const task = { kind: 'sweep' as const, inputs: sweep, upstream };
+  /** The engine's thread CPU over the indices, in ms. */
+  const compute = (indices: number[]): number => {
+    if (path === 'cases') {
+      const thread = threadCpuMs();
+      for (const index of indices) computeSweepCase(sweep, upstream, index);
+      return threadCpuMs() - thread;
+    }
+    let engineMs = 0;
+    for (let from = 0; from < indices.length; from += CASES_PER_CHUNK) {
+      const computation = new SweepCasesComputation({ task, indices: indices.slice(from, from + CASES_PER_CHUNK) });
+      while (!computation.done) computation.step(YIELD_MS);
+      engineMs += computation.engineCpuMs;
+    }
+    return engineMs;
+  };
+  compute(Array.from({ length: WARM_UP }, (_, i) => (i * 37) % CASES));
   await beforeMeasuring();
   const start = performance.now();
   const cpu = process.cpuUsage();
-  const thread = threadCpuMs();
-  for (let index = 0; index < CASES; index++) computeSweepCase(sweep, upstream, index);
-  const engineCpuMs = (threadCpuMs() - thread) / CASES;
+  const engineMs = compute(Array.from({ length: CASES }, (_, i) => i));
   const used = process.cpuUsage(cpu);
-  return { wallMs: (performance.now() - start) / CASES, cpuMs: (used.user + used.system) / 1000 / CASES, engineCpuMs };
+  return { wallMs: (performance.now() - start) / CASES, cpuMs: (used.user + used.system) / 1000 / CASES, engineCpuMs: engineMs / CASES };
 }
 
 if (process.argv[1]?.endsWith('sweep-case-loop.ts')) {

@@ -21,7 +21,7 @@ export interface ComputePool {
 }
 
 /** Longest a worker computing on its main thread goes without letting the event loop run. */
-const YIELD_MS = 25;
+export const YIELD_MS = 25;
 
 export function createComputePool(threads = 0): ComputePool {
   const size = threads > 0 ? threads : Math.max(1, availableParallelism());

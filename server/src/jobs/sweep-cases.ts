@@ -1,10 +1,11 @@
-import { computeSweepCase, resultJson, type CellTask, type SweepCase } from '@laminote/aero';
+import { computeSweepCases as computeEngineCases, resultJson, type CellTask, type SweepCase } from '@laminote/aero';
 import type { SweepInputs } from '@laminote/contracts';
 import { threadCpuMs } from './thread-cpu';
 
 /**
- * What a job worker computes for a chunk of a sweep: each case on its own, as the sweep cell computes
- * it (libs/aero/src/cells/sweep.ts), kept as JSON text to store.
+ * What a job worker computes for a chunk of a sweep: its cases through the engine's chunk entry
+ * (computeSweepCases in libs/aero/src/cells/sweep.ts: each case exactly as the sweep cell computes it,
+ * what they share prepared once), kept as JSON text to store.
  */
 
 export interface SweepCasesTask {
@@ -27,7 +28,10 @@ export interface SweepCasesOutput {
  */
 export class SweepCasesComputation {
   private readonly computed: SweepCase[] = [];
-  private engineCpuMs = 0;
+  /** CPU time the engine has taken so far, in ms (the computing thread's). */
+  engineCpuMs = 0;
+  /** Cases the next slice takes: one at first, then as many as fit half the time given to a step. */
+  private sliceCases = 1;
 
   constructor(private readonly chunk: SweepCasesTask) {}
 
@@ -35,13 +39,18 @@ export class SweepCasesComputation {
     return this.computed.length === this.chunk.indices.length;
   }
 
-  /** Computes the next cases, until all are done or at least `budgetMs` of wall time has gone. */
+  /** Computes the next cases, until all are done or at least `budgetMs` of wall time has gone (all at once when no budget is given). */
   step(budgetMs = Infinity): void {
     const { task, indices } = this.chunk;
     const started = performance.now();
     const cpu = threadCpuMs();
     do {
-      this.computed.push(computeSweepCase(task.inputs as SweepInputs, task.upstream, indices[this.computed.length]!));
+      const from = this.computed.length;
+      const slice = budgetMs === Infinity ? indices.slice(from) : indices.slice(from, from + this.sliceCases);
+      const sliceStarted = performance.now();
+      for (const c of computeEngineCases(task.inputs as SweepInputs, task.upstream, slice)) this.computed.push(c);
+      const msPerCase = (performance.now() - sliceStarted) / slice.length;
+      this.sliceCases = Math.max(1, Math.floor(budgetMs / 2 / Math.max(msPerCase, 0.001)));
     } while (!this.done && performance.now() - started < budgetMs);
     this.engineCpuMs += threadCpuMs() - cpu;
   }
