@@ -73,6 +73,16 @@ describe('roundToResultDigits: the double toPrecision(7) reads back as', () => {
     expect(mismatches(values)).toEqual([]);
   });
 
+  it('agrees along runs of values of one scale (as in a result array) and where the scale changes', () => {
+    const next = random(7);
+    const values: number[] = [];
+    for (let run = 0; run < 2000; run++) {
+      const scale = 10 ** (Math.floor(next() * 40) - 20);
+      for (let i = 0; i < 50; i++) values.push(scale * (0.9 + 0.2 * next()));
+    }
+    expect(mismatches(values)).toEqual([]);
+  });
+
   it('rounds exact binary ties to the larger magnitude, as toPrecision does', () => {
     // 1234567.5 and 0.25-steps are exact in binary: a true tie at 7 digits.
     const ties = [1234567.5, -1234567.5, 9999999.5, 123456.75, 12345.625, 1000000.5, 0.5, 2.5e-7];

@@ -35,12 +35,18 @@ export function roundToResultDigits(v: number): number {
   const magnitude = v < 0 ? -v : v;
   // 1e-15 ≤ |v| < 1e21 keeps |k| ≤ 22, where 10^k is exact.
   if (!(magnitude >= 1e-15 && magnitude < 1e21)) return Number(v.toPrecision(RESULT_DIGITS));
-  let k = RESULT_DIGITS - 1 - Math.floor(Math.log10(magnitude));
+  // Neighbouring values (a result's arrays) mostly share their scale: try the last one before log10.
+  let k = lastScale;
   let y = scaled(magnitude, k);
-  // log10 may be one off next to a power of ten.
-  if (y < LOW) y = scaled(magnitude, ++k);
-  else if (y >= HIGH) y = scaled(magnitude, --k);
-  if (!(y >= LOW && y < HIGH)) return Number(v.toPrecision(RESULT_DIGITS));
+  if (!(y >= LOW && y < HIGH)) {
+    k = RESULT_DIGITS - 1 - Math.floor(Math.log10(magnitude));
+    y = scaled(magnitude, k);
+    // log10 may be one off next to a power of ten.
+    if (y < LOW) y = scaled(magnitude, ++k);
+    else if (y >= HIGH) y = scaled(magnitude, --k);
+    if (!(y >= LOW && y < HIGH)) return Number(v.toPrecision(RESULT_DIGITS));
+    lastScale = k;
+  }
   const whole = Math.floor(y);
   const fraction = y - whole;
   if (fraction > 0.5 - TIE_MARGIN && fraction < 0.5 + TIE_MARGIN) return Number(v.toPrecision(RESULT_DIGITS));
@@ -48,6 +54,9 @@ export function roundToResultDigits(v: number): number {
   const rounded = k >= 0 ? n / POWERS_OF_TEN[k]! : n * POWERS_OF_TEN[-k]!;
   return v < 0 ? -rounded : rounded;
 }
+
+/** The scale k of the number rounded last (a hint; any k in −22…22 is checked before use). */
+let lastScale = 0;
 
 /** Far wider than the error of y (under 1e-9), so only true near-ties take the exact path. */
 const TIE_MARGIN = 1e-6;
@@ -80,11 +89,15 @@ export function roundedCopy(value: unknown, key = ''): unknown {
 
 function copyOfObject(value: object): unknown {
   if (Array.isArray(value)) {
-    const n = value.length;
-    const out = new Array<unknown>(n);
+    // A slice keeps the array's kind of storage (unboxed doubles for an array of numbers), which a new
+    // array filled item by item would lose at the first null after numbers.
+    const out: unknown[] = value.slice();
+    const n = out.length;
     for (let i = 0; i < n; i++) {
-      const item: unknown = value[i];
-      out[i] = typeof item === 'number' ? roundedValue(item) : typeof item === 'object' && item !== null ? roundedCopy(item, String(i)) : item;
+      const item: unknown = out[i];
+      if (typeof item === 'number') {
+        if (!Number.isInteger(item) && Number.isFinite(item)) out[i] = roundToResultDigits(item);
+      } else if (typeof item === 'object' && item !== null) out[i] = roundedCopy(item, String(i));
     }
     return out;
   }
