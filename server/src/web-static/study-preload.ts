@@ -7,7 +7,7 @@ import path from 'node:path';
  * The notebook page and each cell kind's body are lazy chunks that import shared chunks, which import
  * more: fetched from the page alone, they arrive in rounds, one per level of imports, each round only
  * once the one before has been read. With a `<link rel="modulepreload">` per file in index.html the
- * browser asks for all of them with the app's first files, in one round. Preloading fetches and
+ * browser asks for all of them right after the app's first files, in one round. Preloading fetches and
  * compiles; nothing runs before the app imports it, so nothing changes but when the bytes arrive.
  *
  * Which files those are comes from the build's own record of its chunks (`stats.json`, the esbuild
@@ -46,7 +46,7 @@ export function studyPreloads(metafile: Metafile, indexHtml: string): string[] {
 }
 
 /**
- * index.html for a study's address: the built one with the preload links before `</head>`. Read again
+ * index.html for a study's address: the built one with the preload links at the end of `<body>`. Read again
  * when the build changes (by the files' modification times), so a rebuild under a running server is
  * served as built.
  */
@@ -66,7 +66,11 @@ export function studyIndexHtml(webDir: string): () => string | null {
       try {
         const index = readFileSync(indexFile, 'utf8');
         const files = studyPreloads(JSON.parse(readFileSync(statsFile, 'utf8')) as Metafile, index);
-        html = files.length && index.includes('</head>') ? index.replace('</head>', `${files.map((f) => `<link rel="modulepreload" href="${f}">`).join('')}</head>`) : null;
+        // After the app's own scripts and at low priority: over HTTP/1.1 a browser has six connections
+        // to the server, and the sign-in check, the study's reads (early-reads.js) and the app's entry
+        // must not queue behind seventy chunks that are needed only once the app has started.
+        const links = files.map((f) => `<link rel="modulepreload" href="${f}" fetchpriority="low">`).join('');
+        html = files.length && index.includes('</body>') ? index.replace('</body>', `${links}</body>`) : null;
       } catch {
         // An unreadable or half-written record: the page as built, and a fresh try next time.
         return null;
