@@ -33,12 +33,21 @@
   if (study) {
     var studyId = study[1];
     var wanted = new URLSearchParams(location.search).get('branch');
+    // The branch this address opened last time, remembered here: its draft is read beside the study
+    // rather than after the branches have answered. A branch keeps its id, so this is right unless
+    // the branch has gone, and then the app never asks for that address and the read is only wasted.
+    var rememberKey = 'laminote.openedBranch:' + studyId + ':' + (wanted || '');
+    var remembered = null;
+    try {
+      remembered = localStorage.getItem(rememberKey);
+    } catch (e) {}
     var readStudy = function () {
       read('/api/studies/' + studyId);
+      if (remembered) read('/api/branches/' + remembered + '/draft');
       return json(read('/api/studies/' + studyId + '/branches'));
     };
     // The anti-forgery cookie is set at sign-in: with it, the study is read beside the sign-in check
-    // rather than after it (it outlives a session that ended, which costs two refused reads at most).
+    // rather than after it (it outlives a session that ended, which costs three refused reads at most).
     var signedInBefore = /(?:^|;\s*)XSRF-TOKEN=/.test(document.cookie);
     (signedInBefore
       ? readStudy()
@@ -53,7 +62,11 @@
         var branch = branches.find(function (b) {
           return wanted ? b.id === wanted || b.name === wanted : b.name === 'main';
         });
-        if (branch) read('/api/branches/' + branch.id + '/draft');
+        if (!branch) return;
+        if (branch.id !== remembered) read('/api/branches/' + branch.id + '/draft');
+        try {
+          localStorage.setItem(rememberKey, branch.id);
+        } catch (e) {}
       })
       .catch(function () {});
   }
