@@ -22,7 +22,8 @@ export interface CachedOutput {
 }
 
 
-type OutputRow = typeof outputs.$inferSelect;
+/** A stored output as read here: its result as the stored JSON text (spliced into answers, never parsed). */
+type OutputRow = Omit<typeof outputs.$inferSelect, 'result'> & { resultText: string | null };
 
 /** An output computed by a run and not stored yet. */
 export interface FreshOutput {
@@ -54,7 +55,7 @@ function outputJson(meta: Omit<CellOutput, 'result'>, resultJson: string | null)
 function fromRow(row: OutputRow): CachedOutput {
   const error = row.status === 'error' ? ((row.error as CellError | null) ?? { message: 'the run failed' }) : null;
   const meta = { key: row.key, status: row.status, error, engineVersion: row.engineVersion, durationMs: row.durationMs, computedAt: row.computedAt.toISOString() };
-  return { key: row.key, status: row.status, error, computedAt: meta.computedAt, durationMs: row.durationMs, json: outputJson(meta, row.status === 'ok' ? JSON.stringify(row.result ?? null) : null) };
+  return { key: row.key, status: row.status, error, computedAt: meta.computedAt, durationMs: row.durationMs, json: outputJson(meta, row.status === 'ok' ? (row.resultText ?? 'null') : null) };
 }
 
 /** Reading outputs by key, built once per database handle and prepared by name (a run reads them every time). */
@@ -65,7 +66,16 @@ function outputsQuery(tx: Tx) {
 }
 const buildOutputsQuery = (tx: Tx) =>
   tx
-    .select()
+    .select({
+      key: outputs.key,
+      kind: outputs.kind,
+      status: outputs.status,
+      resultText: sql<string | null>`${outputs.result}::text`,
+      error: outputs.error,
+      engineVersion: outputs.engineVersion,
+      durationMs: outputs.durationMs,
+      computedAt: outputs.computedAt,
+    })
     .from(outputs)
     .where(sql`${outputs.key} = any(${sql.placeholder('keys')}::text[])`)
     .prepare('outputs_by_key');
@@ -136,7 +146,7 @@ export class OutputStore {
         key,
         kind,
         status: computed.status,
-        result: computed.resultJson === null ? null : sql`${computed.resultJson}::jsonb`,
+        result: computed.resultJson === null ? null : sql`${computed.resultJson}::json`,
         error: computed.error,
         engineVersion,
         durationMs,

@@ -37,14 +37,14 @@ const q = (c: { name: string }) => `"${c.name}"`;
 
 /**
  * What storeAndMark runs, as one prepared statement: the fresh outputs ($1, rows for
- * jsonb_to_recordset) stored once by key, the draft's cells marked with their new keys ($2) merged in
+ * json_to_recordset, so each result goes into its json column as the text it is) stored once by key, the draft's cells marked with their new keys ($2) merged in
  * the database as they are now, and the run's audit event, all or nothing. Parameters: $3 the branch,
  * $4 the actor, $5 the project, $6 the audit detail.
  */
 const STORE_AND_MARK = `
   with incoming as (
-    select * from jsonb_to_recordset($1::jsonb)
-      as o(key text, kind text, status text, result jsonb, error jsonb, engine_version text, duration_ms integer)
+    select * from json_to_recordset($1::json)
+      as o(key text, kind text, status text, result json, error jsonb, engine_version text, duration_ms integer)
   ), stored as (
     insert into "${getTableName(outputs)}" (${[outputs.key, outputs.kind, outputs.status, outputs.result, outputs.error, outputs.engineVersion, outputs.durationMs].map(q).join(', ')})
     select key, kind, status, result, error, engine_version, duration_ms from incoming
