@@ -89,6 +89,42 @@ describe('pressure table reader', () => {
   });
 });
 
+describe('pressure table reader: plain lines read without regular expressions', () => {
+  // The reader's grammar, as its regular expressions state it (pressure-table.ts before the plain-line
+  // path): fields split at runs of white space or at a comma, semicolon or tab; a number is
+  // [+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)? read by Number with d as e.
+  const SEPARATOR = /\s*[,;\t]\s*|\s+/;
+  const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eEdD][+-]?\d+)?$/;
+  const byGrammar = (field: string) => (NUMBER.test(field) ? Number(field.replace(/[dD]/, 'e')) : NaN);
+
+  it('reads every line of digits, points, signs, e, spaces and tabs as the grammar does', () => {
+    let seed = 42;
+    const next = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const pieces = ['0', '1', '7', '.', '-', '+', 'e', 'E', '12', '0.5', '-0.25', '1e-3', '2E+5', '.5', '5.', '3e', 'e5', '1..2', '--1', '+.', '1e+', '.e1'];
+    const separators = [' ', '  ', '\t', ' \t ', '\t\t'];
+    const lines: string[] = [];
+    for (let i = 0; i < 4000; i++) {
+      const count = next() < 0.8 ? 3 : next() < 0.5 ? 2 : 4;
+      const fields = Array.from({ length: count }, () => Array.from({ length: next() < 0.8 ? 1 : 2 }, () => pieces[Math.floor(next() * pieces.length)]).join(''));
+      lines.push(fields.map((f, k) => (k === 0 ? f : separators[Math.floor(next() * separators.length)] + f)).join(''));
+    }
+    const parsed = parsePressureTable(['x y cp', ...lines].join('\n'), { maxProblems: 10_000 });
+    const expectedRows: { line: number; x: number; y: number; cp: number }[] = [];
+    const expectedProblemLines: number[] = [];
+    lines.forEach((content, i) => {
+      const values = content.split(SEPARATOR).map(byGrammar);
+      if (values.length === 3 && values.every(Number.isFinite)) expectedRows.push({ line: i + 2, x: values[0]!, y: values[1]!, cp: values[2]! });
+      else expectedProblemLines.push(i + 2);
+    });
+    expect(expectedRows.length).toBeGreaterThan(100);
+    expect(parsed.ok).toBe(false);
+    if (parsed.ok) return;
+    expect(parsed.problems.map((p) => p.line)).toEqual(expectedProblemLines);
+    const good = parsePressureTable(['x y cp', ...expectedRows.map((r) => lines[r.line - 2])].join('\n'));
+    expect(rows(good).map((r) => [r.x, r.y, r.cp])).toEqual(expectedRows.map((r) => [r.x, r.y, r.cp]));
+  });
+});
+
 describe('keptPressureTable: the engine reads a table it has just read without parsing it again', () => {
   const table = (label: string) => [`# ${label}`, 'x y cp', '1 0.001 0.1', '0.5 0.06 -0.4', '0 0 1', '0.5 -0.05 -0.2', '1 -0.001 0.1'].join('\n');
 

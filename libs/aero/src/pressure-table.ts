@@ -85,10 +85,81 @@ function columnOf(name: string): Column | null {
 
 function parseNumber(text: string, decimalComma = false): number {
   if (decimalComma && DECIMAL_COMMA_NUMBER.test(text)) return Number(text.replace(',', '.'));
+  // Most numbers are plain (no Fortran exponent): read without the two regular expressions.
+  if (isPlainNumber(text)) return Number(text);
   return NUMBER.test(text) ? Number(text.replace(/[dD]/, 'e')) : NaN;
 }
 
+const DIGIT_0 = 48;
+const DIGIT_9 = 57;
+const PLUS = 43;
+const MINUS = 45;
+const POINT = 46;
+const LOWER_E = 101;
+const UPPER_E = 69;
+const SPACE = 32;
+const TAB = 9;
+
+/** Whether `text` is a NUMBER written with `e` or `E` (or no) exponent: [+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?. */
+function isPlainNumber(text: string): boolean {
+  const n = text.length;
+  let i = 0;
+  let c = text.charCodeAt(0);
+  if (c === PLUS || c === MINUS) c = text.charCodeAt(++i);
+  let whole = 0;
+  while (c >= DIGIT_0 && c <= DIGIT_9) {
+    whole++;
+    c = text.charCodeAt(++i);
+  }
+  let fraction = 0;
+  if (c === POINT) {
+    c = text.charCodeAt(++i);
+    while (c >= DIGIT_0 && c <= DIGIT_9) {
+      fraction++;
+      c = text.charCodeAt(++i);
+    }
+  } else if (whole === 0) return false;
+  if (whole === 0 && fraction === 0) return false;
+  if (c === LOWER_E || c === UPPER_E) {
+    c = text.charCodeAt(++i);
+    if (c === PLUS || c === MINUS) c = text.charCodeAt(++i);
+    let exponent = 0;
+    while (c >= DIGIT_0 && c <= DIGIT_9) {
+      exponent++;
+      c = text.charCodeAt(++i);
+    }
+    if (exponent === 0) return false;
+  }
+  return i === n;
+}
+
+/**
+ * The fields of a trimmed line of numbers-like characters (digits, point, signs, e and E) separated by
+ * spaces and tabs, as FIELD_SEPARATOR splits it (each run of spaces and tabs is one separator); null
+ * for any other line, which splitFields reads.
+ */
+function plainFields(content: string): string[] | null {
+  const fields: string[] = [];
+  let start = 0;
+  const n = content.length;
+  for (let i = 0; i < n; i++) {
+    const c = content.charCodeAt(i);
+    if (c === SPACE || c === TAB) {
+      if (start < i) fields.push(content.slice(start, i));
+      start = i + 1;
+    } else if (!((c >= DIGIT_0 && c <= DIGIT_9) || c === POINT || c === MINUS || c === PLUS || c === LOWER_E || c === UPPER_E)) {
+      return null;
+    }
+  }
+  fields.push(content.slice(start));
+  return fields;
+}
+
 function splitFields(content: string, decimalComma = false): string[] {
+  if (!decimalComma) {
+    const plain = plainFields(content);
+    if (plain !== null) return plain;
+  }
   let trimmed = content.trim();
   // A separator at the end of a row (spreadsheet exports) does not open a field.
   if ((decimalComma ? /;$/ : /[,;]$/).test(trimmed)) trimmed = trimmed.slice(0, -1).trimEnd();
@@ -104,7 +175,9 @@ export function parsePressureTable(text: string, options: PressureTableOptions =
   const maxProblems = options.maxProblems ?? 20;
   const problems: PressureTableProblem[] = [];
   const rows: PressureTableRow[] = [];
-  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+  const unmarked = text.replace(/^\uFEFF/, '');
+  // Without a carriage return the three line ends are one.
+  const lines = unmarked.includes('\r') ? unmarked.split(/\r\n|\r|\n/) : unmarked.split('\n');
   const decimalComma = usesDecimalComma(lines);
   const read = (field: string) => parseNumber(field, decimalComma);
   // Problems past the listed ones are only counted.
