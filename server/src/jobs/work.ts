@@ -26,11 +26,13 @@ export interface JobWork {
 
 /**
  * Sweep cases per queue job: about a tenth of a second of computing for a 2 × 300-station analysis
- * (0.8-1 ms a case), so a lost worker costs little and a sweep of 1,000 still shows ten steps of
- * progress, while the queue's round trips for a chunk (five, about 0.5 ms of a worker's CPU each) are
- * spread over enough cases (npm run bench -- jobs).
+ * (0.3-0.4 ms a case since the engine keeps a table's surfaces prepared), so a lost worker costs
+ * little and the progress bar still moves every tenth of a second, while what a chunk costs besides its
+ * cases (five round trips, its JSON and the collector's work around them) is spread over enough cases:
+ * at 100 a chunk the job's own code was +40 to +84 % of the engine's time, at 300 +35 to +37 %
+ * (npm run bench -- jobs, the drift-free figure, load 8-15).
  */
-export const CASES_PER_CHUNK = 100;
+export const CASES_PER_CHUNK = 300;
 
 export function planWork(order: readonly string[], plans: Map<string, CellPlan>, stored: ReadonlySet<string>, draftOrder: readonly string[]): JobWork[] {
   return order.map((cellId) => {
