@@ -33,6 +33,7 @@ import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
 import { openapiRouter } from './openapi/routes';
 import { bearerAuth } from './tokens/bearer';
+import { compressedFiles } from './web-static/compressed-files';
 import { STUDY_PAGE, studyIndexHtml } from './web-static/study-preload';
 
 export interface AppDeps {
@@ -95,11 +96,13 @@ export function createApp(deps: AppDeps): Express {
 
   // In production the built Angular app is served from the same origin as the API, ahead of the body
   // parsers, the session and the user: a file of the app needs neither, and a cold open fetches dozens.
-  // Sent compressed (gzip or Brotli, on the thread pool); files whose names carry their content hash
+  // Sent compressed (gzip or Brotli, on the thread pool; a content-hashed file once, then from memory:
+  // web-static/compressed-files.ts); files whose names carry their content hash
   // never change, so browsers keep them a year without asking again; index.html is asked for every time.
   const web = path.resolve(config.WEB_DIST);
   if (existsSync(path.join(web, 'index.html'))) {
     const appFiles = express.Router();
+    appFiles.use(compressedFiles(web));
     appFiles.use(compression());
     appFiles.use(
       express.static(web, {

@@ -51,6 +51,29 @@ describe('the web app’s files', () => {
     expect(res.headers['content-security-policy']).toContain("script-src 'self'");
   });
 
+  it('compresses a content-hashed file once and then sends it from memory, the same bytes and headers', async () => {
+    const first = await request(t.app).get('/chunk-2LGABYPY.js').set('accept-encoding', 'br, gzip').expect(200);
+    // Until the stored copy is ready the file goes out compressed on the fly; after that from memory.
+    let stored = first;
+    for (let tries = 0; tries < 50; tries++) {
+      stored = await request(t.app).get('/chunk-2LGABYPY.js').set('accept-encoding', 'br, gzip').expect(200);
+      if (stored.headers['transfer-encoding'] === undefined) break;
+      await new Promise((resolve) => setTimeout(resolve, 20));
+    }
+    expect(stored.headers['transfer-encoding']).toBeUndefined();
+    for (const res of [first, stored]) {
+      expect(res.headers['content-encoding']).toBe('br');
+      expect(res.headers['content-type']).toMatch(/^text\/javascript|^application\/javascript/);
+      expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+      expect(res.headers['vary']).toMatch(/accept-encoding/i);
+      expect(res.text).toBe(script);
+      expect(res.headers['set-cookie']).toBeUndefined();
+    }
+    const gzipped = await request(t.app).get('/chunk-2LGABYPY.js').set('accept-encoding', 'gzip').expect(200);
+    expect(gzipped.headers['content-encoding']).toBe('gzip');
+    expect(gzipped.text).toBe(script);
+  });
+
   it('answers an address of the app with index.html, asked for again every time', async () => {
     const res = await request(t.app).get('/studies/00000000-0000-4000-8000-000000000001').expect(200);
     expect(res.headers['cache-control']).toBe('no-cache');
