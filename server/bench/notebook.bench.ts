@@ -587,7 +587,9 @@ if (isMainThread) {
   const leastRatio = least.run.p95 / me20.p95;
   say(
     `  limit, same floor: the least server's run p95 ${least.run.p95.toFixed(1)} ms = ${leastRatio.toFixed(2)}× (floor taken after it: p95 ${leastFloor.p95.toFixed(1)} ms); ` +
-      (ratio > 1 ? `of the run's p95 above the floor, ${((100 * Math.max(0, leastRatio - 1)) / (ratio - 1)).toFixed(0)} % is the machine's (engine, HTTP, clients on these cores), ${((100 * Math.max(0, ratio - leastRatio)) / (ratio - 1)).toFixed(0)} % this server's own` : 'the run is no slower than the floor'),
+      (ratio > 1 && leastRatio <= ratio
+        ? `of the run's p95 above the floor, ${((100 * (Math.max(1, leastRatio) - 1)) / (ratio - 1)).toFixed(0)} % is the machine's (engine, HTTP, clients on these cores), ${((100 * (ratio - Math.max(1, leastRatio))) / (ratio - 1)).toFixed(0)} % this server's own`
+        : 'no share can be read from this run: the run was no slower than the floor or than the least server (the load changed under it)'),
   );
   say(`server main-thread CPU per run at 20 clients: ${at20.cpuPerRun.toFixed(2)} ms: target ≤ 2 ms: ${at20.cpuPerRun <= 2 ? 'met' : 'NOT met'}`);
   for (const client of clients) client.events?.close();
