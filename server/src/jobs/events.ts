@@ -5,8 +5,8 @@ import type { Logger } from '../logger';
 import { JOB_CHANNEL, type JobNotice } from './store';
 
 /**
- * An app server's ear on the job channel: one connection that LISTENs for what workers notify and
- * hands each notice to the pages following that branch. When the connection is lost (the database
+ * An ear on the job channel: one connection that LISTENs for what workers and app servers notify. An
+ * app server hands each notice to the pages following that branch; a job worker wakes to it. When the connection is lost (the database
  * restarted) it connects again, and then asks every follower to resend the true state, since notices
  * sent meanwhile are gone.
  */
@@ -33,6 +33,7 @@ export class JobEvents {
         try {
           const notice = JSON.parse(msg.payload ?? '') as JobNotice;
           this.emitter.emit(`branch:${notice.branchId}`, notice);
+          this.emitter.emit('notice', notice);
         } catch {
           // Not ours.
         }
@@ -68,6 +69,11 @@ export class JobEvents {
       this.emitter.off(`branch:${branchId}`, onNotice);
       this.emitter.off('resync', onResync);
     };
+  }
+
+  /** Hears every notice, of every branch (a job worker wakes to it when work may have been queued). */
+  onNotice(listener: (notice: JobNotice) => void): void {
+    this.emitter.on('notice', listener);
   }
 
   async close(): Promise<void> {

@@ -42,6 +42,8 @@ export class JobRunner {
   private stopping = false;
   private readonly loops: Promise<void>[] = [];
   private readonly wakers = new Set<() => void>();
+  /** Slots waiting for work, woken early when a notice says a job may have been queued. */
+  private readonly idleWakers = new Set<() => void>();
   private readonly outputs = new OutputStore(32 * 1024 * 1024);
   /** Job rows by id (their work does not change), so a chunk does not read a large plan again. */
   private readonly rows = new Map<string, RunJobRow>();
@@ -73,13 +75,24 @@ export class JobRunner {
     await Promise.all(this.loops);
   }
 
-  private async pause(ms: number): Promise<void> {
+  private async pause(ms: number, idle = false): Promise<void> {
     if (this.stopping) return;
     const ac = new AbortController();
     const wake = () => ac.abort();
     this.wakers.add(wake);
+    if (idle) this.idleWakers.add(wake);
     await sleep(ms, undefined, { signal: ac.signal }).catch(() => undefined);
     this.wakers.delete(wake);
+    this.idleWakers.delete(wake);
+  }
+
+  /**
+   * Work may have been queued (a run was asked for, or a job fanned out its chunks): idle slots ask the
+   * queue now instead of at their next poll, which backs off to 2 s. A notice that brings no work costs
+   * an idle slot one fetch.
+   */
+  wake(): void {
+    for (const wake of this.idleWakers) wake();
   }
 
   /** Does `fn` again while the database is away, until it answers or the runner stops. */
@@ -108,7 +121,7 @@ export class JobRunner {
         continue;
       }
       if (!job) {
-        await this.pause(Math.min((this.options.pollMs ?? 500) * 2 ** Math.min(idle++, 2), 2000));
+        await this.pause(Math.min((this.options.pollMs ?? 500) * 2 ** Math.min(idle++, 2), 2000), true);
         continue;
       }
       idle = 0;
@@ -182,8 +195,12 @@ export class JobRunner {
       }
       await this.store(row, w, await this.compute.cell(w.task!));
     }
-    // Sent again after a retry these are the same ids, which the queue keeps once.
-    if (chunks.length) await this.boss.insert(chunks);
+    // Sent again after a retry these are the same ids, which the queue keeps once. The notice wakes idle
+    // workers to take them.
+    if (chunks.length) {
+      await this.boss.insert(chunks);
+      await notifyJob(this.db, { type: 'job', jobId, branchId: row.branchId });
+    }
     await this.finishIfDone(row);
   }
 

@@ -57,7 +57,7 @@ export interface JobWorker {
   stop(): Promise<void>;
 }
 
-/** A worker's part: compute threads, the runner fetching work, and the scheduled clean-up. */
+/** A worker's part: compute threads, the runner fetching work (woken by the job channel), and the scheduled clean-up. */
 export async function startJobWorker(config: Config, database: Database, logger: Logger, options: { threads?: number } = {}): Promise<JobWorker> {
   const timing = timingOf(config);
   const boss = createBoss(database.pool, 'worker', timing);
@@ -67,11 +67,18 @@ export async function startJobWorker(config: Config, database: Database, logger:
   const runner = new JobRunner(database, boss, compute, logger, {
     retention: { outputAgeDays: config.RETENTION_OUTPUT_DAYS, mailAgeDays: config.RETENTION_MAIL_DAYS },
   });
+  // Runs asked for and chunks fanned out are notified on the job channel: idle slots take them at once.
+  const events = new JobEvents(config.DATABASE_URL, logger);
+  events.onNotice((notice) => {
+    if (notice.type === 'job') runner.wake();
+  });
+  events.start();
   runner.start();
   return {
     runner,
     compute,
     async stop() {
+      await events.close();
       await runner.stop();
       await boss.stop({ graceful: false, close: false, wait: false }).catch(() => undefined);
       await compute.close();
