@@ -34,7 +34,6 @@ import { methodsRouter } from './methods/routes';
 import { openapiRouter } from './openapi/routes';
 import { bearerAuth } from './tokens/bearer';
 import { compressedFiles } from './web-static/compressed-files';
-import { STUDY_PAGE, studyIndexHtml } from './web-static/study-preload';
 
 export interface AppDeps {
   config: Config;
@@ -110,13 +109,9 @@ export function createApp(deps: AppDeps): Express {
         setHeaders: (res, file) => res.setHeader('cache-control', HASHED_FILE.test(path.basename(file)) ? 'public, max-age=31536000, immutable' : 'no-cache'),
       }),
     );
-    // A study's address names the notebook's code up front (web-static/study-preload.ts).
-    const studyIndex = studyIndexHtml(web);
-    appFiles.get(/^\/(?!api\/|auth\/).*/, (req, res) => {
+    appFiles.get(/^\/(?!api\/|auth\/).*/, (_req, res) => {
       res.setHeader('cache-control', 'no-cache');
-      const html = STUDY_PAGE.test(req.path) ? studyIndex() : null;
-      if (html !== null) res.type('html').send(html);
-      else res.sendFile(path.join(web, 'index.html'));
+      res.sendFile(path.join(web, 'index.html'));
     });
     // The API, its event streams and the sign-in routes never pass through here (nor the compression).
     app.use((req, res, next) => (/^\/(api|auth)(\/|$)/.test(req.path) ? next() : appFiles(req, res, next)));

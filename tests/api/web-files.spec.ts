@@ -1,4 +1,4 @@
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
@@ -17,25 +17,9 @@ let t: TestApp;
 const script = `export const laminote = ${JSON.stringify('x'.repeat(4000))};\n`;
 
 beforeAll(async () => {
-  // As the production build lays it out: the app in browser/, the build's record of its chunks beside it.
-  const dist = mkdtempSync(path.join(tmpdir(), 'laminote-web-'));
-  const web = path.join(dist, 'browser');
-  mkdirSync(web);
-  writeFileSync(path.join(web, 'index.html'), '<!doctype html><head><title>Laminote</title><link rel="modulepreload" href="chunk-SHAREDAA.js"></head><body><lam-root></lam-root><script src="main-AAAAAAAA.js" type="module"></script></body>');
+  const web = mkdtempSync(path.join(tmpdir(), 'laminote-web-'));
+  writeFileSync(path.join(web, 'index.html'), '<!doctype html><title>Laminote</title><lam-root></lam-root>');
   writeFileSync(path.join(web, 'chunk-2LGABYPY.js'), script);
-  const stats = {
-    outputs: {
-      'main-AAAAAAAA.js': { entryPoint: 'apps/web/src/main.ts', imports: [{ path: 'chunk-SHAREDAA.js', kind: 'import-statement' }, { path: 'chunk-NOTEBOOK.js', kind: 'dynamic-import' }] },
-      'chunk-SHAREDAA.js': { imports: [] },
-      'chunk-NOTEBOOK.js': { entryPoint: 'apps/web/src/app/notebook/notebook-page.ts', imports: [{ path: 'chunk-SHAREDAA.js', kind: 'import-statement' }, { path: 'chunk-DEEPERAA.js', kind: 'import-statement' }, { path: 'chunk-PLOTTING.js', kind: 'dynamic-import' }] },
-      'chunk-DEEPERAA.js': { imports: [{ path: 'chunk-DEEPEST1.js', kind: 'import-statement' }] },
-      'chunk-DEEPEST1.js': { imports: [] },
-      'chunk-FLOWBODY.js': { entryPoint: 'apps/web/src/app/notebook/flow/flow-cell.ts', imports: [{ path: 'chunk-DEEPEST1.js', kind: 'import-statement' }] },
-      'chunk-PLOTTING.js': { entryPoint: 'apps/web/src/app/shared/plot.ts', imports: [] },
-      'chunk-PROJECTS.js': { entryPoint: 'apps/web/src/app/projects/project-list.ts', imports: [] },
-    },
-  };
-  writeFileSync(path.join(dist, 'stats.json'), JSON.stringify(stats));
   t = await createTestApp({ WEB_DIST: web }, { worker: false });
 });
 afterAll(async () => t?.close());
@@ -79,21 +63,6 @@ describe('the web app’s files', () => {
     expect(res.headers['cache-control']).toBe('no-cache');
     expect(res.text).toContain('<lam-root>');
     expect(res.headers['set-cookie']).toBeUndefined();
-  });
-
-  it('names the notebook’s code on a study’s address, so it comes in one round, and only there', async () => {
-    const study = await request(t.app).get('/studies/00000000-0000-4000-8000-000000000001').expect(200);
-    expect(study.headers['content-type']).toMatch(/^text\/html/);
-    const preloaded = [...study.text.matchAll(/<link rel="modulepreload" href="([^"]+)" fetchpriority="low">/g)].map((m) => m[1]);
-    // The page, every level of its static imports and each cell body; not the plots (imported when
-    // drawn), not another page, not what index.html already names.
-    expect(preloaded.sort()).toEqual(['chunk-DEEPERAA.js', 'chunk-DEEPEST1.js', 'chunk-FLOWBODY.js', 'chunk-NOTEBOOK.js']);
-    expect(study.text.split('chunk-SHAREDAA.js').length - 1).toBe(1);
-    // After the app's entry, so the entry and the first reads are not queued behind them.
-    expect(study.text.indexOf('fetchpriority="low"')).toBeGreaterThan(study.text.indexOf('main-AAAAAAAA.js'));
-    expect(study.text).toContain('<lam-root>');
-    const list = await request(t.app).get('/studies').expect(200);
-    expect(list.text).not.toContain('chunk-NOTEBOOK.js');
   });
 
   it('leaves the API alone: not compressed here, unknown routes still 404 problem+json', async () => {
