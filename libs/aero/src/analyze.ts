@@ -43,7 +43,7 @@ import { THWAITES_SEPARATION_LAMBDA, thwaitesMarch } from './thwaites';
  */
 
 /** Bumped whenever a change alters the numbers the engine returns (outputs are cached on it). */
-export const ENGINE_VERSION = '1.2.6';
+export const ENGINE_VERSION = '1.2.7';
 
 export { ENGINE_CAUTION } from './caution';
 

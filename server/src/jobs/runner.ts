@@ -1,7 +1,7 @@
 import { setTimeout as sleep } from 'node:timers/promises';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type PgBoss from 'pg-boss';
-import { assembleSweep, ENGINE_VERSION, resultJson, sweepValues, toCellError, upstreamFailedError, type ComputedOutput, type SweepCase } from '@laminote/aero';
+import { assembleSweep, ENGINE_VERSION, gatherSweepWarnings, resultJson, sweepCaseCount, sweepValues, toCellError, upstreamFailedError, type ComputedOutput, type SweepCase, type SweepWarning } from '@laminote/aero';
 import { CELL_KIND_LABELS, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs, type SweepResult } from '@laminote/contracts';
 import { audit } from '../audit/audit';
 import type { Database } from '../db/client';
@@ -282,7 +282,8 @@ export class JobRunner {
 
   /**
    * The sweep's result as assembleSweep gives it, written from the stored cases' text: PostgreSQL joins
-   * the steps in order and gathers the warnings (each once, in the order the cases first give them), so
+   * the steps in order and gathers the warnings (each once, in the order the cases first give them, with
+   * the cases that give it, for gatherSweepWarnings to say alike ones once), so
    * a thousand cases are not read back as objects and written out again. The cases' numbers are rounded
    * already; the values the sweep runs over are rounded here as the engine rounds results. When every
    * step failed, assembleSweep itself says so (it throws the sweep's error).
@@ -291,8 +292,8 @@ export class JobRunner {
     const { rows } = await this.database.pool.query<{ steps: string; failed: boolean; warnings: string }>(
       `select string_agg((step -> 'step')::text, ',' order by index) as steps,
               bool_and(step -> 'step' ->> 'status' = 'error') as failed,
-              (select coalesce(json_agg(seen.warning order by seen.first), '[]')::text
-                 from (select w.warning, min(array[c.index::bigint, w.at]) as first
+              (select coalesce(json_agg(json_build_object('warning', seen.warning, 'steps', seen.steps) order by seen.first), '[]')::text
+                 from (select w.warning, min(array[c.index::bigint, w.at]) as first, array_agg(distinct c.index) as steps
                          from sweep_cases c, jsonb_array_elements_text(c.step -> 'warnings') with ordinality as w(warning, at)
                         where c.sweep_key = $1
                         group by w.warning) as seen) as warnings
@@ -310,7 +311,8 @@ export class JobRunner {
       values: sweepValues(sw),
       ...(sw.second ? { second: { parameter: sw.second.parameter, values: sweepValues(sw.second) } } : {}),
     };
-    return `${resultJson(head).slice(0, -1)},"steps":[${steps}],"warnings":${warnings}}`;
+    const gathered = gatherSweepWarnings(JSON.parse(warnings) as SweepWarning[], sweepCaseCount(sw));
+    return `${resultJson(head).slice(0, -1)},"steps":[${steps}],"warnings":${JSON.stringify(gathered)}}`;
   }
 
   /** When every output of the job is stored: the draft shows them all, the job is completed with its reports. */

@@ -8,5 +8,5 @@ export type { ResultTable, TableValue } from './result-table';
 export { engineFlow } from './flow';
 export { planCells, sourceOf, type CellPlan, type PlannableCell } from './plan';
 export { computeStudy } from './study';
-export { assembleSweep, computeSweepCase, computeSweepCases, sweepCaseCount, sweepValues, type SweepCase } from './sweep';
+export { assembleSweep, computeSweepCase, computeSweepCases, gatherSweepWarnings, sweepCaseCount, sweepValues, type SweepCase, type SweepWarning } from './sweep';
 export type { CellSource, Upstream } from './types';

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { computeCell } from './compute';
 import { joukowskiLoop } from '../../test/joukowski';
 import { resultJson } from './result-json';
-import { assembleSweep, computeSweepCase, computeSweepCases, sweepCaseCount } from './sweep';
+import { assembleSweep, computeSweepCase, computeSweepCases, gatherSweepWarnings, sweepCaseCount } from './sweep';
 import type { CellSource } from './types';
 
 const inputs = <K extends CellKind>(kind: K, given: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
@@ -113,5 +113,38 @@ describe('a sweep over a grid of two parameters', () => {
     const twice = CELL_SCHEMAS.sweep.inputs.safeParse({ analysisCellId: ID, parameter: 'mach', from: 0, to: 0.5, steps: 3, second: { parameter: 'mach', from: 0.1, to: 0.2, steps: 3 } });
     expect(twice.error?.issues.map((i) => i.path.join('.'))).toEqual(['second.parameter']);
     expect(CELL_SCHEMAS.sweep.inputs.safeParse({ analysisCellId: ID, parameter: 'reynolds', from: 1e6, to: 2e7, steps: 2000 }).success).toBe(true);
+  });
+});
+
+describe("a sweep's warnings", () => {
+  it('says a warning that names each step\'s Mach number once, with the range and how many cases gave it', () => {
+    // 41 Mach numbers from 0 to 0.8: the engine warns of its compressible laminar layer from M 0.3 up
+    // (every step at 0.3 and above; the steps 0.02 apart carry float noise such as 0.30000000000000004).
+    const sw = inputs('sweep', { analysisCellId: ID, parameter: 'mach', from: 0, to: 0.8, steps: 41 });
+    const r = computeCell('sweep', sw, { analysisCellId: analysis });
+    const perStep = Array.from({ length: 41 }, (_, i) => computeSweepCase(sw, { analysisCellId: analysis }, i).warnings).flat();
+    const compressible = perStep.filter((w) => w.includes('computed compressible'));
+    expect(compressible.length).toBe(26); // steps 15..40
+    const said = r.warnings.filter((w) => w.includes('computed compressible'));
+    expect(said).toHaveLength(1);
+    expect(said[0]).toMatch(/^mach 0\.3–0\.8: the laminar layer is computed compressible; .* \(in 26 of 41 cases\)$/);
+    // Nothing else is lost: each other warning of any case is there as it was.
+    for (const w of new Set(perStep.filter((w) => !w.includes('computed compressible')))) expect(r.warnings).toContain(w);
+  });
+
+  it('keeps apart warnings alike but for their numbers when one case gives several (two table lines)', () => {
+    const lines = ['pressureTable line 12: x repeats', 'pressureTable line 40: x repeats'];
+    expect(gatherSweepWarnings(lines.map((warning) => ({ warning, steps: [0, 1, 2] })), 3)).toEqual(lines);
+    // …and gathers them when each comes from other cases, a long step value written to 4 digits.
+    expect(
+      gatherSweepWarnings(
+        [
+          { warning: 'upper: local Mach number up to 1.04 (supersonic pocket)', steps: [3] },
+          { warning: 'upper: local Mach number up to 1.2137745110934 (supersonic pocket)', steps: [4, 5] },
+          { warning: 'Re 3e6 is low', steps: [0, 1, 2, 3, 4, 5] },
+        ],
+        6,
+      ),
+    ).toEqual(['upper: local Mach number up to 1.04–1.214 (supersonic pocket) (in 3 of 6 cases)', 'Re 3e6 is low']);
   });
 });

@@ -128,8 +128,74 @@ export function assembleSweep(sw: SweepInputs, cases: readonly SweepCase[]): Swe
     values,
     ...(sw.second ? { second: { parameter: sw.second.parameter, values: sweepValues(sw.second) } } : {}),
     steps,
-    warnings: [...new Set(cases.flatMap((c) => c.warnings))],
+    warnings: gatherSweepWarnings(warningsByStep(cases), count),
   };
+}
+
+/** Each distinct warning of a sweep's cases, in the order the cases first give it, with the cases that give it. */
+function warningsByStep(cases: readonly SweepCase[]): SweepWarning[] {
+  const seen = new Map<string, number[]>();
+  cases.forEach((c, index) => {
+    for (const warning of new Set(c.warnings)) {
+      const steps = seen.get(warning);
+      if (steps) steps.push(index);
+      else seen.set(warning, [index]);
+    }
+  });
+  return [...seen].map(([warning, steps]) => ({ warning, steps }));
+}
+
+/** A distinct warning of a sweep and the cases (indices) that give it. */
+export interface SweepWarning {
+  warning: string;
+  steps: readonly number[];
+}
+
+/** A number as a warning writes it (a sign, digits, a fraction, an exponent). */
+const NUMBER_IN_TEXT = /-?\d+(?:\.\d+)?(?:e[+-]?\d+)?/gi;
+
+/**
+ * A sweep's warnings as its reader needs them: a warning that names the step's own value (a Mach
+ * number, a local Mach number, a Reynolds number) would otherwise come once per step, a thousand
+ * near-identical lines. Warnings alike but for their numbers, each from other cases than the rest, are
+ * said once, each number that varies as its range, with how many cases gave it: "mach 0.6–0.85: the
+ * laminar layer is computed compressible; … (in 1,200 of 2,000 cases)". Warnings alike that come from one
+ * case (two pressure-table lines) say different things and stay apart. Otherwise in the order first given.
+ */
+export function gatherSweepWarnings(seen: readonly SweepWarning[], cases: number): string[] {
+  const groups = new Map<string, SweepWarning[]>();
+  for (const w of seen) {
+    const shape = w.warning.replace(NUMBER_IN_TEXT, '#');
+    const group = groups.get(shape);
+    if (group) group.push(w);
+    else groups.set(shape, [w]);
+  }
+  const out: string[] = [];
+  for (const group of groups.values()) {
+    const steps = new Set(group.flatMap((w) => w.steps));
+    const apart = group.reduce((n, w) => n + w.steps.length, 0) === steps.size;
+    if (group.length === 1 || !apart) {
+      out.push(...group.map((w) => w.warning));
+      continue;
+    }
+    const numbers = group.map((w) => w.warning.match(NUMBER_IN_TEXT)!);
+    let slot = 0;
+    const text = group[0]!.warning.replace(NUMBER_IN_TEXT, (first) => {
+      const values = numbers.map((n) => n[slot]!);
+      slot += 1;
+      const low = values.reduce((a, b) => (Number(b) < Number(a) ? b : a));
+      const high = values.reduce((a, b) => (Number(b) > Number(a) ? b : a));
+      return Number(low) === Number(high) ? first : `${shortNumber(low)}–${shortNumber(high)}`;
+    });
+    out.push(`${text} (in ${steps.size.toLocaleString('en-US')} of ${cases.toLocaleString('en-US')} cases)`);
+  }
+  return out;
+}
+
+/** A number as written, or to 4 significant digits when it has more than 6 (a step's value 0.43141578…). */
+function shortNumber(text: string): string {
+  const digits = text.replace(/e.*$/i, '').replace(/[^\d]/g, '').replace(/^0+/, '').length;
+  return digits > 6 ? String(Number(Number(text).toPrecision(4))) : text;
 }
 
 /**
