@@ -81,14 +81,21 @@ afterAll(async () => {
 
 const parsed = <K extends CellKind>(kind: K, inputs: Record<string, unknown>) => CELL_SCHEMAS[kind].inputs.parse(inputs) as CellInputs[K];
 
-/** A 2 × 300-station Joukowski section (exact potential flow, N. E. Joukowski 1910) swept over `CASES` Reynolds numbers. */
+/**
+ * A 2 × 2,000-station Joukowski section (exact potential flow, N. E. Joukowski 1910) swept over `CASES`
+ * Reynolds numbers: about a millisecond a case, so a chunk of cases takes long enough that the worker is
+ * killed (or the database stopped) with most of the sweep still to do, however fast the machine; at
+ * 2 × 300 stations (0.3 ms a case since the engine's chunk entry) a quiet machine could finish the next
+ * chunks between the test's polls.
+ */
 async function longSweep(label: string) {
   const projects = await engineer.get('/api/projects').expect(200);
   const projectId = (projects.body as { id: string }[])[0]!.id;
   const study = await engineer.post(`/api/projects/${projectId}/studies`, { title: label }).expect(201);
   const branchId = (await engineer.get(`/api/studies/${study.body.id}/branches`).expect(200)).body[0].id as string;
-  const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 601);
-  const table = [`# ${label}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
+  const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 4001);
+  // Nine decimals: at six, points crowded at the cusp repeat one another (the table refuses them).
+  const table = [`# ${label}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(9)} ${loop.y[i]!.toFixed(9)} ${loop.cp[i]!.toFixed(9)}`)].join('\n');
   const ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID(), sweep: randomUUID() };
   const cells = [
     { cellId: ids.flow, kind: 'flow', inputs: { mode: 'reynolds', reynolds: 6e6, mach: 0, nCrit: 9 } },

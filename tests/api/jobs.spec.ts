@@ -39,7 +39,8 @@ afterAll(async () => {
 function joukowskiTable(points: number, label: string): string {
   const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, points);
   // The label (a comment line) makes each study's table its own, so no output is shared between tests.
-  return [`# ${label}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(6)} ${loop.y[i]!.toFixed(6)} ${loop.cp[i]!.toFixed(6)}`)].join('\n');
+  // Nine decimals: at six, the points a long table crowds at the cusp repeat one another (and are refused).
+  return [`# ${label}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(9)} ${loop.y[i]!.toFixed(9)} ${loop.cp[i]!.toFixed(9)}`)].join('\n');
 }
 
 /** A fresh study with a flow, a pressure, an analysis and a sweep over `sweep`. */
@@ -184,7 +185,8 @@ describe('runs as jobs', () => {
   });
 
   it('answers the job under way when the same run is asked for again', async () => {
-    const { branchId } = await sweepStudy({ parameter: 'reynolds', from: 2e6, to: 2e7, steps: 400 });
+    // 2 × 2,000 stations a case, so the job is still under way when the second run is asked for.
+    const { branchId } = await sweepStudy({ parameter: 'reynolds', from: 2e6, to: 2e7, steps: 400 }, 4001);
     const first = await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(202);
     const second = await as['lead']!.post(`/api/branches/${branchId}/run`, {}).expect(202);
     expect(second.body.jobId).toBe(first.body.jobId);
@@ -192,8 +194,9 @@ describe('runs as jobs', () => {
   });
 
   it('streams progress and landed outputs as server-sent events, starting with the true state', async () => {
-    // Long enough (about 2.5 s of computing) that progress is reported on the way, however fast the machine.
-    const { branchId, ids } = await sweepStudy({ parameter: 'reynolds', from: 2e6, to: 2e7, steps: 2000 });
+    // Long enough (2,000 cases of 2 × 2,000 stations, about 2 s of computing) that progress is reported on
+    // the way, however fast the machine.
+    const { branchId, ids } = await sweepStudy({ parameter: 'reynolds', from: 2e6, to: 2e7, steps: 2000 }, 4001);
     const following = followEvents(as['engineer']!, branchId, (events) => events.some((e) => e.type === 'job' && e.job.state === 'completed'), 110_000);
     // The stream has sent its first snapshot (no jobs yet) before the run starts.
     await new Promise((resolve) => setTimeout(resolve, 300));
@@ -214,7 +217,8 @@ describe('runs as jobs', () => {
   }, 120_000);
 
   it('cancels a long sweep: workers stop taking its cases, what landed stays and a later run goes on from there', async () => {
-    const { branchId, ids } = await sweepStudy({ parameter: 'reynolds', from: 2e6, to: 2e7, steps: 2000 });
+    // 2 × 2,000 stations a case (about 2 s for the sweep), so it is cancelled with most of it to do.
+    const { branchId, ids } = await sweepStudy({ parameter: 'reynolds', from: 2e6, to: 2e7, steps: 2000 }, 4001);
     const res = await as['engineer']!.post(`/api/branches/${branchId}/run`, {}).expect(202);
     const jobId = res.body.jobId as string;
     await waitForJob(as['engineer']!, jobId, { until: (j) => j.done > 60 });
