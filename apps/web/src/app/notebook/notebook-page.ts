@@ -28,7 +28,7 @@ import { RouterLink } from '@angular/router';
 import type { Branch, Draft, ProjectAccess, Study } from '@laminote/contracts';
 import type { CellKind } from '@laminote/contracts/cell-kinds';
 import { can } from '@laminote/contracts/access';
-import { debounceTime, forkJoin, map, switchMap, tap, throwError } from 'rxjs';
+import { debounceTime, forkJoin, map, switchMap, throwError } from 'rxjs';
 import { Auth } from '../core/auth';
 import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
@@ -220,19 +220,7 @@ export class NotebookPage {
       untracked(() => (branchId && follow ? this.jobs.follow(branchId) : this.jobs.stop()));
     });
     this.session.queued.pipe(takeUntilDestroyed()).subscribe((job) => this.jobs.add(job));
-    // The cells whose outputs landed since the last refresh, so they stop showing as computing.
-    const landed = new Set<string>();
-    this.jobs.outputs
-      .pipe(
-        tap(({ cellId }) => cellId && landed.add(cellId)),
-        debounceTime(250),
-        takeUntilDestroyed(),
-      )
-      .subscribe(() => {
-        const cellIds = [...landed];
-        landed.clear();
-        void this.session.refreshOutputs(cellIds);
-      });
+    this.jobs.outputs.pipe(debounceTime(250), takeUntilDestroyed()).subscribe(() => void this.session.refreshOutputs());
     effect(() => {
       const opened = this.opened();
       if (opened) this.title.setTitle(`${opened.study.title} · Laminote`);

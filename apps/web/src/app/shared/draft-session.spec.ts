@@ -85,20 +85,6 @@ describe('DraftSession, a run computed at once', () => {
     expect(session.cells()[0]!.title).toBe('Renamed by someone else');
   });
 
-  it('stops showing a cell as computing once its output has landed, while the rest of the run goes on', async () => {
-    const running = session.run();
-    await Promise.resolve();
-    expect([...session.running()]).toEqual([FLOW_ID, PRESSURE_ID, ANALYSIS_ID]);
-    // A job's worker stored the flow cell's output; the page reads the draft and names what landed.
-    const refreshed = session.refreshOutputs([FLOW_ID]);
-    http.expectOne({ method: 'GET', url: DRAFT_URL }).flush(opened());
-    await refreshed;
-    expect([...session.running()]).toEqual([PRESSURE_ID, ANALYSIS_ID]);
-    answer({ branchId: BRANCH_ID, studyId: opened().studyId, revision: 3, cells: [], ran: [] });
-    await running;
-    expect(session.running().size).toBe(0);
-  });
-
   it('shows why a cell was not computed, from what ran', async () => {
     const running = session.run([ANALYSIS_ID]);
     await Promise.resolve();

@@ -394,16 +394,13 @@ export class DraftSession {
 
   /**
    * Takes the outputs that have landed since (a job's worker stored them): the server's draft, as long
-   * as nobody else saved meanwhile (their save is for the autosave's conflict dialog to show). The cells
-   * named in `landed` are no longer being computed, though the rest of their job goes on: they stop
-   * saying "Computing…" (a study's light cells land long before its sweep ends).
+   * as nobody else saved meanwhile (their save is for the autosave's conflict dialog to show).
    */
-  async refreshOutputs(landed: readonly string[] = []): Promise<void> {
+  async refreshOutputs(): Promise<void> {
     const branchId = this.branchId;
     if (!branchId) return;
     const seq = this.editSeq;
     const draft = await firstValueFrom(this.api.draft(branchId)).catch(() => null);
-    if (landed.length > 0) this.runningSignal.update((running) => new Set([...running].filter((id) => !landed.includes(id))));
     if (!draft || draft.revision !== this.revisionSignal() || this.conflictSignal()) return;
     const clean = seq === this.editSeq && this.editSeq === this.savedSeq;
     this.acceptServerDraft(draft, { keepLocalCells: !clean });
