@@ -103,6 +103,13 @@ describe('a long sweep as a job, in the browser', () => {
     // A long sweep's table lists a spread of its steps; the plot has them all.
     await expect.poll(() => sweep.locator('table.quantities tbody tr').count()).toBeLessThanOrEqual(120);
     await sweep.getByText(/The table lists \d+ of the 2,000 steps/).waitFor();
+    // The steps from M 0.3 up each warn of the compressible laminar layer: said once, with the range of
+    // Mach numbers and how many cases gave it, in the screen's words (not 1,200 lines, one per step).
+    const compressible = sweep.locator('p.warning', { hasText: 'computed compressible' });
+    expect(await compressible.count()).toBe(1);
+    expect(await compressible.textContent()).toMatch(/^Mach number 0\.3\d*–0\.6: the laminar layer is computed compressible; .* \(in 1,\d{3} of 2,000 cases\)$/);
+    await compressible.scrollIntoViewIfNeeded();
+    await shot('jobs-4b-warnings');
     expect(problems).toEqual([]);
   }, 300_000);
 
