@@ -71,13 +71,17 @@ describe('a long sweep as a job, in the browser', () => {
     expect(await progressText()).toMatch(/Mach number envelope: [\d,]+ of 2,000 cases/);
     // The sweep cell carries its own bar with the cases done.
     await expect.poll(() => page.locator('lam-cell-progress').filter({ hasText: 'of 2,000 cases' }).count()).toBe(1);
+    // The flow cell's output landed first: it shows as computed while the sweep goes on, not "Computing…".
+    await expect.poll(async () => (await page.locator('lam-cell-frame[data-cell-title="Cruise, Re 6 million"]').getAttribute('class')) ?? '', { timeout: 10_000 }).toContain('lam-cell-state-current');
+    expect(await page.locator('lam-run-progress').count()).toBe(1);
     await shot('jobs-1-running');
 
     await page.getByRole('button', { name: 'Stop run' }).click();
     await page.locator('lam-run-progress').waitFor({ state: 'detached', timeout: 30_000 });
     // What it had computed is kept; the sweep has no output yet.
     await expect.poll(async () => (await page.locator('lam-cell-frame[data-cell-title="Free transition"]').getAttribute('class')) ?? '', { timeout: 15_000 }).toContain('lam-cell-state-current');
-    expect(await page.locator('lam-cell-frame[data-cell-title="Mach number envelope"]').getAttribute('class')).toContain('lam-cell-state-idle');
+    // (The analysis shows its output as soon as it lands, before the run has ended: wait for the sweep too.)
+    await expect.poll(async () => (await page.locator('lam-cell-frame[data-cell-title="Mach number envelope"]').getAttribute('class')) ?? '', { timeout: 15_000 }).toContain('lam-cell-state-idle');
     await shot('jobs-2-stopped');
   });
 

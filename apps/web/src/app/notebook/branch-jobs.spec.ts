@@ -50,6 +50,14 @@ describe('BranchJobs', () => {
     expect(jobs.cells().get(SWEEP)?.done).toBe(420);
   });
 
+  it('names the cells each job has computed, from the snapshot a page gets when it connects late', () => {
+    // The flow cell's output landed before the page's stream connected: no output notice, but the count.
+    events.next({ type: 'snapshot', jobs: [job(370)] });
+    expect([...(jobs.computedCells().get(job(0).jobId) ?? [])]).toEqual([FLOW]);
+    events.next({ type: 'job', job: job(1000, 'completed') });
+    expect([...(jobs.computedCells().get(job(0).jobId) ?? [])]).toEqual([FLOW, SWEEP]);
+  });
+
   it('never shows a count going back when events overtake one another', () => {
     events.next({ type: 'job', job: job(600) });
     events.next({ type: 'job', job: job(550) });

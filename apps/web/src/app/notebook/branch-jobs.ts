@@ -29,6 +29,17 @@ export class BranchJobs {
     return out;
   });
 
+  /**
+   * The cells each job has computed, by job id: their outputs are stored, though the rest of the job may
+   * still be under way. Read from the jobs' own counts, so a page that connected after an output landed
+   * (and so never heard of it) knows it from the first snapshot.
+   */
+  readonly computedCells = computed(() => {
+    const out = new Map<string, ReadonlySet<string>>();
+    for (const job of this.jobsSignal().values()) out.set(job.jobId, new Set(job.cells.filter((cell) => cell.done >= cell.total).map((cell) => cell.cellId)));
+    return out;
+  });
+
   constructor() {
     inject(DestroyRef).onDestroy(() => this.stop());
   }

@@ -221,6 +221,16 @@ export class NotebookPage {
     });
     this.session.queued.pipe(takeUntilDestroyed()).subscribe((job) => this.jobs.add(job));
     this.jobs.outputs.pipe(debounceTime(250), takeUntilDestroyed()).subscribe(() => void this.session.refreshOutputs());
+    // A cell this page runs stops saying "Computing…" once its job has stored its output, while the
+    // rest of the job goes on; the draft is read again to show that output.
+    const settling = new Set<string>();
+    effect(() => {
+      const computedCells = this.jobs.computedCells();
+      const landed = [...this.session.runJobs()].filter(([cellId, jobId]) => !settling.has(cellId) && computedCells.get(jobId)?.has(cellId)).map(([cellId]) => cellId);
+      if (landed.length === 0) return;
+      for (const cellId of landed) settling.add(cellId);
+      untracked(() => void this.session.refreshOutputs(landed).finally(() => landed.forEach((cellId) => settling.delete(cellId))));
+    });
     effect(() => {
       const opened = this.opened();
       if (opened) this.title.setTitle(`${opened.study.title} · Laminote`);

@@ -34,18 +34,21 @@ const report = (cellId: string, kind: DraftCell['kind'], overrides: Partial<Cell
   ...overrides,
 });
 
+/** A session on the opened draft, for a person who may edit and run. */
+function openSession(): { http: HttpTestingController; session: DraftSession } {
+  TestBed.configureTestingModule({ providers: [...provideTestApp(), DraftSession, { provide: AUTOSAVE_DELAY_MS, useValue: 5 }] });
+  const session = TestBed.inject(DraftSession);
+  session.open(BRANCH_ID, opened());
+  session.mayRun.set(true);
+  session.editable.set(true);
+  return { http: TestBed.inject(HttpTestingController), session };
+}
+
 describe('DraftSession, a run computed at once', () => {
   let http: HttpTestingController;
   let session: DraftSession;
 
-  beforeEach(() => {
-    TestBed.configureTestingModule({ providers: [...provideTestApp(), DraftSession, { provide: AUTOSAVE_DELAY_MS, useValue: 5 }] });
-    http = TestBed.inject(HttpTestingController);
-    session = TestBed.inject(DraftSession);
-    session.open(BRANCH_ID, opened());
-    session.mayRun.set(true);
-    session.editable.set(true);
-  });
+  beforeEach(() => ({ http, session } = openSession()));
 
   afterEach(() => http.verify());
 
@@ -98,5 +101,49 @@ describe('DraftSession, a run computed at once', () => {
     await running;
     expect(session.runProblems().get(ANALYSIS_ID)).toMatchObject({ title: 'Fix the inputs first', detail: 'flowCellId: names no flow cell', field: 'flowCellId' });
     expect(session.cells()[2]!.output!.key).toBe('o'.repeat(64));
+  });
+});
+
+describe('DraftSession, a run queued as a job', () => {
+  const JOB_ID = '11111111-2222-4333-8444-5555555555aa';
+  let http: HttpTestingController;
+  let session: DraftSession;
+
+  beforeEach(() => ({ http, session } = openSession()));
+
+  afterEach(() => http.verify());
+
+  it('stops showing a cell as computing once its output has landed, while the rest of the job goes on', async () => {
+    const job = {
+      jobId: JOB_ID,
+      branchId: BRANCH_ID,
+      studyId: opened().studyId,
+      state: 'running' as const,
+      done: 0,
+      total: 3,
+      cells: [FLOW_ID, PRESSURE_ID, ANALYSIS_ID].map((cellId) => ({ cellId, kind: 'flow', done: 0, total: 1 })),
+      createdAt: '2026-12-02T06:00:00.000Z',
+      finishedAt: null,
+      createdBy: null,
+    };
+    const running = session.run();
+    await Promise.resolve();
+    http.expectOne({ method: 'POST', url: RUN_URL }).flush({ jobId: JOB_ID, job }, { status: 202, statusText: 'Accepted' });
+    await new Promise((resolve) => setTimeout(resolve, 0));
+    expect([...session.running()]).toEqual([FLOW_ID, PRESSURE_ID, ANALYSIS_ID]);
+    expect([...session.runJobs()]).toEqual([FLOW_ID, PRESSURE_ID, ANALYSIS_ID].map((id) => [id, JOB_ID]));
+    // The job stored the flow cell's output; the page reads the draft and names what landed.
+    const refreshed = session.refreshOutputs([FLOW_ID]);
+    http.expectOne({ method: 'GET', url: DRAFT_URL }).flush(opened());
+    await refreshed;
+    expect([...session.running()]).toEqual([PRESSURE_ID, ANALYSIS_ID]);
+    expect([...session.runJobs().keys()]).toEqual([PRESSURE_ID, ANALYSIS_ID]);
+    // The job ends: the rest stop computing too.
+    http.expectOne({ method: 'GET', url: `/api/jobs/${JOB_ID}` }).flush({ ...job, state: 'completed', done: 3, finishedAt: '2026-12-02T06:01:00.000Z', ran: [] });
+    await new Promise((resolve) => setTimeout(resolve, 0));
+    http.expectOne({ method: 'GET', url: DRAFT_URL }).flush(opened());
+    await running;
+    expect(session.running().size).toBe(0);
+    expect(session.runJobs().size).toBe(0);
   });
 });

@@ -106,6 +106,7 @@ export class DraftSession {
   private readonly saveProblemSignal = signal<Problem | null>(null);
   private readonly conflictSignal = signal<DraftConflict | null>(null);
   private readonly runningSignal = signal<ReadonlySet<string>>(new Set());
+  private readonly runJobsSignal = signal<ReadonlyMap<string, string>>(new Map());
   private readonly runProblemsSignal = signal<ReadonlyMap<string, Problem>>(new Map());
   private readonly removedLocally = signal<RemovedCell[]>([]);
   private readonly revisionSignal = signal(0);
@@ -121,6 +122,8 @@ export class DraftSession {
   readonly saveProblem = this.saveProblemSignal.asReadonly();
   readonly conflict = this.conflictSignal.asReadonly();
   readonly running = this.runningSignal.asReadonly();
+  /** The job computing each running cell, once the server has queued it (cell id → job id). */
+  readonly runJobs = this.runJobsSignal.asReadonly();
   readonly runProblems = this.runProblemsSignal.asReadonly();
   readonly revision = this.revisionSignal.asReadonly();
   readonly studyRunning = computed(() => this.runningSignal().size > 0);
@@ -366,6 +369,7 @@ export class DraftSession {
       const result = await firstValueFrom(this.api.run(branchId, cellIds ? { cellIds } : {}));
       if ('jobId' in result) {
         // Queued: workers compute it; the page shows its progress meanwhile.
+        this.runJobsSignal.update((jobs) => new Map([...jobs, ...ids.map((id) => [id, result.jobId] as const)]));
         this.queuedJobs.next(result.job);
         const job = await this.jobs.finished(result.jobId);
         if (job.state === 'failed') throw { type: 'about:blank', title: 'The run failed', status: 500, detail: job.error } satisfies Problem;
@@ -388,25 +392,35 @@ export class DraftSession {
         return next;
       });
     } finally {
-      this.runningSignal.update((running) => new Set([...running].filter((id) => !ids.includes(id))));
+      this.settle(ids);
     }
   }
 
   /**
    * Takes the outputs that have landed since (a job's worker stored them): the server's draft, as long
-   * as nobody else saved meanwhile (their save is for the autosave's conflict dialog to show).
+   * as nobody else saved meanwhile (their save is for the autosave's conflict dialog to show). The cells
+   * named in `landed` have their outputs stored though the rest of their job goes on (a study's light
+   * cells land long before its sweep ends): once the draft is read they no longer say "Computing…".
    */
-  async refreshOutputs(): Promise<void> {
+  async refreshOutputs(landed: readonly string[] = []): Promise<void> {
     const branchId = this.branchId;
     if (!branchId) return;
     const seq = this.editSeq;
     const draft = await firstValueFrom(this.api.draft(branchId)).catch(() => null);
+    this.settle(landed);
     if (!draft || draft.revision !== this.revisionSignal() || this.conflictSignal()) return;
     const clean = seq === this.editSeq && this.editSeq === this.savedSeq;
     this.acceptServerDraft(draft, { keepLocalCells: !clean });
   }
 
   // ── Internals ────────────────────────────────────────────────────────────────────────────────
+
+  /** The cells are no longer being computed by this session's runs. */
+  private settle(cellIds: readonly string[]): void {
+    if (cellIds.length === 0) return;
+    this.runningSignal.update((running) => new Set([...running].filter((id) => !cellIds.includes(id))));
+    this.runJobsSignal.update((jobs) => new Map([...jobs].filter(([id]) => !cellIds.includes(id))));
+  }
 
   private indexOf(cellId: string): number {
     return this.cellsSignal().findIndex((cell) => cell.cellId === cellId);
