@@ -37,7 +37,11 @@ export function shownResult(cell: DraftCell): ShownResult | null {
           }
           <span class="computed">
             Computed <time class="lam-mono" [attr.datetime]="shown.output.computedAt">{{ shown.output.computedAt | date: 'yyyy-MM-dd HH:mm' }}</time>
-            in <span class="lam-mono">{{ shown.output.durationMs | number: '1.0-0' }} ms</span> · engine
+            @if (shown.output.durationMs < 1) {
+              in under <span class="lam-mono">1 ms</span> · engine
+            } @else {
+              in <span class="lam-mono">{{ shown.output.durationMs | number: '1.0-0' }} ms</span> · engine
+            }
             <span class="lam-mono">{{ shown.output.engineVersion }}</span>
           </span>
           <span class="spacer"></span>
