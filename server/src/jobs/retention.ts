@@ -26,9 +26,13 @@ export async function pruneRetained(tx: Tx, policy: RetentionPolicy): Promise<Pr
   const mailAge = sql`make_interval(secs => ${policy.mailAgeDays * 86400})`;
   const active = sql`run_jobs.state in ('queued', 'running')`;
   const outputs = await tx.execute(sql`
-    with referenced as (
-      select c ->> 'lastOutputKey' as key from drafts, jsonb_array_elements(drafts.cells || drafts.trash) c
-      union select c ->> 'lastGoodOutputKey' from drafts, jsonb_array_elements(drafts.cells || drafts.trash) c
+    with drafted as (
+      -- The output keys of the cells in a draft or in its trash (those of a cell in neither are left over).
+      select k.value as keys from drafts, jsonb_each(drafts.output_keys) k
+      where exists (select 1 from jsonb_array_elements(drafts.cells || drafts.trash) c where c ->> 'cellId' = k.key)
+    ), referenced as (
+      select keys ->> 'last' as key from drafted
+      union select keys ->> 'good' from drafted
       union select output_key from version_cells
       union select w ->> 'key' from run_jobs, jsonb_array_elements(run_jobs.work) w where ${active}
     )

@@ -6,6 +6,7 @@ import { branches, cells, drafts } from '../db/schema';
 import type { DemoStudyFiller } from '../seed/demo';
 import { MAIN_BRANCH } from '../studies/service';
 import type { StoredCell } from './plan';
+import { splitOutputKeys } from './draft-keys';
 
 /**
  * The notebook of the seeded demo study: invented data for the fictional Tamsk Aerodynamics Larkspur
@@ -28,10 +29,11 @@ async function writeDemoDraft(tx: Parameters<DemoStudyFiller>[0], studyId: strin
   const [branch] = await tx.select().from(branches).where(and(eq(branches.studyId, studyId), eq(branches.name, MAIN_BRANCH)));
   if (!branch) return;
   await tx.insert(cells).values(stack.map((c) => ({ id: c.cellId, studyId, kind: c.kind, createdBy: authorId })));
+  const written = splitOutputKeys(stack);
   await tx
     .insert(drafts)
-    .values({ branchId: branch.id, revision: 1, cells: stack, updatedBy: authorId })
-    .onConflictDoUpdate({ target: drafts.branchId, set: { revision: 1, cells: stack, updatedBy: authorId } });
+    .values({ branchId: branch.id, revision: 1, cells: written.cells, outputKeys: written.outputKeys, updatedBy: authorId })
+    .onConflictDoUpdate({ target: drafts.branchId, set: { revision: 1, cells: written.cells, outputKeys: written.outputKeys, updatedBy: authorId } });
 }
 
 export const fillDemoNotebook: DemoStudyFiller = async (tx, { studyId, authorId }) => {

@@ -23,6 +23,7 @@ import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import type { BranchContext } from '../access/branch';
 import { freshOutputsJson, OutputStore, type CachedOutput, type FreshOutput } from './outputs';
+import { storedCells, storedTrash, splitOutputKeys } from './draft-keys';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 
 /** The places in a run, first to last: the cells of one place run together, after those before it. */
@@ -37,8 +38,9 @@ const q = (c: { name: string }) => `"${c.name}"`;
 
 /**
  * What storeAndMark runs, as one prepared statement: the fresh outputs ($1, rows for
- * json_to_recordset, so each result goes into its json column as the text it is) stored once by key, the draft's cells marked with their new keys ($2) merged in
- * the database as they are now, and the run's audit event, all or nothing. Parameters: $3 the branch,
+ * json_to_recordset, so each result goes into its json column as the text it is) stored once by key,
+ * the cells' new keys ($2) merged into the draft's output keys as they are now (drafts.output_keys:
+ * the cells' inputs in drafts.cells are not rewritten), and the run's audit event, all or nothing. Parameters: $3 the branch,
  * $4 the actor, $5 the project, $6 the audit detail.
  */
 const STORE_AND_MARK = `
@@ -51,13 +53,10 @@ const STORE_AND_MARK = `
     on conflict do nothing
     returning ${q(outputs.key)} as key, ${q(outputs.computedAt)} as computed_at
   ), marked as (
-    update "${getTableName(drafts)}" set ${q(drafts.cells)} = (
-      select coalesce(jsonb_agg(
-        case when m.cell_id is null then e.cell
-        else e.cell || jsonb_build_object('lastOutputKey', m.key, 'lastGoodOutputKey', case when m.ok then to_jsonb(m.key) else coalesce(e.cell -> 'lastGoodOutputKey', 'null'::jsonb) end)
-        end order by e.position), '[]'::jsonb)
-      from jsonb_array_elements(${q(drafts.cells)}) with ordinality as e(cell, position)
-      left join jsonb_to_recordset($2::jsonb) as m(cell_id text, key text, ok boolean) on m.cell_id = e.cell ->> 'cellId'
+    update "${getTableName(drafts)}" set ${q(drafts.outputKeys)} = ${q(drafts.outputKeys)} || (
+      select jsonb_object_agg(m.cell_id, jsonb_build_object('last', m.key, 'good',
+        case when m.ok then to_jsonb(m.key) else coalesce(${q(drafts.outputKeys)} -> m.cell_id -> 'good', 'null'::jsonb) end))
+      from jsonb_to_recordset($2::jsonb) as m(cell_id text, key text, ok boolean)
     )
     where ${q(drafts.branchId)} = $3::uuid and jsonb_array_length($2::jsonb) > 0
     returning ${q(drafts.revision)} as revision
@@ -201,7 +200,7 @@ export class NotebookService {
 
   /** The draft as the client sees it: cells with run state, problems, last output and last good output. */
   async view(tx: Tx, ctx: BranchContext, row: DraftRow): Promise<DraftDoc> {
-    const stored = row.cells as StoredCell[];
+    const stored = storedCells(row);
     const plans = planCells(stored);
     const found = await this.outputs.getMany(tx, stored.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]));
     const names = await this.names(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
@@ -253,15 +252,16 @@ export class NotebookService {
           { baseRevision: body.baseRevision, currentRevision: row.revision, current: draftObject(await this.view(tx, ctx, row)) },
         );
       }
-      const old = row.cells as StoredCell[];
+      const old = storedCells(row);
       const oldById = new Map(old.map((c) => [c.cellId, c]));
-      const trashById = new Map((row.trash as TrashEntry[]).map((t) => [t.cellId, t]));
+      const oldTrash: TrashEntry[] = storedTrash(row);
+      const trashById = new Map(oldTrash.map((t) => [t.cellId, t]));
 
       // Cell ids are the study's own: a new id is registered, a known id keeps its kind.
       const ids = body.cells.map((c) => c.cellId);
       // Cells already in this draft or its trash are registered to this study with their kind.
       const knownById = new Map<string, { id: string; studyId: string; kind: string }>();
-      for (const c of [...old, ...(row.trash as TrashEntry[])]) knownById.set(c.cellId, { id: c.cellId, studyId: ctx.study.id, kind: c.kind });
+      for (const c of [...old, ...oldTrash]) knownById.set(c.cellId, { id: c.cellId, studyId: ctx.study.id, kind: c.kind });
       const unknown = ids.filter((id) => !knownById.has(id));
       if (unknown.length) for (const c of await tx.select().from(cellsTable).where(inArray(cellsTable.id, unknown))) knownById.set(c.id, c);
       body.cells.forEach((cell, i) => {
@@ -291,7 +291,7 @@ export class NotebookService {
       const removed = old.filter((c) => !nextIds.has(c.cellId));
       const trash: TrashEntry[] = [
         ...removed.map((c) => ({ ...c, deletedAt: now, deletedBy: actor.id })),
-        ...(row.trash as TrashEntry[]).filter((t) => !nextIds.has(t.cellId) && !removed.some((r) => r.cellId === t.cellId)),
+        ...oldTrash.filter((t) => !nextIds.has(t.cellId) && !removed.some((r) => r.cellId === t.cellId)),
       ].slice(0, TRASH_LIMIT);
 
       const fresh = body.cells.filter((c) => !knownById.has(c.cellId));
@@ -301,9 +301,10 @@ export class NotebookService {
           .values(fresh.map((c) => ({ id: c.cellId, studyId: ctx.study.id, kind: c.kind, createdBy: actor.id })))
           .onConflictDoNothing();
       }
+      const written = splitOutputKeys(next, trash);
       const [updated] = await tx
         .update(drafts)
-        .set({ revision: row.revision + 1, cells: next, trash, updatedBy: actor.id, updatedAt: sql`now()` })
+        .set({ revision: row.revision + 1, cells: written.cells, trash: written.trash, outputKeys: written.outputKeys, updatedBy: actor.id, updatedAt: sql`now()` })
         .where(eq(drafts.branchId, ctx.branch.id))
         .returning();
       await tx.update(studies).set({ updatedAt: sql`now()` }).where(eq(studies.id, ctx.study.id));
@@ -340,7 +341,7 @@ export class NotebookService {
    */
   async planRun(ctx: BranchContext, cellIds: string[] | undefined, read?: DraftRow | null): Promise<PlannedRun> {
     const row = read ?? (await draftRow(this.db, ctx.branch.id, false));
-    const stored = row.cells as StoredCell[];
+    const stored = storedCells(row);
     const plans = planCells(stored);
     const targets = this.targets(plans, stored, cellIds);
     // Every output the run could reuse, looked up at once.
@@ -415,11 +416,13 @@ export class NotebookService {
 
   /**
    * Stores the run's fresh outputs (each once by key: one stored meanwhile by someone else is kept)
-   * and records the output keys on the draft's cells, with the run's audit event, in one statement:
-   * the cells are merged in the database as they are now, so a save that landed during the run keeps
-   * its edits, and the revision stays (it counts the author's edits; a run is not one, so it never
-   * makes the next autosave stale). A cell deleted meanwhile is simply not marked. Answers the draft's
-   * revision (null when nothing was marked) and the fresh outputs as stored.
+   * and records the output keys of the draft's cells, with the run's audit event, in one statement:
+   * the keys are merged into the draft's output keys as they are now (the cells themselves are not
+   * written), so a save that landed during the run keeps its edits, and the revision stays (it counts
+   * the author's edits; a run is not one, so it never makes the next autosave stale). A cell deleted
+   * meanwhile gets its keys too, kept with it in the trash (a key names the inputs it was computed
+   * from, so the cell's run state stays true); the next save drops keys of cells in neither. Answers
+   * the draft's revision (null when nothing was marked) and the fresh outputs as stored.
    */
   private async storeAndMark(
     ctx: BranchContext,

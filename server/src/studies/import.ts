@@ -8,6 +8,7 @@ import type { Tx } from '../db/client';
 import { branches, cells, drafts, outputs } from '../db/schema';
 import { badRequest } from '../http/problem';
 import { planCells, type StoredCell } from '../notebook/plan';
+import { splitOutputKeys } from '../notebook/draft-keys';
 import { createStudy, MAIN_BRANCH } from './service';
 
 /**
@@ -55,7 +56,8 @@ export async function importStudy(tx: Tx, actor: SessionUser, projectId: string,
     .map(({ c, cell }) => ({ key: cell.lastOutputKey!, kind: c.kind, status: c.output!.status, result: c.output!.result, error: c.output!.error, engineVersion: c.output!.engineVersion }));
   // An output is a pure function of its key: one already stored under the same key is the same.
   if (keptOutputs.length) await tx.insert(outputs).values(keptOutputs).onConflictDoNothing();
-  await tx.update(drafts).set({ cells: stored, revision: 1, updatedBy: actor.id }).where(eq(drafts.branchId, branch!.id));
+  const written = splitOutputKeys(stored);
+  await tx.update(drafts).set({ cells: written.cells, outputKeys: written.outputKeys, revision: 1, updatedBy: actor.id }).where(eq(drafts.branchId, branch!.id));
   await audit(tx, {
     actorId: actor.id,
     projectId,

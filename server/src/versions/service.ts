@@ -24,7 +24,8 @@ import { badRequest, conflict, notFound, ProblemError } from '../http/problem';
 import { listBranches, MAIN_BRANCH } from '../studies/service';
 import { diffCells, type SnapshotCell } from './cell-diff';
 import { cellContentHash } from './content-hash';
-import { planCells, type StoredCell } from '../notebook/plan';
+import { storedCells, storedTrash, splitOutputKeys } from '../notebook/draft-keys';
+import { planCells } from '../notebook/plan';
 import { versionReviewColumn } from '../review/timeline';
 
 /**
@@ -291,8 +292,9 @@ export async function saveVersion(tx: Tx, actor: SessionUser, place: Place, bran
 
   // A cell keeps its output only while that output matches its inputs and upstream (the notebook's
   // output key); a result of older inputs would misstate what the version computes.
-  const plans = planCells(draft.cells as StoredCell[]);
-  const draftCells = draft.cells.map((c) => {
+  const keyed = storedCells(draft);
+  const plans = planCells(keyed);
+  const draftCells = keyed.map((c) => {
     const snapshot = draftCellToSnapshot(c);
     return plans.get(c.cellId)?.key === snapshot.outputKey ? snapshot : { ...snapshot, outputKey: null };
   });
@@ -411,14 +413,15 @@ export async function restoreIntoDraft(tx: Tx, actor: SessionUser, place: Place,
   const restored = ((await versionCellsOf(tx, [versionId])).get(versionId) ?? []).map(snapshotToDraftCell);
   const keep = new Set(restored.map((c) => c.cellId));
   const now = new Date().toISOString();
-  const dropped = draft.cells.filter((c) => !keep.has(c.cellId));
+  const dropped = storedCells(draft).filter((c) => !keep.has(c.cellId));
   const trash = [
     ...dropped.map((c) => ({ ...c, deletedAt: now, deletedBy: actor.id })),
-    ...draft.trash.filter((t) => !keep.has(t.cellId)),
+    ...storedTrash(draft).filter((t) => !keep.has(t.cellId)),
   ].slice(0, TRASH_LIMIT);
+  const written = splitOutputKeys(restored, trash);
   const [updated] = await tx
     .update(drafts)
-    .set({ cells: restored, trash, revision: draft.revision + 1, updatedBy: actor.id, updatedAt: sql`now()` })
+    .set({ cells: written.cells, trash: written.trash, outputKeys: written.outputKeys, revision: draft.revision + 1, updatedBy: actor.id, updatedAt: sql`now()` })
     .where(eq(drafts.branchId, branchId))
     .returning({ revision: drafts.revision });
   await audit(tx, {
@@ -462,7 +465,8 @@ export async function createBranch(tx: Tx, actor: SessionUser, place: Place, ver
     if (isUniqueViolation(error)) throw conflict(`This study already has a branch named "${input.name}".`, { field: 'name' });
     throw error;
   }
-  await tx.insert(drafts).values({ branchId, cells: start, basedOnVersionId: versionId, updatedBy: actor.id });
+  const written = splitOutputKeys(start);
+  await tx.insert(drafts).values({ branchId, cells: written.cells, outputKeys: written.outputKeys, basedOnVersionId: versionId, updatedBy: actor.id });
   await audit(tx, { actorId: actor.id, projectId: place.projectId, action: 'branch.create', targetType: 'branch', targetId: branchId, detail: { name: input.name, fromVersionId: versionId } });
   return branchId;
 }

@@ -58,7 +58,10 @@ export const cells = pgTable('cells', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-/** One cell as it is in a draft (JSON kept in drafts.cells). */
+/**
+ * One cell as it is in a draft. Its id, kind, title, collapsed state and inputs are kept in
+ * drafts.cells; its output keys in drafts.output_keys (server/src/notebook/draft-keys.ts joins them).
+ */
 export interface DraftCell {
   cellId: string;
   kind: string;
@@ -68,6 +71,9 @@ export interface DraftCell {
   /** Output key of the last run of this cell from the draft, if any. */
   lastOutputKey?: string | null;
 }
+
+/** The output keys of a draft's cells (and of those in its trash), by cell id. */
+export type DraftOutputKeys = Record<string, { last: string | null; good: string | null }>;
 
 /**
  * The working draft of a branch. `revision` increases on every save; a save names the revision it was
@@ -81,6 +87,12 @@ export const drafts = pgTable('drafts', {
   cells: jsonb('cells').$type<DraftCell[]>().notNull().default([]),
   /** Recently deleted cells, newest first, so they can be brought back. */
   trash: jsonb('trash').$type<(DraftCell & { deletedAt: string; deletedBy: string | null })[]>().notNull().default([]),
+  /**
+   * The output keys of the cells in `cells` and `trash`: the last run's and the last ok run's, by cell
+   * id. Kept apart from `cells` so a run, which records keys and edits nothing, writes this small value
+   * and not the cells' inputs (a pasted table is tens of kB); runs do not change `revision`.
+   */
+  outputKeys: jsonb('output_keys').$type<DraftOutputKeys>().notNull().default({}),
   basedOnVersionId: uuid('based_on_version_id').references((): AnyPgColumn => versions.id),
   updatedBy: uuid('updated_by').references(() => users.id),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
