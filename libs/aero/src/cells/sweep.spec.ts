@@ -113,6 +113,8 @@ describe('a sweep over a grid of two parameters', () => {
     const twice = CELL_SCHEMAS.sweep.inputs.safeParse({ analysisCellId: ID, parameter: 'mach', from: 0, to: 0.5, steps: 3, second: { parameter: 'mach', from: 0.1, to: 0.2, steps: 3 } });
     expect(twice.error?.issues.map((i) => i.path.join('.'))).toEqual(['second.parameter']);
     expect(CELL_SCHEMAS.sweep.inputs.safeParse({ analysisCellId: ID, parameter: 'reynolds', from: 1e6, to: 2e7, steps: 2000 }).success).toBe(true);
+    const steps = CELL_SCHEMAS.sweep.inputs.safeParse({ analysisCellId: ID, parameter: 'reynolds', from: 1e6, to: 2e7, steps: 2001 });
+    expect(steps.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['steps', 'steps must be at most 2,000']]);
   });
 });
 
