@@ -1,20 +1,36 @@
 import { setTimeout as sleep } from 'node:timers/promises';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type PgBoss from 'pg-boss';
+import pg from 'pg';
 import { assembleSweep, ENGINE_VERSION, gatherSweepWarnings, resultJson, sweepCaseCount, sweepValues, toCellError, upstreamFailedError, type ComputedOutput, type SweepCase, type SweepWarning } from '@laminote/aero';
-import { CELL_KIND_LABELS, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs, type SweepResult } from '@laminote/contracts';
+import { CELL_KIND_LABELS, CELL_KIND_REGISTRY, jobIsActive, type CellError, type CellRunReport, type JobState, type SweepInputs, type SweepResult } from '@laminote/contracts';
 import { audit } from '../audit/audit';
 import type { Database } from '../db/client';
 import { isDatabaseUnavailable } from '../db/availability';
 import { runJobs, sweepCases } from '../db/schema';
 import type { Logger } from '../logger';
-import { OutputStore, type CachedOutput } from '../notebook/outputs';
+import { OutputStore } from '../notebook/outputs';
 import type { ComputePool } from './compute-pool';
 import { markDraftCells } from './mark';
 import { RETENTION_QUEUE, stableJobId, WORK_QUEUE, type WorkMessage } from './queue';
 import { pruneRetained, type RetentionPolicy } from './retention';
-import { JOB_CHANNEL, loadJob, notifyJob, type JobNotice, type RunJobRow } from './store';
+import { JOB_CHANNEL, loadJob, notifyJob, notifyJobs, type JobNotice, type RunJobRow } from './store';
 import { CASES_PER_CHUNK, type JobWork } from './work';
+
+const { escapeLiteral } = pg;
+
+/** While quick cells are computed in a row, how often the job's state is read again (a cancel is heeded within this). */
+const STATE_CHECK_MS = 100;
+
+/** Second argument of hashtextextended for a sweep's lock: keeps these locks apart from any other advisory lock. */
+const SWEEP_LOCK_SEED = 1_3_0_5;
+
+/** Text as a dollar-quoted literal: nothing inside is escaped, so a long JSON text is sent as it is. */
+function dollarQuoted(text: string): string {
+  let tag = 'cases';
+  while (`${text}$`.includes(`$${tag}$`)) tag += '_';
+  return `$${tag}$${text}$${tag}$`;
+}
 
 /**
  * A job worker: fetches pieces of work from the queue and runs them on its compute threads, one piece
@@ -174,17 +190,21 @@ export class JobRunner {
       .set({ state: 'running', startedAt: sql`now()` })
       .where(and(eq(runJobs.id, jobId), eq(runJobs.state, 'queued')))
       .returning({ id: runJobs.id });
-    if (started.length) await notifyJob(this.db, { type: 'job', jobId, branchId: row.branchId });
     const work = row.work as JobWork[];
+    // A job taken up again (its worker died) or cancelled meanwhile: its state says whether to go on.
+    if (!started.length && !(await this.active(jobId))) return;
+    const notices: JobNotice[] = started.length ? [{ type: 'job', jobId, branchId: row.branchId }] : [];
+    let checkedAt = performance.now();
+    const stored = await this.outputs.getMany(this.db, work.map((w) => w.key));
+    // Outputs stored and not yet shown in the draft: quick cells land together, in one draft update.
+    const landed: JobWork[] = [];
     const chunks: PgBoss.JobInsert<WorkMessage>[] = [];
     for (const w of work) {
-      if (w.key === null) continue;
-      const state = await this.state(jobId);
-      if (state === null || !jobIsActive(state)) return;
-      if (await this.outputs.get(this.db, w.key)) continue;
+      if (w.key === null || stored.has(w.key)) continue;
       const failed = await this.failedUpstream(w, work);
       if (failed) {
-        await this.store(row, w, { status: 'error', resultJson: null, error: failed, durationMs: 0 });
+        await this.outputs.put(this.db, w.key, w.kind, ENGINE_VERSION, { status: 'error', resultJson: null, error: failed, durationMs: 0 });
+        landed.push(w);
         continue;
       }
       if (w.cases > 0) {
@@ -193,15 +213,40 @@ export class JobRunner {
         }
         continue;
       }
-      await this.store(row, w, await this.compute.cell(w.task!));
+      // Before a long computation the outputs so far are shown, and a cancel is heeded.
+      const quick = CELL_KIND_REGISTRY[w.kind].quick;
+      if (!quick) await this.show(row, landed.splice(0), notices.splice(0));
+      if (!quick || performance.now() - checkedAt > STATE_CHECK_MS) {
+        if (!(await this.active(jobId))) return void (await this.show(row, landed, notices));
+        checkedAt = performance.now();
+      }
+      const computed = await this.compute.cell(w.task!);
+      await this.outputs.put(this.db, w.key!, w.kind, ENGINE_VERSION, computed);
+      landed.push(w);
     }
     // Sent again after a retry these are the same ids, which the queue keeps once. The notice wakes idle
     // workers to take them.
     if (chunks.length) {
+      await this.show(row, landed.splice(0), notices.splice(0));
       await this.boss.insert(chunks);
-      await notifyJob(this.db, { type: 'job', jobId, branchId: row.branchId });
+      notices.push({ type: 'job', jobId, branchId: row.branchId });
     }
-    await this.finishIfDone(row);
+    await this.finishIfDone(row, landed, notices);
+  }
+
+  /** Whether the job is still to be worked on (not cancelled, failed or gone). */
+  private async active(jobId: string): Promise<boolean> {
+    const state = await this.state(jobId);
+    return state !== null && jobIsActive(state);
+  }
+
+  /** Shows outputs that have landed in the draft, then tells the app servers (each cell's notice, and any others given), in one statement. */
+  private async show(row: RunJobRow, landed: readonly JobWork[], notices: readonly JobNotice[] = []): Promise<void> {
+    if (landed.length) {
+      const found = await this.outputs.getMany(this.db, landed.map((w) => w.key));
+      await markDraftCells(this.db, row.branchId, landed.map((w) => ({ cellId: w.cellId, key: w.key!, ok: found.get(w.key!)?.status === 'ok' })));
+    }
+    await notifyJobs(this.db, [...landed.map((w): JobNotice => ({ type: 'output', jobId: row.id, branchId: row.branchId, cellId: w.cellId })), ...notices]);
   }
 
   /** The error a cell stores when a cell it uses failed; a cell it uses that has no output is a defect. */
@@ -213,13 +258,6 @@ export class JobRunner {
       if (out.status === 'error') return upstreamFailedError(up.kind, ref.field, out.error);
     }
     return null;
-  }
-
-  private async store(row: RunJobRow, w: JobWork, computed: ComputedOutput): Promise<CachedOutput> {
-    const out = await this.outputs.put(this.db, w.key!, w.kind, ENGINE_VERSION, computed);
-    await markDraftCells(this.db, row.branchId, [{ cellId: w.cellId, key: w.key!, ok: out.status === 'ok' }]);
-    await notifyJob(this.db, { type: 'output', jobId: row.id, branchId: row.branchId, cellId: w.cellId });
-    return out;
   }
 
   private async sweepChunk(message: Extract<WorkMessage, { type: 'cases' }>): Promise<void> {
@@ -239,33 +277,61 @@ export class JobRunner {
     const present = new Set(rows[0]?.have ?? []);
     const missing: number[] = [];
     for (let i = message.from; i < message.to; i++) if (!present.has(i)) missing.push(i);
+    let stored: number;
     if (missing.length) {
-      const { indices, json, engineCpuMs } = await this.compute.sweepCases({ task: w.task, indices: missing });
+      const { indices, json, engineCpuMs } = await this.compute.sweepCases({ task: w.task!, indices: missing });
       // The engine's own CPU time beside the job's (npm run bench -- jobs reads it to split the overhead).
       this.logger.debug({ jobId: row.id, cellId: w.cellId, cases: indices.length, engineCpuMs }, 'sweep cases computed');
-      // Each case stored once (one stored by an earlier try stays), the app servers told, in one statement:
-      // the chunk's cases go as their indices and one JSON array, as the engine wrote it, taken apart here.
-      await this.database.pool.query(
-        `with stored as (
-           insert into sweep_cases (sweep_key, index, step)
-           select $1, c.index, c.step from rows from (unnest($2::int[]), jsonb_array_elements($3::jsonb)) as c(index, step)
-           on conflict do nothing
-           returning 1
-         )
-         select pg_notify($4, $5)`,
-        [key, indices, json, JOB_CHANNEL, JSON.stringify({ type: 'job', jobId: row.id, branchId: row.branchId } satisfies JobNotice)],
-      );
+      stored = await this.storeCases(row, key, indices, json);
+    } else {
+      stored = await this.storedCases(key);
     }
-    if (await this.assembleIfComplete(row, w)) await this.finishIfDone(row);
+    if (stored < w.cases) return;
+    await this.assemble(row, w);
+    await this.finishIfDone(row, [w]);
   }
 
-  /** Once every case of a sweep is stored, its output is put together from them, in order (true then). */
-  private async assembleIfComplete(row: RunJobRow, w: JobWork): Promise<boolean> {
-    const [{ n } = { n: 0 }] = await this.db
-      .select({ n: sql<number>`count(*)::int` })
-      .from(sweepCases)
-      .where(eq(sweepCases.sweepKey, w.key!));
-    if (n < w.cases) return false;
+  /**
+   * Stores a chunk's cases, each once (one stored by an earlier try stays), tells the app servers, and
+   * answers how many cases of the sweep are stored now, all in one round trip: the chunk's cases go as
+   * their indices and one JSON array, as the engine wrote it, taken apart by PostgreSQL.
+   *
+   * The count decides who puts the sweep together, so it must see every other chunk's cases that are
+   * stored: two chunks storing their last cases at once would otherwise each count without the other's
+   * and neither would assemble. The sweep's stores therefore take turns (a lock on its key, held to the
+   * end of the transaction), and the count is a statement of its own after the lock, which in READ
+   * COMMITTED sees whatever the chunk before it committed. Two statements in one round trip means one
+   * query string sent as it is (the simple protocol, one transaction), so the values are written into
+   * it as literals; the JSON goes dollar-quoted, not escaped character by character.
+   */
+  private async storeCases(row: RunJobRow, key: string, indices: readonly number[], json: string): Promise<number> {
+    const notice = JSON.stringify({ type: 'job', jobId: row.id, branchId: row.branchId } satisfies JobNotice);
+    const results = (await this.database.pool.query(
+      `select pg_advisory_xact_lock(hashtextextended(${escapeLiteral(key)}, ${SWEEP_LOCK_SEED}));
+       with stored as (
+         insert into sweep_cases (sweep_key, index, step)
+         select ${escapeLiteral(key)}, c.index, c.step
+           from rows from (unnest('{${indices.map((i) => Math.trunc(i)).join(',')}}'::int[]), jsonb_array_elements(${dollarQuoted(json)}::jsonb)) as c(index, step)
+         on conflict do nothing
+         returning 1
+       )
+       select pg_notify(${escapeLiteral(JOB_CHANNEL)}, ${escapeLiteral(notice)}),
+              ((select count(*) from stored) + (select count(*) from sweep_cases where sweep_key = ${escapeLiteral(key)}))::int as n`,
+    )) as unknown as pg.QueryResult<{ n: number }>[];
+    return results[1]!.rows[0]!.n;
+  }
+
+  /** How many cases of a sweep are stored, once the sweep's stores under way have committed (as storeCases counts). */
+  private async storedCases(key: string): Promise<number> {
+    const results = (await this.database.pool.query(
+      `select pg_advisory_xact_lock(hashtextextended(${escapeLiteral(key)}, ${SWEEP_LOCK_SEED}));
+       select count(*)::int as n from sweep_cases where sweep_key = ${escapeLiteral(key)}`,
+    )) as unknown as pg.QueryResult<{ n: number }>[];
+    return results[1]!.rows[0]!.n;
+  }
+
+  /** Once every case of a sweep is stored: its output put together from them, in order. */
+  private async assemble(row: RunJobRow, w: JobWork): Promise<void> {
     const sw = w.task!.inputs as SweepInputs;
     const durationMs = Date.now() - (row.startedAt ?? row.createdAt).getTime();
     let computed: ComputedOutput;
@@ -276,8 +342,7 @@ export class JobRunner {
       if (!error) throw err;
       computed = { status: 'error', resultJson: null, error, durationMs };
     }
-    await this.store(row, w, computed);
-    return true;
+    await this.outputs.put(this.db, w.key!, w.kind, ENGINE_VERSION, computed);
   }
 
   /**
@@ -315,12 +380,16 @@ export class JobRunner {
     return `${resultJson(head).slice(0, -1)},"steps":[${steps}],"warnings":${JSON.stringify(gathered)}}`;
   }
 
-  /** When every output of the job is stored: the draft shows them all, the job is completed with its reports. */
-  private async finishIfDone(row: RunJobRow): Promise<void> {
+  /**
+   * When every output of the job is stored: the draft shows them all, the job is completed with its
+   * reports. Otherwise the outputs that have just landed are shown. Either way the app servers are
+   * told (those outputs' notices and the others given) once it is done.
+   */
+  private async finishIfDone(row: RunJobRow, landed: readonly JobWork[] = [], notices: readonly JobNotice[] = []): Promise<void> {
     const work = row.work as JobWork[];
     const keys = work.flatMap((w) => (w.key ? [w.key] : []));
     const found = await this.outputs.getMany(this.db, keys);
-    if (keys.some((k) => !found.has(k))) return;
+    if (keys.some((k) => !found.has(k))) return this.show(row, landed, notices);
     await markDraftCells(this.db, row.branchId, work.flatMap((w) => (w.key ? [{ cellId: w.cellId, key: w.key, ok: found.get(w.key)!.status === 'ok' }] : [])));
     const reports: CellRunReport[] = [...work].sort((a, b) => a.position - b.position).map((w) => {
       const base = { cellId: w.cellId, kind: w.kind };
@@ -352,7 +421,8 @@ export class JobRunner {
       });
       return true;
     });
-    if (finished) await notifyJob(this.db, { type: 'job', jobId: row.id, branchId: row.branchId });
+    const told = landed.map((w): JobNotice => ({ type: 'output', jobId: row.id, branchId: row.branchId, cellId: w.cellId }));
+    await notifyJobs(this.db, [...told, ...notices.filter((n) => !finished || n.type !== 'job'), ...(finished ? [{ type: 'job', jobId: row.id, branchId: row.branchId } as const] : [])]);
   }
 
   private async failJob(jobId: string, message: string): Promise<void> {

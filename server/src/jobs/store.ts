@@ -18,7 +18,13 @@ export const JOB_CHANNEL = 'laminote_jobs';
 export type JobNotice = { type: 'job'; jobId: string; branchId: string } | { type: 'output'; jobId: string; branchId: string; cellId: string };
 
 export async function notifyJob(tx: Tx, notice: JobNotice): Promise<void> {
-  await tx.execute(sql`select pg_notify(${JOB_CHANNEL}, ${JSON.stringify(notice)})`);
+  await notifyJobs(tx, [notice]);
+}
+
+/** Several notices in one statement (delivered in this order). */
+export async function notifyJobs(tx: Tx, notices: readonly JobNotice[]): Promise<void> {
+  if (notices.length === 0) return;
+  await tx.execute(sql`select pg_notify(${JOB_CHANNEL}, n) from json_array_elements_text(${JSON.stringify(notices.map((n) => JSON.stringify(n)))}::json) as n`);
 }
 
 export async function loadJob(tx: Tx, jobId: string): Promise<RunJobRow | null> {
