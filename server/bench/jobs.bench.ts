@@ -35,6 +35,8 @@ import { CASES, inProcessCases, studyCells, WARM_UP, type CaseCost } from './swe
 /** Rounds of (in-process loop, one worker, two loops at once, two workers); BENCH_ROUNDS overrides. */
 const ROUNDS = Number(process.env['BENCH_ROUNDS'] ?? 5);
 const WORKER_COUNTS = process.env['BENCH_WORKERS'] === '1' ? ([1] as const) : ([1, 2] as const);
+/** Warm-up sweeps each fresh worker runs before the measured one (1 unless BENCH_WARM_JOBS says more: a worker that has run a few jobs, as a long-lived one has). */
+const WARM_JOBS = Number(process.env['BENCH_WARM_JOBS'] ?? 1);
 const out = (line: string) => process.stdout.write(`${line}\n`);
 
 const t = await createTestApp({ LOG_LEVEL: 'silent' }, { worker: false });
@@ -150,17 +152,40 @@ function cpuMsAt(statPath: string): number {
 /** CPU time a process has used so far (all its threads, living or ended), in ms. */
 const cpuMsOf = (pid: number): number => cpuMsAt(`/proc/${pid}/stat`);
 
-/** CPU time so far of each living thread of a process, by thread id, in ms. */
+/**
+ * CPU time so far of each living thread of a process, by thread id, in ms: the scheduler's account
+ * (schedstat, nanoseconds), not stat's clock ticks, which count in 10 ms steps, 2-3 % of a whole
+ * 1,000-case job.
+ */
 function threadCpuMs(pid: number): Map<string, number> {
   const threads = new Map<string, number>();
   for (const tid of readdirSync(`/proc/${pid}/task`)) {
     try {
-      threads.set(tid, cpuMsAt(`/proc/${pid}/task/${tid}/stat`));
+      threads.set(tid, Number(readFileSync(`/proc/${pid}/task/${tid}/schedstat`, 'utf8').split(' ', 1)[0]) / 1e6);
     } catch {
       // the thread ended meanwhile
     }
   }
   return threads;
+}
+
+/**
+ * Starts counting the CPU time of some processes, all their threads; the function returned gives the
+ * time used since, in ms. Counted by thread from schedstat; should a thread have ended meanwhile (its
+ * time is gone from /proc/<pid>/task), from the processes' stat instead.
+ */
+function cpuSince(pids: readonly number[]): () => number {
+  const threads = pids.map(threadCpuMs);
+  const ticks = pids.reduce((ms, pid) => ms + cpuMsOf(pid), 0);
+  return () => {
+    let ms = 0;
+    for (const [i, pid] of pids.entries()) {
+      const now = threadCpuMs(pid);
+      for (const tid of threads[i]!.keys()) if (!now.has(tid)) return pids.reduce((total, p) => total + cpuMsOf(p), 0) - ticks;
+      for (const [tid, used] of now) ms += used - (threads[i]!.get(tid) ?? 0);
+    }
+    return ms;
+  };
 }
 
 /** The PostgreSQL cluster's CPU time so far (postmaster, its living children and those it has reaped), in ms. */
@@ -210,23 +235,23 @@ interface TimedRun {
  */
 async function timedRun(workers: number): Promise<TimedRun> {
   const label = `Bench ${workers} worker(s) ${randomUUID().slice(0, 8)}`;
-  const warmUp = await newStudy(`${label} warm-up`, WARM_UP * workers);
+  const warmUps = await Promise.all(Array.from({ length: WARM_JOBS }, (_, i) => newStudy(`${label} warm-up ${i + 1}`, WARM_UP * workers)));
   const branchId = await newStudy(label, CASES);
   const procs = await Promise.all(Array.from({ length: workers }, () => startWorker()));
-  const sum = (f: (pid: number) => number) => procs.reduce((total, p) => total + f(p.pid!), 0);
-  const warmUpStart = sum(cpuMsOf);
-  await runToEnd(warmUp);
-  const warmUpCpuMsPerCase = (sum(cpuMsOf) - warmUpStart) / (WARM_UP * workers);
+  const pids = procs.map((p) => p.pid!);
+  const warmUpCpu = cpuSince(pids);
+  for (const warmUp of warmUps) await runToEnd(warmUp);
+  const warmUpCpuMsPerCase = warmUpCpu() / (WARM_UP * workers * WARM_JOBS);
   // What the worker processes use while waiting for work (polling, the queue's upkeep, timers).
-  const idleStart = sum(cpuMsOf);
+  const idleCpu = cpuSince(pids);
   await new Promise((resolve) => setTimeout(resolve, 4000));
-  const idleCpuMsPerS = (sum(cpuMsOf) - idleStart) / 4 / workers;
+  const idleCpuMsPerS = idleCpu() / 4 / workers;
   const threadsBefore = procs.map((p) => threadCpuMs(p.pid!));
-  const [cpuBefore, appBefore, pgBefore] = [sum(cpuMsOf), ownCpuMs(), await postgresCpuMs()];
+  const [jobCpu, appBefore, pgBefore] = [cpuSince(pids), ownCpuMs(), await postgresCpuMs()];
   const started = performance.now();
   const job = await runToEnd(branchId);
   const wallMs = performance.now() - started;
-  const [cpuAfter, appAfter, pgAfter] = [sum(cpuMsOf), ownCpuMs(), await postgresCpuMs()];
+  const [cpuMs, appAfter, pgAfter] = [jobCpu(), ownCpuMs(), await postgresCpuMs()];
   const engineCpuMs = await engineCpuOf(job.jobId);
   let mainMs = 0;
   let computeMs = 0;
@@ -236,7 +261,7 @@ async function timedRun(workers: number): Promise<TimedRun> {
     computeMs += Math.max(0, ...used.filter((u) => u.tid !== String(p.pid)).map((u) => u.ms));
   });
   await stopWorkers(procs);
-  return { wallMs, cpuMs: cpuAfter - cpuBefore, engineCpuMs, mainMs, computeMs, idleCpuMsPerS, warmUpCpuMsPerCase, appMs: appAfter - appBefore, postgresMs: pgAfter - pgBefore };
+  return { wallMs, cpuMs, engineCpuMs, mainMs, computeMs, idleCpuMsPerS, warmUpCpuMsPerCase, appMs: appAfter - appBefore, postgresMs: pgAfter - pgBefore };
 }
 
 
@@ -327,8 +352,8 @@ try {
     const wall = (n: number) => median(rounds.filter((r) => r.workers === n).map((r) => r.run.wallMs));
     out(`  speed-up of two workers over one (median wall): ${(wall(1) / wall(2)).toFixed(2)}×`);
   }
-  out(`  (wall: POST /run to the job seen completed (followed by its notices, as the browser does), its 3 light cells and the sweep's assembly included; each side warmed up by ${WARM_UP} cases (each worker) first;`);
-  out(`   CPU: worker processes' user + system time from /proc, all threads; loops' from process.cpuUsage; engine: the computing thread's schedstat; ${availableParallelism()} cores, shared with whatever else runs)`);
+  out(`  (wall: POST /run to the job seen completed (followed by its notices, as the browser does), its 3 light cells and the sweep's assembly included; each side warmed up by ${WARM_UP} cases (each worker${WARM_JOBS > 1 ? `, ${WARM_JOBS} sweeps of them` : ''}) first;`);
+  out(`   CPU: worker processes' time from /proc, all threads (schedstat); loops' from process.cpuUsage; engine: the computing thread's schedstat; ${availableParallelism()} cores, shared with whatever else runs)`);
 } finally {
   listener.release();
   await t.close();
