@@ -5,12 +5,26 @@
  * through the identity provider in headless chromium, a 20-cell study is made through the API (four
  * rounds of flow condition, pressure distribution from an exact Joukowski loop, transition analysis,
  * flat-plate estimate and note) and run once, so every cell has its result and its plots. Then the
- * study is opened 5 times cold (a fresh browser context, empty cache) and 5 times warm (reload), and
- * the time from navigation to interactive is measured: all 20 cell frames on the page, the bodies of
- * the cells on the first screen drawn, and the page answering a keystroke in a cell title (the save
- * indicator changes). Targets (issue 15): cold median ≤ 1000 ms and max ≤ 1200 ms, warm median ≤ 500 ms;
- * the first screen's JS ≤ 300 kB gzip; the icon font only the icons the app uses. Also timed: every
- * body drawn, and the plots drawn.
+ * study is opened cold (a fresh browser context, empty cache) and warm (reload), and the time from the
+ * start of the navigation to interactive is measured: all 20 cell frames on the page, the bodies of the
+ * cells on the first screen drawn, and the page answering a keystroke in a cell title (the save
+ * indicator changes). Targets (issue 15): cold median ≤ 1000 ms and max ≤ 1200 ms, warm median
+ * ≤ 500 ms; the first screen's JS ≤ 300 kB gzip; the icon font only the icons the app uses. Also
+ * timed: every body drawn, and the first screen's plot drawn.
+ *
+ * Two ways of noticing "interactive" are timed, in alternate opens (5 cold and 5 warm each), and both
+ * are printed:
+ * - in the page (the targets are read from this one): a script the browser context runs in the page
+ *   before the app (`pageWatch`) looks at the page each animation frame. Once the frames and first
+ *   bodies are there, it waits for that frame's paint, types a space at the end of the first title
+ *   with the browser's own editing command (`insertText`: a trusted input event, as typing makes), and
+ *   notes the paint after the save indicator has changed. Times are the page's clock from the start
+ *   of the navigation.
+ * - by Playwright (the earlier measure): Playwright's wait for the same state, its focus and two key
+ *   presses, each a round trip between this process and the browser, timed here from before the
+ *   navigation. Those round trips add time on a busy machine that is not the page's.
+ * Both measures of a static page (one frame, one title, a save indicator, no framework, served by a
+ * bare HTTP server) are printed as the floor under them.
  *
  * It also reports the initial JavaScript of the built app (dist/web/browser: main and its static
  * imports), the notebook route's chunks, and the lazily loaded plot chunks, raw and gzip, and whether
@@ -20,7 +34,9 @@ import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
-import type { BrowserContext, Page } from 'playwright-core';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import type { Branch, Draft, DraftCellInput, Project, Study } from '@laminote/contracts';
 import { joukowskiLoop } from '../../../libs/aero/test/joukowski';
 import { launchBrowser, signInThroughProvider } from '../../../tests/support/browser';
@@ -197,6 +213,91 @@ async function makeStudy(context: BrowserContext): Promise<string> {
 
 // ── Timing ─────────────────────────────────────────────────────────────────────────────────────
 
+type Way = 'page' | 'playwright';
+
+/**
+ * Frames and first-screen bodies drawn, and the save indicator on the page (the state both ways wait
+ * for). No named helper in these two: the page gets their source without the bundler's helpers.
+ */
+const ready = (count: number): boolean => {
+  const frames = [...document.querySelectorAll('lam-cell-frame')];
+  const onScreen = frames.filter((f) => f.getBoundingClientRect().top < window.innerHeight);
+  return (
+    frames.length === count &&
+    onScreen.length > 0 &&
+    onScreen.every((f) => f.querySelector('.body > *') !== null && f.querySelector('.body .body-pending') === null) &&
+    document.querySelector('lam-save-indicator') !== null
+  );
+};
+/** The save indicator has taken up the keystroke. */
+const answered = (): boolean => /waiting|Saving/.test(document.querySelector('lam-save-indicator')?.textContent ?? '');
+
+/**
+ * The in-page measure (a context's init script, so it runs before the page's own scripts): each
+ * animation frame it checks `ready`; then, after that frame's paint (a task queued from the frame), it
+ * types a space at the end of the first title and notes the paint after the indicator answered.
+ * Plain source text: the page gets no bundler helpers.
+ */
+function pageWatch(count: number): string {
+  return `(() => {
+  if (window !== window.top) return;
+  const ready = ${ready.toString()};
+  const answered = ${answered.toString()};
+  const state = (window.__lamOpen = { framesMs: null, interactiveMs: null });
+  const afterPaint = (then) => setTimeout(then, 0);
+  const waitAnswer = () => {
+    if (!answered()) return void requestAnimationFrame(waitAnswer);
+    afterPaint(() => { state.interactiveMs = performance.now(); });
+  };
+  const waitReady = () => {
+    if (!ready(${count})) return void requestAnimationFrame(waitReady);
+    afterPaint(() => {
+      state.framesMs = performance.now();
+      const input = document.querySelector('lam-cell-frame input.title-input');
+      input.focus();
+      input.setSelectionRange(input.value.length, input.value.length);
+      document.execCommand('insertText', false, ' ');
+      requestAnimationFrame(waitAnswer);
+    });
+  };
+  requestAnimationFrame(waitReady);
+})();`;
+}
+
+interface Opened {
+  framesMs: number;
+  interactiveMs: number;
+  /** The page's clock (ms since the navigation started) at interactive. */
+  interactiveOnPage: number;
+  started: number;
+}
+
+/** Opens `url` (or reloads) and measures frames drawn and interactive, either way. */
+async function openAndMeasure(page: Page, url: string | null, count: number, way: Way): Promise<Opened> {
+  const started = Date.now();
+  if (url === null) await page.reload({ waitUntil: 'commit' });
+  else await page.goto(url, { waitUntil: 'commit' });
+  if (way === 'page') {
+    // Only to fetch the page's own figures: how often this asks does not change them.
+    const handle = await page.waitForFunction(() => {
+      const state = (window as unknown as { __lamOpen?: { framesMs: number | null; interactiveMs: number | null } }).__lamOpen;
+      return state && state.interactiveMs !== null ? state : null;
+    }, undefined, { polling: 'raf', timeout: 30_000 });
+    const state = (await handle.jsonValue()) as { framesMs: number; interactiveMs: number };
+    return { framesMs: state.framesMs, interactiveMs: state.interactiveMs, interactiveOnPage: state.interactiveMs, started };
+  }
+  await page.waitForFunction(ready, count, { polling: 'raf', timeout: 30_000 });
+  const framesMs = Date.now() - started;
+  await page.focus('lam-cell-frame input.title-input');
+  await page.keyboard.press('End');
+  await page.keyboard.press('Space');
+  await page.waitForFunction(answered, undefined, { polling: 'raf', timeout: 10_000 });
+  const interactiveMs = Date.now() - started;
+  // The page's own clock at the moment it became interactive.
+  const interactiveOnPage = (await page.evaluate(() => performance.now())) - (Date.now() - started - interactiveMs);
+  return { framesMs, interactiveMs, interactiveOnPage, started };
+}
+
 interface Measure {
   framesMs: number;
   interactiveMs: number;
@@ -209,45 +310,22 @@ interface Measure {
   fontsBeforeInteractive: number;
 }
 
-async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, reload: boolean): Promise<Measure> {
-  const started = Date.now();
-  if (reload) await page.reload({ waitUntil: 'commit' });
-  else await page.goto(`${APP}/studies/${studyId}`, { waitUntil: 'commit' });
-  await page.waitForFunction(
-    (count) => {
-      const frames = [...document.querySelectorAll('lam-cell-frame')];
-      const onScreen = frames.filter((f) => f.getBoundingClientRect().top < window.innerHeight);
-      // (No named helper in here: the page gets this function's source without the bundler's helpers.)
-      return (
-        frames.length === count &&
-        onScreen.length > 0 &&
-        onScreen.every((f) => f.querySelector('.body > *') !== null && f.querySelector('.body .body-pending') === null) &&
-        document.querySelector('lam-save-indicator') !== null
-      );
-    },
-    CELLS,
-    { polling: 'raf', timeout: 30_000 },
-  );
-  // The page answers: a keystroke in a title is taken up and the draft waits to save.
-  const framesMs = Date.now() - started;
+async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, reload: boolean, way: Way): Promise<Measure> {
+  const { framesMs, interactiveMs, interactiveOnPage, started } = await openAndMeasure(page, reload ? null : `${APP}/studies/${studyId}`, CELLS, way);
+  // The space typed is taken back, so the title stays as it was.
   await page.focus('lam-cell-frame input.title-input');
   await page.keyboard.press('End');
-  await page.keyboard.press('Space');
-  await page.waitForFunction(() => /waiting|Saving/.test(document.querySelector('lam-save-indicator')?.textContent ?? ''), undefined, { polling: 'raf', timeout: 10_000 });
-  const interactiveMs = Date.now() - started;
   await page.keyboard.press('Backspace');
   await page.waitForFunction(() => document.querySelectorAll('.body-pending').length === 0, undefined, { polling: 'raf', timeout: 30_000 });
   const allBodiesMs = Date.now() - started;
   const resources = await page.evaluate(() =>
     performance.getEntriesByType('resource').map((r) => ({ name: (r as PerformanceResourceTiming).name, end: r.responseEnd, size: (r as PerformanceResourceTiming).encodedBodySize })),
   );
-  const interactiveAt = await page.evaluate(() => performance.now());
   const plotEntry = resources.find((r) => plotChunks.has(r.name.split('/').pop() ?? ''));
-  // The page's own clock at the moment it became interactive.
-  const interactiveOnPage = interactiveAt - (Date.now() - started - interactiveMs);
+  // The first screen has one plot (the pressure cell's); the analyses' plots are drawn when scrolled to.
   let plotsDrawnMs: number | null = null;
   try {
-    await page.waitForFunction(() => document.querySelectorAll('lam-plot .main-svg').length >= 4, undefined, { timeout: 30_000 });
+    await page.waitForFunction(() => document.querySelectorAll('lam-plot .main-svg').length >= 1, undefined, { timeout: 15_000 });
     plotsDrawnMs = Date.now() - started;
   } catch {
     plotsDrawnMs = null;
@@ -265,6 +343,51 @@ async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, r
     fontsBeforeInteractive: resources.filter((r) => /\.(woff2?|ttf|otf)$/.test(r.name) && r.end <= interactiveOnPage).reduce((n, r) => n + r.size, 0),
   };
 }
+
+/** A static page with what both measures look for (one frame, one title, a save indicator) and no framework. */
+const FLOOR_PAGE = `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>floor</title></head><body>
+<lam-cell-frame><div class="body"><p>A cell</p></div><input class="title-input" value="Cruise 1" aria-label="Title"></lam-cell-frame>
+<lam-save-indicator>All edits saved</lam-save-indicator>
+<script>document.querySelector('input').addEventListener('input', () => { document.querySelector('lam-save-indicator').textContent = 'Edits waiting to save'; });</script>
+</body></html>`;
+
+/** Both measures of the static page, cold and warm, 5 opens each, from a bare HTTP server. */
+async function measureFloor(browser: Browser): Promise<Record<Way, { cold: number[]; warm: number[] }>> {
+  const server = createServer((_req, res) => {
+    res.setHeader('content-type', 'text/html; charset=utf-8');
+    res.setHeader('cache-control', 'no-cache');
+    res.end(FLOOR_PAGE);
+  });
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/`;
+  const result: Record<Way, { cold: number[]; warm: number[] }> = { page: { cold: [], warm: [] }, playwright: { cold: [], warm: [] } };
+  const newContext = async (way: Way) => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    if (way === 'page') await context.addInitScript(pageWatch(1));
+    return context;
+  };
+  try {
+    for (let i = 0; i < ROUNDS; i++)
+      for (const way of WAYS) {
+        const context = await newContext(way);
+        result[way].cold.push((await openAndMeasure(await context.newPage(), url, 1, way)).interactiveMs);
+        await context.close();
+      }
+    const pages = new Map<Way, Page>();
+    for (const way of WAYS) {
+      const page = await (await newContext(way)).newPage();
+      await openAndMeasure(page, url, 1, way);
+      pages.set(way, page);
+    }
+    for (let i = 0; i < ROUNDS; i++) for (const way of WAYS) result[way].warm.push((await openAndMeasure(pages.get(way)!, null, 1, way)).interactiveMs);
+    for (const page of pages.values()) await page.context().close();
+  } finally {
+    server.close();
+  }
+  return result;
+}
+
+const WAYS: Way[] = ['page', 'playwright'];
 
 function median(values: number[]): number {
   const sorted = [...values].sort((a, b) => a - b);
@@ -291,38 +414,58 @@ try {
   const storage = await signIn.storageState();
   await signIn.close();
 
-  const cold: Measure[] = [];
-  for (let i = 0; i < ROUNDS; i++) {
+  // The two measures alternate, so both see the same minutes of whatever else runs on the machine.
+  const studyContext = async (way: Way) => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, storageState: storage });
-    cold.push(await openStudy(await context.newPage(), studyId, plotChunks, false));
-    await context.close();
+    if (way === 'page') await context.addInitScript(pageWatch(CELLS));
+    return context;
+  };
+  const cold: Record<Way, Measure[]> = { page: [], playwright: [] };
+  const warm: Record<Way, Measure[]> = { page: [], playwright: [] };
+  for (let i = 0; i < ROUNDS; i++)
+    for (const way of i % 2 ? [...WAYS].reverse() : WAYS) {
+      const context = await studyContext(way);
+      cold[way].push(await openStudy(await context.newPage(), studyId, plotChunks, false, way));
+      await context.close();
+    }
+  const warmPages = new Map<Way, Page>();
+  for (const way of WAYS) {
+    const page = await (await studyContext(way)).newPage();
+    await openStudy(page, studyId, plotChunks, false, way);
+    warmPages.set(way, page);
   }
-  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, storageState: storage });
-  const page = await context.newPage();
-  await openStudy(page, studyId, plotChunks, false);
-  const warm: Measure[] = [];
-  for (let i = 0; i < ROUNDS; i++) warm.push(await openStudy(page, studyId, plotChunks, true));
-  await context.close();
+  for (let i = 0; i < ROUNDS; i++)
+    for (const way of i % 2 ? [...WAYS].reverse() : WAYS) warm[way].push(await openStudy(warmPages.get(way)!, studyId, plotChunks, true, way));
+  for (const page of warmPages.values()) await page.context().close();
+  const floor = await measureFloor(browser);
 
   out(`Machine at end: ${machine()}`);
   out(`\n${CELLS}-cell study (flow, Joukowski Cp, analysis with 4 plots, flat plate, note ×4), all run, headless chromium:`);
-  out(`  frames and first-screen bodies drawn, cold cache: ${stats(cold.map((m) => m.framesMs))}`);
-  out(`  interactive, cold cache: ${stats(cold.map((m) => m.interactiveMs))}`);
-  out(`  interactive, warm cache: ${stats(warm.map((m) => m.interactiveMs))}`);
-  out(`  every cell body drawn (the rest while the browser is idle), cold: ${stats(cold.map((m) => m.allBodiesMs))}`);
-  const drawn = cold.map((m) => m.plotsDrawnMs).filter((v): v is number => v !== null);
-  if (drawn.length) out(`  plots drawn (after the lazy chunk), cold: ${stats(drawn)}`);
-  out(`  JS fetched by a cold open, plots drawn (encoded): ${kb(cold[0]!.jsBytes)}`);
-  out(`  plot chunk fetched before interactive: ${cold.some((m) => m.plotFetchedBeforeInteractive) ? 'yes (in some rounds)' : 'no'}`);
-  out(`  JS and fonts fetched before interactive, cold (as sent): JS ${kb(median(cold.map((m) => m.jsBeforeInteractive)))}, fonts ${kb(median(cold.map((m) => m.fontsBeforeInteractive)))}`);
+  out('  noticed in the page (each animation frame; the keystroke typed after the paint), from the start of the navigation:');
+  out(`    frames and first-screen bodies drawn and painted, cold cache: ${stats(cold.page.map((m) => m.framesMs))}`);
+  out(`    interactive, cold cache: ${stats(cold.page.map((m) => m.interactiveMs))}`);
+  out(`    interactive, warm cache: ${stats(warm.page.map((m) => m.interactiveMs))}`);
+  out(`    floor, a static page the same way: cold ${stats(floor.page.cold)}; warm ${stats(floor.page.warm)}`);
+  out("  noticed by Playwright (its wait, focus and key presses; the earlier measure), from before the navigation:");
+  out(`    frames and first-screen bodies drawn, cold cache: ${stats(cold.playwright.map((m) => m.framesMs))}`);
+  out(`    interactive, cold cache: ${stats(cold.playwright.map((m) => m.interactiveMs))}`);
+  out(`    interactive, warm cache: ${stats(warm.playwright.map((m) => m.interactiveMs))}`);
+  out(`    floor, a static page the same way: cold ${stats(floor.playwright.cold)}; warm ${stats(floor.playwright.warm)}`);
+  const allCold = [...cold.page, ...cold.playwright];
+  out(`  every cell body drawn (the rest while the browser is idle), cold: ${stats(allCold.map((m) => m.allBodiesMs))}`);
+  const drawn = allCold.map((m) => m.plotsDrawnMs).filter((v): v is number => v !== null);
+  out(`  first-screen plot drawn (after the lazy chunk), cold: ${drawn.length ? stats(drawn) : 'not within 15 s'}`);
+  out(`  JS fetched by a cold open, plots drawn (encoded): ${kb(allCold[0]!.jsBytes)}`);
+  out(`  plot chunk fetched before interactive: ${allCold.some((m) => m.plotFetchedBeforeInteractive) ? 'yes (in some rounds)' : 'no'}`);
+  out(`  JS and fonts fetched before interactive, cold (as sent): JS ${kb(median(cold.page.map((m) => m.jsBeforeInteractive)))}, fonts ${kb(median(cold.page.map((m) => m.fontsBeforeInteractive)))}`);
 
-  const coldMedian = median(cold.map((m) => m.interactiveMs));
-  const coldMax = Math.max(...cold.map((m) => m.interactiveMs));
-  const warmMedian = median(warm.map((m) => m.interactiveMs));
+  const coldMedian = median(cold.page.map((m) => m.interactiveMs));
+  const coldMax = Math.max(...cold.page.map((m) => m.interactiveMs));
+  const warmMedian = median(warm.page.map((m) => m.interactiveMs));
   const verdict = (ok: boolean) => (ok ? 'met' : 'NOT met');
   out('');
-  out(`study interactive, cold cache: median ${coldMedian.toFixed(0)} ms, max ${coldMax.toFixed(0)} ms: target ≤ 1000 ms median, ≤ 1200 ms max: ${verdict(coldMedian <= 1000 && coldMax <= 1200)}`);
-  out(`study interactive, warm cache: median ${warmMedian.toFixed(0)} ms: target ≤ 500 ms: ${verdict(warmMedian <= 500)}`);
+  out(`study interactive (noticed in the page), cold cache: median ${coldMedian.toFixed(0)} ms, max ${coldMax.toFixed(0)} ms: target ≤ 1000 ms median, ≤ 1200 ms max: ${verdict(coldMedian <= 1000 && coldMax <= 1200)}`);
+  out(`study interactive (noticed in the page), warm cache: median ${warmMedian.toFixed(0)} ms: target ≤ 500 ms: ${verdict(warmMedian <= 500)}`);
   out(`JS before a study is interactive (built first screen, gzip): ${kb(firstScreenGzip)}${zodFirstScreen ? ', zod included' : ', no zod'}: target ≤ 300 kB: ${verdict(firstScreenGzip <= 300 * 1024)}`);
   out(`icon font: ${kb(icons.bytes)}, ${icons.subset ? 'the committed subset of the icons the app names' : 'NOT the committed subset'}: target only the icons used: ${verdict(icons.subset)}`);
 } finally {
