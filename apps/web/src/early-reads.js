@@ -70,5 +70,13 @@
       })
       .catch(function () {});
   }
+  // The first screen's other fonts (the bold of the titles and the icons): a browser asks for a font
+  // only when styled text first needs it, which on a study is half a second after this point. The
+  // stylesheet that names them has loaded by now (a script waits for the style sheets before it).
+  if (document.fonts && typeof document.fonts.load === 'function') {
+    ['700 1em Lato', '1em "Laminote Symbols"'].forEach(function (font) {
+      document.fonts.load(font).catch(function () {});
+    });
+  }
   window.laminoteEarlyReads = { startedAt: startedAt, reads: reads };
 })();
