@@ -18,7 +18,7 @@ import { CELL_BODIES, type CellBodyComponent } from './cell-bodies';
     } @else if (body.error()) {
       <p class="body-pending" role="alert">This cell could not be drawn: its code did not load. Reload the page to try again.</p>
     } @else {
-      <p class="body-pending" aria-busy="true">Drawing…</p>
+      <p class="body-pending" aria-busy="true" [style.min-height.px]="placeholderHeight()">Drawing…</p>
     }
   `,
   styles: `
@@ -41,4 +41,28 @@ export class CellBody {
     loader: ({ params }) => CELL_BODIES[params](),
   });
   protected readonly inputs = computed(() => ({ cell: this.cell() }));
+  /** About the drawn body's height, so the page does not jump as the bodies come and the first screen is measured right. */
+  protected readonly placeholderHeight = computed(() => {
+    const cell = this.cell();
+    const [withResult, withoutResult] = BODY_HEIGHTS[cell.kind];
+    return cell.output || cell.lastGoodOutput ? withResult : withoutResult;
+  });
 }
+
+/**
+ * Each kind's drawn body, in CSS pixels inside the frame's padding, with a result and without (measured in
+ * a 1280-pixel-wide window on the demo studies; a narrower window wraps more, so a drawn body may be taller).
+ */
+const BODY_HEIGHTS: { readonly [K in DraftCell['kind']]: readonly [number, number] } = {
+  flow: [485, 375],
+  pressure: [980, 615],
+  section: [980, 615],
+  body: [385, 375],
+  analysis: [1180, 235],
+  polar: [880, 280],
+  sweep: [880, 185],
+  comparison: [580, 280],
+  flatPlate: [655, 375],
+  leadingEdge: [275, 275],
+  note: [90, 90],
+};

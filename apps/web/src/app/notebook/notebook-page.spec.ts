@@ -6,7 +6,7 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import type { Branch, Draft, Me } from '@laminote/contracts';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, STUDY_ID, me, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
 import { AUTOSAVE_DELAY_MS } from '../shared/draft-session';
@@ -246,6 +246,66 @@ describe('NotebookPage', () => {
     expect(await frames[8].hasActions()).toBe(true);
     expect((fixture.nativeElement as HTMLElement).querySelectorAll('.body-pending')).toHaveLength(0);
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('Reading 9');
+  });
+
+  it('draws at once the bodies of the cells whose frames start on the screen, and the others one per idle moment', async () => {
+    // Frames laid out 500 px apart in a 768-px window: the first two start on the screen.
+    const rect = vi.spyOn(HTMLElement.prototype, 'getBoundingClientRect').mockImplementation(function (this: HTMLElement) {
+      const frames = Array.from(document.querySelectorAll('lam-cell-frame'));
+      const top = this.tagName === 'LAM-CELL-FRAME' ? frames.indexOf(this) * 500 : 0;
+      return { top, bottom: top + 400, left: 0, right: 800, width: 800, height: 400, x: 0, y: top, toJSON: () => ({}) } as DOMRect;
+    });
+    vi.spyOn(window, 'innerHeight', 'get').mockReturnValue(768);
+    // Idle moments come when the test says (Angular's own idle triggers wait in the same queue).
+    const idle: (() => void)[] = [];
+    vi.stubGlobal('requestIdleCallback', (next: () => void) => idle.push(next));
+    vi.stubGlobal('cancelIdleCallback', () => undefined);
+    try {
+      const cells = Array.from({ length: 5 }, (_, i) => cell('note', `11111111-2222-4333-8444-5555555557${String(i).padStart(2, '0')}`, { title: `Note ${i + 1}`, inputs: { markdown: `Reading ${i + 1}` } }));
+      await signInAs(asRole('engineer'));
+      const fixture = TestBed.createComponent(NotebookPage);
+      fixture.componentRef.setInput('studyId', STUDY_ID);
+      fixture.detectChanges();
+      http.expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}` }).flush(study());
+      http.expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}/branches` }).flush([branch]);
+      await settle();
+      http.expectOne(`/api/branches/${BRANCH_ID}/draft`).flush(draft(cells));
+      const page = fixture.nativeElement as HTMLElement;
+      const pending = () => page.querySelectorAll('.body-pending').length;
+      const until = async (done: () => boolean) => {
+        for (let i = 0; i < 100 && !done(); i++) await settle(10);
+      };
+      await until(() => page.textContent!.includes('Reading 2') && idle.length > 0);
+      await settle(50);
+      expect(page.querySelectorAll('lam-cell-frame')).toHaveLength(5);
+      // The two on the screen are drawn; the three below wait for the browser to be idle.
+      expect(page.textContent).toContain('Reading 2');
+      expect(page.textContent).not.toContain('Reading 3');
+      expect(page.querySelectorAll('.body-pending')).toHaveLength(3);
+      // Each idle moment draws one more body.
+      const idleMoment = async () => {
+        const before = pending();
+        for (const next of idle.splice(0)) next();
+        await until(() => pending() < before && idle.length > 0);
+      };
+      await idleMoment();
+      const frames = page.querySelectorAll('lam-cell-frame');
+      expect(frames[2]!.querySelector('.body-pending')).toBeNull();
+      expect(frames[3]!.querySelector('.body-pending')).not.toBeNull();
+      expect(pending()).toBe(2);
+      await idleMoment();
+      expect(pending()).toBe(1);
+      for (const next of idle.splice(0)) next();
+      await until(() => pending() === 0);
+      for (const next of idle.splice(0)) next();
+      await fixture.whenStable();
+      expect(pending()).toBe(0);
+      expect(page.textContent).toContain('Reading 5');
+    } finally {
+      rect.mockRestore();
+      vi.restoreAllMocks();
+      vi.unstubAllGlobals();
+    }
   });
 
   for (const role of ['viewer', 'reviewer'] as const) {

@@ -25,7 +25,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
-import type { Branch, Draft, ProjectAccess, Study } from '@laminote/contracts';
+import type { Branch, Draft, DraftCell, ProjectAccess, Study } from '@laminote/contracts';
 import type { CellKind } from '@laminote/contracts/cell-kinds';
 import { can } from '@laminote/contracts/access';
 import { debounceTime, forkJoin, map, switchMap, throwError } from 'rxjs';
@@ -37,6 +37,7 @@ import { roleLabel } from '../shared/role-label';
 import { StudyApi } from '../shared/study-api';
 import { AddCell } from './add-cell';
 import { CellBody } from './cell-body';
+import { CELL_BODIES } from './cell-bodies';
 import { CellFrame } from './cell-frame';
 import { cellKindInfo } from '../shared/cell-kinds';
 import { type ConflictChoice, ConflictDialog } from './conflict-dialog';
@@ -58,9 +59,14 @@ interface OpenedStudy {
   readonly draft: Draft;
 }
 
-/** Cell bodies drawn with the first screen; the rest follow in small batches while the browser is idle. */
-const FIRST_BODIES = 3;
-const BODIES_PER_BATCH = 2;
+/**
+ * Cell bodies drawn at once: the top cell's, then every other cell whose frame starts on the first
+ * screen (measured with the bodies' placeholders, which are about as tall as the drawn bodies). The rest
+ * follow one body per idle moment of the browser, so a keystroke never waits behind more than one body.
+ */
+const FIRST_BODIES = 1;
+/** The code of the first cells' kinds is fetched with the page, before their bodies are drawn. */
+const PREFETCHED_CELLS = 6;
 
 /** `?branch=` names a branch by id or by name; without it the study opens on `main`. */
 function pickBranch(branches: Branch[], wanted: string | undefined): Branch | undefined {
@@ -192,7 +198,7 @@ export class NotebookPage {
 
   /**
    * How many cells, from the top, have their bodies drawn. A long study shows every frame at once and
-   * the bodies of the first screen, then draws the others a few at a time between the person's input,
+   * the bodies of the first screen, then draws the others one at a time between the person's input,
    * so the page answers at once. A frame gets its buttons with its body. A cell the person adds, copies,
    * brings back or goes to is drawn at once.
    */
@@ -207,7 +213,7 @@ export class NotebookPage {
       const opened = this.opened();
       if (!opened) return;
       this.session.open(opened.branch.id, opened.draft);
-      this.drawBodiesProgressively(opened.draft.cells.length);
+      this.drawBodiesProgressively(opened.draft.cells);
     });
     effect(() => {
       this.session.editable.set(this.editable());
@@ -256,7 +262,9 @@ export class NotebookPage {
     }
   }
 
-  private drawBodiesProgressively(count: number): void {
+  private drawBodiesProgressively(cells: readonly DraftCell[]): void {
+    const count = cells.length;
+    for (const kind of new Set(cells.slice(0, PREFETCHED_CELLS).map((cell) => cell.kind))) void CELL_BODIES[kind]().catch(() => undefined);
     this.bodiesShown.set(FIRST_BODIES);
     if (count <= FIRST_BODIES) return;
     // The page counts as busy until every body is drawn (tests and whenStable wait for it).
@@ -266,10 +274,30 @@ export class NotebookPage {
     const step = () => {
       // The person may have left the study before the browser was idle: nothing more to draw.
       if (this.destroyRef.destroyed || this.bodiesShown() >= count) return done();
-      this.bodiesShown.update((n) => n + BODIES_PER_BATCH);
+      this.bodiesShown.update((n) => n + 1);
       afterNextRender(() => idle(step), { injector: this.injector });
     };
-    afterNextRender(() => idle(step), { injector: this.injector });
+    // Once the frames are laid out (the browser lays them out for this frame anyway): every cell whose
+    // frame starts on the screen gets its body now, the others while the browser is idle.
+    afterNextRender(
+      () => {
+        if (this.destroyRef.destroyed) return done();
+        const onScreen = this.framesOnScreen();
+        if (onScreen <= this.bodiesShown()) return idle(step);
+        this.bodiesShown.set(Math.min(onScreen, count));
+        afterNextRender(() => idle(step), { injector: this.injector });
+      },
+      { injector: this.injector },
+    );
+  }
+
+  /** How many frames, from the top, start inside the window. */
+  private framesOnScreen(): number {
+    const bottom = typeof window === 'undefined' ? 0 : window.innerHeight;
+    const frames = this.host.nativeElement.querySelectorAll('lam-cell-frame');
+    let count = 0;
+    while (count < frames.length && frames[count]!.getBoundingClientRect().top < bottom) count++;
+    return count;
   }
 
   // ── Cell actions ─────────────────────────────────────────────────────────────────────────────

@@ -22,8 +22,10 @@ export class ScrollCue {
   constructor() {
     const destroyRef = inject(DestroyRef);
     afterNextRender(() => {
-      this.measure();
-      if (typeof ResizeObserver === 'undefined') return;
+      if (typeof ResizeObserver === 'undefined') return this.measure();
+      // The observer reports each box once as soon as it is laid out, then on every change: the first
+      // measure waits for the browser's own layout instead of forcing one right after Angular's render
+      // (with four analysis tables, that forced layout of the whole notebook cost 30-60 ms an open).
       const observer = new ResizeObserver(() => this.measure());
       observer.observe(this.element);
       const content = this.element.firstElementChild;
