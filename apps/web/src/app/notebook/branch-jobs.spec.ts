@@ -58,6 +58,21 @@ describe('BranchJobs', () => {
     expect([...(jobs.computedCells().get(job(0).jobId) ?? [])]).toEqual([FLOW, SWEEP]);
   });
 
+  it('lists active jobs oldest first and the last that ended by when it ended', () => {
+    const other = (id: string, createdAt: string, state: Job['state'] = 'running', finishedAt: string | null = null): Job => ({ ...job(1, state), jobId: id, createdAt, finishedAt });
+    events.next({
+      type: 'snapshot',
+      jobs: [
+        other('11111111-2222-4333-8444-5555555555a3', '2026-12-02T06:00:09.000Z'),
+        other('11111111-2222-4333-8444-5555555555a1', '2026-12-02T05:59:59.999Z'),
+        other('11111111-2222-4333-8444-5555555555a4', '2026-12-02T05:00:00.000Z', 'completed', '2026-12-02T05:10:00.000Z'),
+        other('11111111-2222-4333-8444-5555555555a5', '2026-12-02T05:00:00.000Z', 'cancelled', '2026-12-02T05:30:00.000Z'),
+      ],
+    });
+    expect(jobs.active().map((j) => j.jobId.slice(-2))).toEqual(['a1', 'a3']);
+    expect(jobs.lastFinished()?.jobId.slice(-2)).toBe('a5');
+  });
+
   it('never shows a count going back when events overtake one another', () => {
     events.next({ type: 'job', job: job(600) });
     events.next({ type: 'job', job: job(550) });

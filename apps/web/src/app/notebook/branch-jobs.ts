@@ -2,6 +2,7 @@ import { DestroyRef, Injectable, computed, inject, signal } from '@angular/core'
 import type { Job, JobEvent } from '@laminote/contracts';
 import { jobIsActive } from '@laminote/contracts/limits';
 import { Subject, type Subscription, firstValueFrom } from 'rxjs';
+import { byTime } from '../shared/format';
 import { JobsApi } from '../shared/jobs-api';
 
 /**
@@ -19,9 +20,9 @@ export class BranchJobs {
   /** An output landed (cellId), or a job finished (cellId null): the draft has news. */
   readonly outputs = this.landed.asObservable();
   /** Active jobs, oldest first. */
-  readonly active = computed(() => [...this.jobsSignal().values()].filter((job) => jobIsActive(job.state)).sort((a, b) => a.createdAt.localeCompare(b.createdAt)));
+  readonly active = computed(() => [...this.jobsSignal().values()].filter((job) => jobIsActive(job.state)).sort((a, b) => byTime(a.createdAt, b.createdAt)));
   /** The last job that ended while the page looked on, or was ending when it opened. */
-  readonly lastFinished = computed(() => [...this.jobsSignal().values()].filter((job) => !jobIsActive(job.state)).sort((a, b) => (b.finishedAt ?? '').localeCompare(a.finishedAt ?? ''))[0] ?? null);
+  readonly lastFinished = computed(() => [...this.jobsSignal().values()].filter((job) => !jobIsActive(job.state)).sort((a, b) => byTime(b.finishedAt ?? '', a.finishedAt ?? ''))[0] ?? null);
   /** Progress of each cell that an active job is computing, by cell id. */
   readonly cells = computed(() => {
     const out = new Map<string, { done: number; total: number; jobId: string }>();

@@ -26,6 +26,7 @@ import {
 } from 'rxjs';
 import { toProblem } from '../core/problem';
 import { defaultInputs, cellKindInfo } from './cell-kinds';
+import { byTime } from './format';
 import { type CellChange, type SavedCell, diffStacks, toSavedCell } from './draft-diff';
 import { JobsApi } from './jobs-api';
 import { NotebookApi } from './notebook-api';
@@ -136,7 +137,7 @@ export class DraftSession {
     const trash = (this.draftSignal()?.trash ?? [])
       .filter((cell) => !present.has(cell.cellId) && !localIds.has(cell.cellId))
       .map((cell): RemovedCell => ({ ...toSavedCell(cell), deletedAt: cell.deletedAt, deletedBy: cell.deletedBy, deletedByName: cell.deletedByName ?? null, pending: false }))
-      .sort((a, b) => (b.deletedAt ?? '').localeCompare(a.deletedAt ?? ''));
+      .sort((a, b) => byTime(b.deletedAt ?? '', a.deletedAt ?? ''));
     return [...local, ...trash];
   });
 
