@@ -200,7 +200,13 @@ export class JobRunner {
     const landed: JobWork[] = [];
     const chunks: PgBoss.JobInsert<WorkMessage>[] = [];
     for (const w of work) {
-      if (w.key === null || stored.has(w.key)) continue;
+      if (w.key === null) continue;
+      // Stored before this job (another run computed the same inputs): shown with the first outputs that
+      // land, not only when the whole job ends, so the cell does not wait behind a long sweep.
+      if (stored.has(w.key)) {
+        landed.push(w);
+        continue;
+      }
       const failed = await this.failedUpstream(w, work);
       if (failed) {
         await this.outputs.put(this.db, w.key, w.kind, ENGINE_VERSION, { status: 'error', resultJson: null, error: failed, durationMs: 0 });
