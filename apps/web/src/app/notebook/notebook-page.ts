@@ -28,7 +28,7 @@ import { RouterLink } from '@angular/router';
 import type { Branch, Draft, DraftCell, ProjectAccess, Study } from '@laminote/contracts';
 import type { CellKind } from '@laminote/contracts/cell-kinds';
 import { can } from '@laminote/contracts/access';
-import { debounceTime, forkJoin, map, switchMap, throwError } from 'rxjs';
+import { Subject, debounceTime, forkJoin, map, merge, switchMap, throwError } from 'rxjs';
 import { Auth } from '../core/auth';
 import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
@@ -226,16 +226,27 @@ export class NotebookPage {
       untracked(() => (branchId && follow ? this.jobs.follow(branchId) : this.jobs.stop()));
     });
     this.session.queued.pipe(takeUntilDestroyed()).subscribe((job) => this.jobs.add(job));
-    this.jobs.outputs.pipe(debounceTime(250), takeUntilDestroyed()).subscribe(() => void this.session.refreshOutputs());
-    // A cell this page runs stops saying "Computing…" once its job has stored its output, while the
-    // rest of the job goes on; the draft is read again to show that output.
+    // Outputs fill in as they land: the draft is read again once the notices pause. A cell this page runs
+    // stops saying "Computing…" once its job has stored its output (the job's own per-cell count tells,
+    // also to a page that connected after the output's notice), while the rest of the job goes on; its
+    // read is the same one as the notices'.
+    const landed = new Map<string, string>();
     const settling = new Set<string>();
+    const countsMoved = new Subject<void>();
+    merge(this.jobs.outputs, countsMoved)
+      .pipe(debounceTime(250), takeUntilDestroyed())
+      .subscribe(() => {
+        const cells = new Map(landed);
+        landed.clear();
+        for (const cellId of cells.keys()) settling.add(cellId);
+        void this.session.refreshOutputs(cells).finally(() => cells.forEach((_, cellId) => settling.delete(cellId)));
+      });
     effect(() => {
       const computedCells = this.jobs.computedCells();
-      const landed = [...this.session.runJobs()].filter(([cellId, jobId]) => !settling.has(cellId) && computedCells.get(jobId)?.has(cellId)).map(([cellId]) => cellId);
-      if (landed.length === 0) return;
-      for (const cellId of landed) settling.add(cellId);
-      untracked(() => void this.session.refreshOutputs(landed).finally(() => landed.forEach((cellId) => settling.delete(cellId))));
+      const fresh = [...this.session.runJobs()].filter(([cellId, jobId]) => !landed.has(cellId) && !settling.has(cellId) && computedCells.get(jobId)?.has(cellId));
+      if (fresh.length === 0) return;
+      for (const [cellId, jobId] of fresh) landed.set(cellId, jobId);
+      countsMoved.next();
     });
     effect(() => {
       const opened = this.opened();

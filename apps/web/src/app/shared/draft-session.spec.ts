@@ -133,11 +133,16 @@ describe('DraftSession, a run queued as a job', () => {
     expect([...session.running()]).toEqual([FLOW_ID, PRESSURE_ID, ANALYSIS_ID]);
     expect([...session.runJobs()]).toEqual([FLOW_ID, PRESSURE_ID, ANALYSIS_ID].map((id) => [id, JOB_ID]));
     // The job stored the flow cell's output; the page reads the draft and names what landed.
-    const refreshed = session.refreshOutputs([FLOW_ID]);
+    const refreshed = session.refreshOutputs(new Map([[FLOW_ID, JOB_ID]]));
     http.expectOne({ method: 'GET', url: DRAFT_URL }).flush(opened());
     await refreshed;
     expect([...session.running()]).toEqual([PRESSURE_ID, ANALYSIS_ID]);
     expect([...session.runJobs().keys()]).toEqual([PRESSURE_ID, ANALYSIS_ID]);
+    // Word of an output from an earlier job of the pressure cell's does not end this run of it.
+    const earlier = session.refreshOutputs(new Map([[PRESSURE_ID, '11111111-2222-4333-8444-5555555555a0']]));
+    http.expectOne({ method: 'GET', url: DRAFT_URL }).flush(opened());
+    await earlier;
+    expect([...session.running()]).toEqual([PRESSURE_ID, ANALYSIS_ID]);
     // The job ends: the rest stop computing too.
     http.expectOne({ method: 'GET', url: `/api/jobs/${JOB_ID}` }).flush({ ...job, state: 'completed', done: 3, finishedAt: '2026-12-02T06:01:00.000Z', ran: [] });
     await new Promise((resolve) => setTimeout(resolve, 0));

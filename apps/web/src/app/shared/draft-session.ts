@@ -400,15 +400,17 @@ export class DraftSession {
   /**
    * Takes the outputs that have landed since (a job's worker stored them): the server's draft, as long
    * as nobody else saved meanwhile (their save is for the autosave's conflict dialog to show). The cells
-   * named in `landed` have their outputs stored though the rest of their job goes on (a study's light
-   * cells land long before its sweep ends): once the draft is read they no longer say "Computing…".
+   * named in `landed` (cell id → the job that stored its output) have their outputs stored though the
+   * rest of their job goes on (a study's light cells land long before its sweep ends): once the draft is
+   * read they no longer say "Computing…", unless a newer run of theirs was queued meanwhile.
    */
-  async refreshOutputs(landed: readonly string[] = []): Promise<void> {
+  async refreshOutputs(landed: ReadonlyMap<string, string> = new Map()): Promise<void> {
     const branchId = this.branchId;
     if (!branchId) return;
     const seq = this.editSeq;
     const draft = await firstValueFrom(this.api.draft(branchId)).catch(() => null);
-    this.settle(landed);
+    const runJobs = this.runJobsSignal();
+    this.settle([...landed].filter(([cellId, jobId]) => runJobs.get(cellId) === jobId).map(([cellId]) => cellId));
     if (!draft || draft.revision !== this.revisionSignal() || this.conflictSignal()) return;
     const clean = seq === this.editSeq && this.editSeq === this.savedSeq;
     this.acceptServerDraft(draft, { keepLocalCells: !clean });
