@@ -100,8 +100,12 @@ export async function startTestStack(log: (line: string) => void, runSeed: (env:
         const server = startService('server', TSX, ['server/src/main.ts'], serverEnv, { quiet: !process.env['TEST_SERVER_LOGS'] });
         services.push(server);
         await waitForPort(HOST, appPort, 60_000, server.child);
-        // Runs are jobs: one worker process computes them, as under npm start.
-        services.push(startService('worker', TSX, ['server/src/jobs/worker-main.ts'], serverEnv, { quiet: !process.env['TEST_SERVER_LOGS'] }));
+        // Runs are jobs: one worker process computes them, as under npm start. It runs as one node
+        // process (tsx loaded as a module, not tsx's own launcher and a child), so its pid is the
+        // worker's: a browser test pauses it (SIGSTOP) to see a run under way without racing its end.
+        const worker = startService('worker', process.execPath, ['--import', 'tsx', 'server/src/jobs/worker-main.ts'], serverEnv, { quiet: !process.env['TEST_SERVER_LOGS'] });
+        services.push(worker);
+        Object.assign(env, { TEST_WORKER_PID: String(worker.child.pid) });
       },
     };
   } catch (err) {

@@ -35,6 +35,16 @@ async function api(method: 'GET' | 'POST' | 'PUT', path: string, body?: object) 
   return { status: res.status(), body: (await res.json()) as Record<string, unknown> };
 }
 
+/** Pause the job worker process (SIGSTOP, as a machine that has stalled) while fn runs, then let it go on. */
+async function whileWorkerPaused(fn: () => Promise<void>) {
+  process.kill(testEnv.workerPid, 'SIGSTOP');
+  try {
+    await fn();
+  } finally {
+    process.kill(testEnv.workerPid, 'SIGCONT');
+  }
+}
+
 const progressText = () => page.locator('lam-run-progress').first().textContent();
 const doneOf = async () => Number((/([\d,]+) of 2,003/.exec((await progressText()) ?? '')?.[1] ?? '-1').replace(/,/g, ''));
 
@@ -50,9 +60,10 @@ describe('a long sweep as a job, in the browser', () => {
     const branchId = ((await api('GET', `/api/studies/${studyId}/branches`)).body as unknown as { id: string }[])[0]!.id;
     // Exact potential flow past a symmetric Joukowski section (Milne-Thomson, "Theoretical Aerodynamics", ch. 7), 2 × 300 stations.
     // A long sweep even for a fast engine and workers that take work the moment it is queued: 2,000 Mach
-    // numbers (each a compressible layer of its own) over a 2 × 2,000-station section, several ms a case,
-    // so the run is still going when the test stops it and when it opens the page again.
-    const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 4001);
+    // numbers (each a compressible layer of its own) over a 2 × 4,000-station section. The engine is fast
+    // enough that the whole run takes seconds, so the test pauses the worker process (SIGSTOP) where it
+    // must see the run under way, rather than race the run's end.
+    const loop = joukowskiLoop({ re: -0.08, im: 0 }, 0, 8001);
     const table = [`# ${title}`, 'x y cp', ...loop.x.map((x, i) => `${x.toFixed(8)} ${loop.y[i]!.toFixed(8)} ${loop.cp[i]!.toFixed(8)}`)].join('\n');
     ids = { flow: randomUUID(), pressure: randomUUID(), analysis: randomUUID(), sweep: randomUUID() };
     const cells = [
@@ -68,19 +79,22 @@ describe('a long sweep as a job, in the browser', () => {
     await page.getByRole('button', { name: /Run study/ }).click();
     await page.locator('lam-run-progress').waitFor();
     await expect.poll(doneOf, { timeout: 60_000 }).toBeGreaterThan(40);
-    expect(await progressText()).toMatch(/Mach number envelope: [\d,]+ of 2,000 cases/);
-    // The sweep cell carries its own bar with the cases done.
-    await expect.poll(() => page.locator('lam-cell-progress').filter({ hasText: 'of 2,000 cases' }).count()).toBe(1);
-    // The light cells' outputs landed first: they show as computed while the sweep goes on, not
-    // "Computing…". The pressure cell's (its table is this study's own) was computed by this job; the flow
-    // cell's may have been stored before by another study with the same flow (the whole suite's order
-    // decides), and is shown as soon as the job finds it, not when the job ends.
-    for (const cellTitle of ['Joukowski 12 % (exact)', 'Cruise, Re 6 million'])
-      await expect.poll(async () => (await page.locator(`lam-cell-frame[data-cell-title="${cellTitle}"]`).getAttribute('class')) ?? '', { timeout: 10_000 }).toContain('lam-cell-state-current');
-    expect(await page.locator('lam-run-progress').count()).toBe(1);
-    await shot('jobs-1-running');
+    // Paused while the page is checked and the run stopped: the run is under way however fast the engine.
+    await whileWorkerPaused(async () => {
+      expect(await progressText()).toMatch(/Mach number envelope: [\d,]+ of 2,000 cases/);
+      // The sweep cell carries its own bar with the cases done.
+      await expect.poll(() => page.locator('lam-cell-progress').filter({ hasText: 'of 2,000 cases' }).count()).toBe(1);
+      // The light cells' outputs landed first: they show as computed while the sweep goes on, not
+      // "Computing…". The pressure cell's (its table is this study's own) was computed by this job; the flow
+      // cell's may have been stored before by another study with the same flow (the whole suite's order
+      // decides), and is shown as soon as the job finds it, not when the job ends.
+      for (const cellTitle of ['Joukowski 12 % (exact)', 'Cruise, Re 6 million'])
+        await expect.poll(async () => (await page.locator(`lam-cell-frame[data-cell-title="${cellTitle}"]`).getAttribute('class')) ?? '', { timeout: 10_000 }).toContain('lam-cell-state-current');
+      expect(await page.locator('lam-run-progress').count()).toBe(1);
+      await shot('jobs-1-running');
 
-    await page.getByRole('button', { name: 'Stop run' }).click();
+      await page.getByRole('button', { name: 'Stop run' }).click();
+    });
     await page.locator('lam-run-progress').waitFor({ state: 'detached', timeout: 30_000 });
     // What it had computed is kept; the sweep has no output yet.
     await expect.poll(async () => (await page.locator('lam-cell-frame[data-cell-title="Free transition"]').getAttribute('class')) ?? '', { timeout: 15_000 }).toContain('lam-cell-state-current');
@@ -98,11 +112,15 @@ describe('a long sweep as a job, in the browser', () => {
     expect(answer.status(), `${await answer.text().catch(() => '')} ${JSON.stringify(problems)}`).toBe(202);
     await page.locator('lam-run-progress').waitFor();
     await expect.poll(doneOf, { timeout: 60_000 }).toBeGreaterThan(100);
-    await page.reload();
-    await page.locator('lam-run-progress').waitFor();
-    // Not from zero: the stopped run's cases were kept, and the new run's count comes from the server.
-    expect(await doneOf()).toBeGreaterThan(100);
-    await shot('jobs-3-reopened');
+    // The worker is paused (SIGSTOP, as a machine that has stalled) while the page is opened again, so
+    // the run is still under way however fast the engine: the page shows it from the server's state.
+    await whileWorkerPaused(async () => {
+      await page.reload();
+      await page.locator('lam-run-progress').waitFor();
+      // Not from zero: the stopped run's cases were kept, and the new run's count comes from the server.
+      expect(await doneOf()).toBeGreaterThan(100);
+      await shot('jobs-3-reopened');
+    });
     await page.locator('lam-run-progress').waitFor({ state: 'detached', timeout: 240_000 });
     const sweep = page.locator('lam-cell-frame[data-cell-title="Mach number envelope"]');
     await expect.poll(async () => (await sweep.getAttribute('class')) ?? '', { timeout: 30_000 }).toContain('lam-cell-state-current');

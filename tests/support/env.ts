@@ -26,6 +26,10 @@ export const testEnv = {
   get smtpPort() {
     return Number(need('SMTP_PORT'));
   },
+  /** Only for the browser tests: the pid of the job worker process (one node process). */
+  get workerPid() {
+    return Number(need('TEST_WORKER_PID'));
+  },
   /** Only for the browser tests: the running app. */
   get appUrl() {
     return need('APP_URL');
