@@ -49,11 +49,19 @@ const engineByJob = new Map<string, { cases: number; engineCpuMs: number }>();
  * Starts a worker process (DATABASE_URL only, one compute thread) and waits until it takes work. Its
  * log is read at debug level for the engine's CPU time of each chunk ("sweep cases computed").
  * BENCH_CPU_PROF=dir writes each worker's CPU profile (node --cpu-prof) there. For diagnosis,
- * BENCH_WORKER_FLAGS adds Node/V8 options to each worker (e.g. "--trace-gc" or "--trace-deopt"), and
+ * BENCH_WORKER_FLAGS adds Node/V8 options to each worker (e.g. "--trace-gc" or "--trace-deopt"),
+ * BENCH_WORKER_FLAGS_B gives the even rounds' workers other options instead (see workerFlags), and
  * BENCH_WORKER_LOG=path keeps each worker's standard output (its log and any such trace) in path.<pid>.
  */
-function startWorker(): Promise<ChildProcess> {
-  const child = spawn(process.execPath, [...(process.env['BENCH_CPU_PROF'] ? ['--cpu-prof', '--cpu-prof-dir', process.env['BENCH_CPU_PROF']] : []), ...(process.env['BENCH_WORKER_FLAGS'] ? process.env['BENCH_WORKER_FLAGS'].split(/\s+/).filter(Boolean) : []), '--import', 'tsx', 'server/src/jobs/worker-main.ts'], {
+/**
+ * The Node/V8 options of a round's workers: BENCH_WORKER_FLAGS, or in the even rounds (2, 4, …)
+ * BENCH_WORKER_FLAGS_B when it is set, so two sets of options are held side by side on the same load
+ * (A B A B …; each round's line names its options).
+ */
+const workerFlags = (round: number): string => (round % 2 === 1 && process.env['BENCH_WORKER_FLAGS_B'] !== undefined ? process.env['BENCH_WORKER_FLAGS_B'] : (process.env['BENCH_WORKER_FLAGS'] ?? '')).trim();
+
+function startWorker(round: number): Promise<ChildProcess> {
+  const child = spawn(process.execPath, [...(process.env['BENCH_CPU_PROF'] ? ['--cpu-prof', '--cpu-prof-dir', process.env['BENCH_CPU_PROF']] : []), ...workerFlags(round).split(/\s+/).filter(Boolean), '--import', 'tsx', 'server/src/jobs/worker-main.ts'], {
     cwd: ROOT,
     env: { PATH: process.env['PATH'], DATABASE_URL: t.database.url, ENGINE_THREADS: '1', LOG_LEVEL: 'debug' },
     stdio: ['ignore', 'pipe', 'inherit'],
@@ -233,11 +241,11 @@ interface TimedRun {
  * sweep of WARM_UP cases each (as long-lived workers are; the in-process case is warmed up by as many).
  * CPU time is the worker processes' own: what the job costs, whatever else the machine is doing.
  */
-async function timedRun(workers: number): Promise<TimedRun> {
+async function timedRun(workers: number, round: number): Promise<TimedRun> {
   const label = `Bench ${workers} worker(s) ${randomUUID().slice(0, 8)}`;
   const warmUps = await Promise.all(Array.from({ length: WARM_JOBS }, (_, i) => newStudy(`${label} warm-up ${i + 1}`, WARM_UP * workers)));
   const branchId = await newStudy(label, CASES);
-  const procs = await Promise.all(Array.from({ length: workers }, () => startWorker()));
+  const procs = await Promise.all(Array.from({ length: workers }, () => startWorker(round)));
   const pids = procs.map((p) => p.pid!);
   const warmUpCpu = cpuSince(pids);
   for (const warmUp of warmUps) await runToEnd(warmUp);
@@ -298,6 +306,8 @@ interface Round {
   /** For two workers, the one-worker round's lone loop too. */
   lone: CaseCost;
   load: number;
+  /** The workers' Node/V8 options (workerFlags). */
+  flags: string;
   /** The lone loop's cases computed one at a time (computeSweepCase), as workers did before the chunk entry. */
   oneByOne: CaseCost;
 }
@@ -316,8 +326,8 @@ try {
     const lone = await inProcessCases();
     for (const workers of WORKER_COUNTS) {
       const loop = workers === 1 ? lone : await inProcessPair();
-      const run = await timedRun(workers);
-      rounds.push({ workers, run, loop, lone, load: loadavg()[0]!, oneByOne });
+      const run = await timedRun(workers, round);
+      rounds.push({ workers, run, loop, lone, load: loadavg()[0]!, oneByOne, flags: workerFlags(round) });
     }
   }
   const pct = (x: number) => `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
@@ -332,7 +342,7 @@ try {
     of.forEach((r, i) => {
       out(
         `    round ${i + 1}: loop ${ms(r.loop.cpuMs)} (engine ${ms(r.loop.engineCpuMs)}) | job ${perCase(r.run.cpuMs)} (engine ${perCase(r.run.engineCpuMs)}): overhead ${pct(overhead(r))}` +
-          ` = engine in the job ${pct(engineShift(r))} × job code ${pct(jobCode(r))}${n > 1 ? `; against one loop ${pct(overhead(r, r.lone))}` : ''}; wall ${(r.run.wallMs / 1000).toFixed(2)} s; load ${r.load.toFixed(1)}`,
+          ` = engine in the job ${pct(engineShift(r))} × job code ${pct(jobCode(r))}${n > 1 ? `; against one loop ${pct(overhead(r, r.lone))}` : ''}; wall ${(r.run.wallMs / 1000).toFixed(2)} s; load ${r.load.toFixed(1)}${r.flags ? `; workers ${r.flags}` : ''}`,
       );
       out(
         `      worker CPU: main thread${n > 1 ? 's' : ''} ${perCase(r.run.mainMs)}, busiest other thread${n > 1 ? 's' : ''} ${perCase(r.run.computeMs)}, the rest ${perCase(r.run.cpuMs - r.run.mainMs - r.run.computeMs)};` +
@@ -342,6 +352,12 @@ try {
     out(`    job overhead (target < 20 %): ${spread(of.map((r) => overhead(r)))}${n > 1 ? `; against one loop ${spread(of.map((r) => overhead(r, r.lone)))}` : ''}`);
     out(`      of which the job's code (drift-free): ${spread(of.map(jobCode))}; the engine in the job against the loop's: ${spread(of.map(engineShift))}`);
     out(`      median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s; idle worker ${median(of.map((r) => r.run.idleCpuMsPerS)).toFixed(1)} ms CPU a second (included above)`);
+    if (process.env['BENCH_WORKER_FLAGS_B'] !== undefined) {
+      for (const flags of new Set(of.map((r) => r.flags))) {
+        const with_ = of.filter((r) => r.flags === flags);
+        out(`      workers ${flags ? `with ${flags}` : 'without options'}: overhead ${spread(with_.map((r) => overhead(r)))}; job code ${spread(with_.map(jobCode))}`);
+      }
+    }
   }
   const ones = rounds.filter((r) => r.workers === 1);
   out(
