@@ -30,7 +30,7 @@ import { createTestApp } from '../../tests/support/app';
 import { testEnv } from '../../tests/support/env';
 import { signIn } from '../../tests/support/sign-in';
 import { JOB_CHANNEL, type JobNotice } from '../src/jobs/store';
-import { CASES, inProcessCases, studyCells, WARM_UP, type CaseCost } from './sweep-case-loop';
+import { CASES, inProcessCases, inProcessLightCells, studyCells, WARM_UP, type CaseCost } from './sweep-case-loop';
 
 /** Rounds of (in-process loop, one worker, two loops at once, two workers); BENCH_ROUNDS overrides. */
 const ROUNDS = Number(process.env['BENCH_ROUNDS'] ?? 5);
@@ -310,6 +310,8 @@ interface Round {
   flags: string;
   /** The lone loop's cases computed one at a time (computeSweepCase), as workers did before the chunk entry. */
   oneByOne: CaseCost;
+  /** The job's three light cells computed in this process (ms, inProcessLightCells), after the lone loop. */
+  lightMs: number;
 }
 
 /** Worker CPU a case over the loop's, less one: the issue's figure. */
@@ -324,10 +326,11 @@ try {
   for (let round = 0; round < ROUNDS; round++) {
     const oneByOne = await inProcessCases(undefined, 'cases');
     const lone = await inProcessCases();
+    const lightMs = inProcessLightCells(`light cells ${round}`);
     for (const workers of WORKER_COUNTS) {
       const loop = workers === 1 ? lone : await inProcessPair();
       const run = await timedRun(workers, round);
-      rounds.push({ workers, run, loop, lone, load: loadavg()[0]!, oneByOne, flags: workerFlags(round) });
+      rounds.push({ workers, run, loop, lone, load: loadavg()[0]!, oneByOne, flags: workerFlags(round), lightMs });
     }
   }
   const pct = (x: number) => `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
@@ -351,6 +354,7 @@ try {
     });
     out(`    job overhead (target < 20 %): ${spread(of.map((r) => overhead(r)))}${n > 1 ? `; against one loop ${spread(of.map((r) => overhead(r, r.lone)))}` : ''}`);
     out(`      of which the job's code (drift-free): ${spread(of.map(jobCode))}; the engine in the job against the loop's: ${spread(of.map(engineShift))}`);
+    out(`      of which the job's 3 light cells (flow, pressure, the analysis), which the loop does not compute: ${ms(median(of.map((r) => r.lightMs)))} in-process, ${pct(median(of.map((r) => r.lightMs / (CASES * r.loop.cpuMs))))} of the loop's ${CASES} cases (medians)`);
     out(`      median wall ${(median(of.map((r) => r.run.wallMs)) / 1000).toFixed(2)} s; idle worker ${median(of.map((r) => r.run.idleCpuMsPerS)).toFixed(1)} ms CPU a second (included above)`);
     if (process.env['BENCH_WORKER_FLAGS_B'] !== undefined) {
       for (const flags of new Set(of.map((r) => r.flags))) {
