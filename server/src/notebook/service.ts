@@ -22,7 +22,7 @@ import { EngineBusyError, type ComputedOutput, type EnginePool } from '../engine
 import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import type { BranchContext } from '../access/branch';
-import { freshOutputsJson, OutputStore, type CachedOutput, type FreshOutput } from './outputs';
+import { freshOutputsRows, OutputStore, type CachedOutput, type FreshOutput } from './outputs';
 import { storedCells, storedTrash, splitOutputKeys } from './draft-keys';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 
@@ -37,16 +37,20 @@ type SaveDraftBody = z.infer<typeof saveDraftSchema>;
 const q = (c: { name: string }) => `"${c.name}"`;
 
 /**
- * What storeAndMark runs, as one prepared statement: the fresh outputs ($1, rows for
- * json_to_recordset, so each result goes into its json column as the text it is) stored once by key,
- * the cells' new keys ($2) merged into the draft's output keys as they are now (drafts.output_keys:
- * the cells' inputs in drafts.cells are not rewritten), and the run's audit event, all or nothing. Parameters: $3 the branch,
- * $4 the actor, $5 the project, $6 the audit detail.
+ * What storeAndMark runs for `results` fresh outputs, as one prepared statement: the fresh outputs
+ * stored once by key ($1, their small fields as rows for json_to_recordset; each result the text of a
+ * parameter of its own from $7 on, so PostgreSQL parses it once, as it enters its json column), the
+ * cells' new keys ($2) merged into the draft's output keys as they are now (drafts.output_keys: the
+ * cells' inputs in drafts.cells are not rewritten), and the run's audit event, all or nothing.
+ * Parameters: $3 the branch, $4 the actor, $5 the project, $6 the audit detail.
  */
-const STORE_AND_MARK = `
+function storeAndMarkSql(results: number): string {
+  const resultRows = results === 0 ? 'select null::integer as i, null::json as result where false' : `values ${Array.from({ length: results }, (_, i) => `(${i + 1}, $${i + 7}::json)`).join(', ')}`;
+  return `
   with incoming as (
-    select * from json_to_recordset($1::json)
-      as o(key text, kind text, status text, result json, error jsonb, engine_version text, duration_ms integer)
+    select o.key, o.kind, o.status, r.result, o.error, o.engine_version, o.duration_ms
+    from json_to_recordset($1::json) as o(i integer, key text, kind text, status text, error jsonb, engine_version text, duration_ms integer)
+    join (${resultRows}) as r(i, result) on r.i = o.i
   ), stored as (
     insert into "${getTableName(outputs)}" (${[outputs.key, outputs.kind, outputs.status, outputs.result, outputs.error, outputs.engineVersion, outputs.durationMs].map(q).join(', ')})
     select key, kind, status, result, error, engine_version, duration_ms from incoming
@@ -66,6 +70,14 @@ const STORE_AND_MARK = `
   )
   select (select revision from marked) as revision,
     coalesce((select jsonb_agg(jsonb_build_array(key, computed_at)) from stored), '[]'::jsonb) as stored`;
+}
+/** The statement's text by its number of results, made once each. */
+const storeAndMarkStatements = new Map<number, string>();
+const storeAndMarkStatement = (results: number) => {
+  let text = storeAndMarkStatements.get(results);
+  if (text === undefined) storeAndMarkStatements.set(results, (text = storeAndMarkSql(results)));
+  return text;
+};
 
 /** A run as planned from one reading of the draft (NotebookService.planRun). */
 export interface PlannedRun {
@@ -439,10 +451,11 @@ export class NotebookService {
     }
     // Through the pool drizzle runs on (its documented $client), to prepare the statement by name.
     const pool = (this.db as Db & { $client: pg.Pool }).$client;
+    const incoming = freshOutputsRows(fresh, ENGINE_VERSION);
     const { rows } = await pool.query<{ revision: number | null; stored: [string, string][] }>({
-      name: 'run_store_and_mark',
-      text: STORE_AND_MARK,
-      values: [freshOutputsJson(fresh, ENGINE_VERSION), JSON.stringify(marks), ctx.branch.id, actor.id, ctx.projectId, JSON.stringify(detail)],
+      name: `run_store_and_mark_${fresh.length}`,
+      text: storeAndMarkStatement(fresh.length),
+      values: [incoming.rows, JSON.stringify(marks), ctx.branch.id, actor.id, ctx.projectId, JSON.stringify(detail), ...incoming.results],
     });
     const revision = rows[0]?.revision ?? null;
     if (revision === null) await auditAlone();
