@@ -281,6 +281,34 @@ describe('runs', () => {
     expect(cellOf(back, ids.analysis).output!.key).toBe(out.output!.key);
   });
 
+  it('sees cells another writer changed at once: the draft and the run read them again (the cells token)', async () => {
+    const { branchId } = await newStudy('Changed elsewhere');
+    const { ids, flow, pressure, analysis } = standardCells();
+    await save(as['engineer']!, branchId, 0, [flow, pressure, analysis]).expect(200);
+    const first = await as['engineer']!.post(`/api/branches/${branchId}/run`, { cellIds: [ids.analysis] }).expect(200);
+    const firstKey = (first.body as RunResponse).ran.find((r) => r.cellId === ids.analysis)!.key;
+    await as['engineer']!.get(`/api/branches/${branchId}/draft`).expect(200);
+    const tokenOf = async () => (await t.database.pool.query<{ token: string }>('select cells_token as token from drafts where branch_id = $1', [branchId])).rows[0]!.token;
+    const before = await tokenOf();
+    // Another writer (a second server, a script, a restore) sets a new Reynolds number in the cells.
+    const { rows } = await t.database.pool.query<{ cells: { cellId: string; inputs: Record<string, unknown> }[] }>('select cells from drafts where branch_id = $1', [branchId]);
+    const cells = rows[0]!.cells.map((c) => (c.cellId === ids.flow ? { ...c, inputs: { ...c.inputs, reynolds: 7e6 } } : c));
+    await t.database.pool.query('update drafts set cells = $1::jsonb where branch_id = $2', [JSON.stringify(cells), branchId]);
+    expect(await tokenOf()).not.toBe(before);
+
+    const draft = (await as['engineer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    expect(cellOf(draft, ids.flow).inputs).toMatchObject({ reynolds: 7e6 });
+    expect(cellOf(draft, ids.analysis).runState).toBe('outdated');
+    const again = (await as['engineer']!.post(`/api/branches/${branchId}/run`, { cellIds: [ids.analysis] }).expect(200)).body as RunResponse;
+    const report = again.ran.find((r) => r.cellId === ids.analysis)!;
+    expect(report).toMatchObject({ status: 'ok', reused: false });
+    expect(report.key).not.toBe(firstKey);
+    // The draft as saved by the author next (based on the revision they hold) keeps working.
+    await save(as['engineer']!, branchId, draft.revision, [{ ...flow, inputs: { ...flow.inputs, reynolds: 8e6 } }, pressure, analysis]).expect(200);
+    const last = (await as['engineer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    expect(cellOf(last, ids.flow).inputs).toMatchObject({ reynolds: 8e6 });
+  });
+
   it('does not make the next autosave stale: runs leave the revision alone', async () => {
     const { branchId } = await newStudy('Run while typing');
     const { ids, flow, pressure, analysis } = standardCells();

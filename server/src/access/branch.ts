@@ -5,6 +5,9 @@ import type { Tx } from '../db/client';
 import { branches, drafts, memberships, projects, studies } from '../db/schema';
 import type { ProjectContext } from './access';
 import { notFound, ProblemError } from '../http/problem';
+import { keepCells, knownCells } from '../notebook/draft-cells';
+
+type DraftRow = typeof drafts.$inferSelect;
 
 
 export interface BranchContext extends ProjectContext {
@@ -66,13 +69,43 @@ export async function branchAccessWithDraft(tx: Tx, user: SessionUser, branchId:
   if (!isUuid(branchId)) throw notFound('branch');
   let query = accessWithDraftQueries.get(tx);
   if (!query) accessWithDraftQueries.set(tx, (query = buildAccessWithDraftQuery(tx)));
-  const [row] = await query.execute({ branchId, userId: user.id });
-  return { ctx: contextOf(row, user), draft: row?.draft ?? null };
+  // The cells come only when they differ from those this app holds (drafts.cells_token).
+  const known = knownCells(tx, branchId);
+  const [row] = await query.execute({ branchId, userId: user.id, cellsToken: known?.token ?? -1 });
+  const ctx = contextOf(row, user);
+  const read = row?.draft;
+  if (!read) return { ctx, draft: null };
+  if (read.cells === null || read.trash === null) {
+    if (!known || read.cellsToken !== known.token) throw new Error(`the draft of branch ${branchId} came without its cells`);
+    return { ctx, draft: { ...read, cells: known.cells, trash: known.trash } };
+  }
+  const kept = keepCells(tx, branchId, read.cellsToken, read.cells, read.trash);
+  return { ctx, draft: { ...read, cells: kept.cells, trash: kept.trash } };
 }
+
+/** A column of the draft, or null when its cells token is the one given (the caller holds them). */
+const unlessKnown = <T>(column: typeof drafts.cells | typeof drafts.trash) =>
+  sql<T | null>`case when ${drafts.cellsToken} = ${sql.placeholder('cellsToken')} then null else ${column} end`;
 
 const buildAccessWithDraftQuery = (tx: Tx) =>
   tx
-    .select({ branch: branches, study: studies, settings: projects.settings, role: memberships.role, draft: drafts })
+    .select({
+      branch: branches,
+      study: studies,
+      settings: projects.settings,
+      role: memberships.role,
+      draft: {
+        branchId: drafts.branchId,
+        revision: drafts.revision,
+        cells: unlessKnown<DraftRow['cells']>(drafts.cells),
+        trash: unlessKnown<DraftRow['trash']>(drafts.trash),
+        outputKeys: drafts.outputKeys,
+        cellsToken: drafts.cellsToken,
+        basedOnVersionId: drafts.basedOnVersionId,
+        updatedBy: drafts.updatedBy,
+        updatedAt: drafts.updatedAt,
+      },
+    })
     .from(branches)
     .innerJoin(studies, eq(studies.id, branches.studyId))
     .innerJoin(projects, eq(projects.id, studies.projectId))

@@ -43,7 +43,16 @@ function keyedInputs(kind: CellKind, inputs: CellInputs[CellKind]): unknown {
   return inputs;
 }
 
-export function planCells(cells: readonly StoredCell[]): Map<string, CellPlan> {
+/**
+ * `memo` holds the plans of one draft content (the entry of draft-cells.ts whose cells these are, by
+ * their token): given, the plans are made once for it and the fingerprint below is not needed.
+ */
+export function planCells(cells: readonly StoredCell[], memo?: { plans?: Map<string, CellPlan> }): Map<string, CellPlan> {
+  if (memo) {
+    const plans = (memo.plans ??= planCells(cells));
+    const byId = new Map(cells.map((c) => [c.cellId, c]));
+    return new Map([...plans].map(([id, plan]) => [id, { ...plan, cell: byId.get(id)! }]));
+  }
   // A plan reads only each cell's id, kind and inputs: the same draft content plans the same, so a
   // draft answered, run and saved in turn is validated (tables parsed) and hashed once.
   const fingerprint = JSON.stringify(cells.map((c) => [c.cellId, c.kind, c.inputs]));

@@ -24,6 +24,7 @@ import type { Logger } from '../logger';
 import type { BranchContext } from '../access/branch';
 import { freshOutputsRows, OutputStore, type CachedOutput, type FreshOutput } from './outputs';
 import { storedCells, storedTrash, splitOutputKeys } from './draft-keys';
+import { keepCells, keptEntryOf } from './draft-cells';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 
 /** The places in a run, first to last: the cells of one place run together, after those before it. */
@@ -213,7 +214,7 @@ export class NotebookService {
   /** The draft as the client sees it: cells with run state, problems, last output and last good output. */
   async view(tx: Tx, ctx: BranchContext, row: DraftRow): Promise<DraftDoc> {
     const stored = storedCells(row);
-    const plans = planCells(stored);
+    const plans = planCells(stored, keptEntryOf(row.cells));
     const found = await this.outputs.getMany(tx, stored.flatMap((c) => [c.lastOutputKey, c.lastGoodOutputKey]));
     const names = await this.names(tx, [row.updatedBy, ...row.trash.map((t) => t.deletedBy)]);
     return {
@@ -319,6 +320,8 @@ export class NotebookService {
         .set({ revision: row.revision + 1, cells: written.cells, trash: written.trash, outputKeys: written.outputKeys, updatedBy: actor.id, updatedAt: sql`now()` })
         .where(eq(drafts.branchId, ctx.branch.id))
         .returning();
+      // Kept under the token the trigger gave them: a transaction rolled back leaves a token no row has.
+      keepCells(this.db, ctx.branch.id, updated!.cellsToken, updated!.cells, updated!.trash);
       await tx.update(studies).set({ updatedAt: sql`now()` }).where(eq(studies.id, ctx.study.id));
 
       const added = next.filter((c) => !oldById.has(c.cellId)).map((c) => c.cellId);
@@ -354,7 +357,7 @@ export class NotebookService {
   async planRun(ctx: BranchContext, cellIds: string[] | undefined, read?: DraftRow | null): Promise<PlannedRun> {
     const row = read ?? (await draftRow(this.db, ctx.branch.id, false));
     const stored = storedCells(row);
-    const plans = planCells(stored);
+    const plans = planCells(stored, keptEntryOf(row.cells));
     const targets = this.targets(plans, stored, cellIds);
     // Every output the run could reuse, looked up at once.
     const known = await this.outputs.getMany(this.db, [...targets].map((id) => plans.get(id)!.key));

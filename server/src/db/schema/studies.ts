@@ -1,4 +1,4 @@
-import { customType, index, integer, json, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import { bigint, customType, index, integer, json, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import { users } from './identity';
 import { projects } from './projects';
 
@@ -93,6 +93,12 @@ export const drafts = pgTable('drafts', {
    * and not the cells' inputs (a pasted table is tens of kB); runs do not change `revision`.
    */
   outputKeys: jsonb('output_keys').$type<DraftOutputKeys>().notNull().default({}),
+  /**
+   * Names the content of `cells` and `trash`: a trigger gives it a new number from a sequence on every
+   * insert and every update that sets either (migration 0008), so a server that keeps a draft's parsed
+   * cells by it reads them again only when they changed (notebook/draft-cells.ts).
+   */
+  cellsToken: bigint('cells_token', { mode: 'number' }).notNull().default(0),
   basedOnVersionId: uuid('based_on_version_id').references((): AnyPgColumn => versions.id),
   updatedBy: uuid('updated_by').references(() => users.id),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
