@@ -171,6 +171,23 @@ describe('NotebookPage', () => {
     await fixture.whenStable();
   });
 
+  it('keeps the bodies it has drawn when a cell is added above them', async () => {
+    // The drawn bodies were a count from the top: a copy of the first cell left the last one "Drawing…".
+    const { fixture, loader } = await open(asRole('engineer'));
+    const page = fixture.nativeElement as HTMLElement;
+    expect(page.querySelectorAll('.body-pending')).toHaveLength(0);
+    await (await loader.getHarness(CellFrameHarness.with({ title: 'Cruise, M 0.78' }))).chooseAction('Duplicate');
+    await fixture.whenStable();
+    expect(await loader.getAllHarnesses(CellFrameHarness)).toHaveLength(4);
+    expect(page.querySelectorAll('.body-pending')).toHaveLength(0);
+    expect(page.querySelectorAll('lam-add-cell')).toHaveLength(5);
+    await settle();
+    const save = http.expectOne({ method: 'PUT' });
+    expect(save.request.body.cells).toHaveLength(4);
+    save.flush({ ...stack(), revision: 4, cells: save.request.body.cells });
+    await fixture.whenStable();
+  });
+
   it('runs one cell after saving what waits, and shows the new run state', async () => {
     const { fixture, loader } = await open(asRole('engineer'));
     const flow = await loader.getHarness(CellFrameHarness.with({ title: 'Cruise, M 0.78' }));

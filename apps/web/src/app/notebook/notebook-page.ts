@@ -197,12 +197,14 @@ export class NotebookPage {
   protected readonly runnableCount = computed(() => this.cells().filter((cell) => cellKindInfo(cell.kind).runs).length);
 
   /**
-   * How many cells, from the top, have their bodies drawn. A long study shows every frame at once and
-   * the bodies of the first screen, then draws the others one at a time between the person's input,
-   * so the page answers at once. A frame gets its buttons with its body. A cell the person adds, copies,
-   * brings back or goes to is drawn at once.
+   * The cells (by id) whose bodies are drawn. A long study shows every frame at once and the bodies of
+   * the first screen, then draws the others one at a time between the person's input, so the page
+   * answers at once: first those on the screen (a person who scrolled far down right after opening
+   * sees those bodies next, not the ones in between), then from the top. A frame gets its buttons and
+   * the insertion line below it with its body. A cell the person adds, copies, brings back or goes to
+   * is drawn at once, with the cells above it; and a cell added above drawn ones leaves them drawn.
    */
-  protected readonly bodiesShown = signal(FIRST_BODIES);
+  protected readonly drawn = signal<ReadonlySet<string>>(new Set());
   private readonly pendingTasks = inject(PendingTasks);
 
   private readonly addControls = viewChildren(AddCell);
@@ -276,7 +278,7 @@ export class NotebookPage {
   private drawBodiesProgressively(cells: readonly DraftCell[]): void {
     const count = cells.length;
     for (const kind of new Set(cells.slice(0, PREFETCHED_CELLS).map((cell) => cell.kind))) void CELL_BODIES[kind]().catch(() => undefined);
-    this.bodiesShown.set(FIRST_BODIES);
+    this.drawn.set(new Set(cells.slice(0, FIRST_BODIES).map((cell) => cell.cellId)));
     if (count <= FIRST_BODIES) return;
     // The page counts as busy until every body is drawn (tests and whenStable wait for it).
     const done = this.pendingTasks.add();
@@ -284,8 +286,10 @@ export class NotebookPage {
       typeof requestIdleCallback === 'function' ? requestIdleCallback(next, { timeout: 500 }) : setTimeout(next, 16);
     const step = () => {
       // The person may have left the study before the browser was idle: nothing more to draw.
-      if (this.destroyRef.destroyed || this.bodiesShown() >= count) return done();
-      this.bodiesShown.update((n) => n + 1);
+      if (this.destroyRef.destroyed) return done();
+      const next = this.undrawnOnScreen()[0] ?? this.cells().find((cell) => !this.drawn().has(cell.cellId))?.cellId;
+      if (!next) return done();
+      this.draw([next]);
       afterNextRender(() => idle(step), { injector: this.injector });
     };
     // Once the frames are laid out (the browser lays them out for this frame anyway): every cell whose
@@ -293,22 +297,33 @@ export class NotebookPage {
     afterNextRender(
       () => {
         if (this.destroyRef.destroyed) return done();
-        const onScreen = this.framesOnScreen();
-        if (onScreen <= this.bodiesShown()) return idle(step);
-        this.bodiesShown.set(Math.min(onScreen, count));
+        const onScreen = this.undrawnOnScreen();
+        if (onScreen.length === 0) return idle(step);
+        this.draw(onScreen);
         afterNextRender(() => idle(step), { injector: this.injector });
       },
       { injector: this.injector },
     );
   }
 
-  /** How many frames, from the top, start inside the window. */
-  private framesOnScreen(): number {
+  /** The cells whose frames are (partly) inside the window and whose bodies are not drawn, from the top. */
+  private undrawnOnScreen(): string[] {
     const bottom = typeof window === 'undefined' ? 0 : window.innerHeight;
-    const frames = this.host.nativeElement.querySelectorAll('lam-cell-frame');
-    let count = 0;
-    while (count < frames.length && frames[count]!.getBoundingClientRect().top < bottom) count++;
-    return count;
+    const drawn = this.drawn();
+    const ids: string[] = [];
+    for (const frame of Array.from(this.host.nativeElement.querySelectorAll<HTMLElement>('lam-cell-frame'))) {
+      const id = frame.dataset['cellId'];
+      if (!id || drawn.has(id)) continue;
+      const rect = frame.getBoundingClientRect();
+      if (rect.top < bottom && rect.bottom > 0) ids.push(id);
+    }
+    return ids;
+  }
+
+  private draw(cellIds: Iterable<string>): void {
+    const next = new Set(this.drawn());
+    for (const id of cellIds) next.add(id);
+    if (next.size !== this.drawn().size) this.drawn.set(next);
   }
 
   // ── Cell actions ─────────────────────────────────────────────────────────────────────────────
@@ -316,7 +331,7 @@ export class NotebookPage {
   /** Draws the bodies of every cell down to this one. */
   private drawDownTo(cellId: string): void {
     const index = this.cells().findIndex((cell) => cell.cellId === cellId);
-    this.bodiesShown.update((shown) => Math.max(shown, index + 1));
+    this.draw(this.cells().slice(0, index + 1).map((cell) => cell.cellId));
   }
 
   protected add(kind: CellKind, index: number): void {
