@@ -9,7 +9,7 @@
  */
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
-import type { CellTask, EnginePool } from '../src/engine/pool';
+import type { CellTask, EngineOutput, EnginePool } from '../src/engine/pool';
 import { planCells, taskOf, type StoredCell } from '../src/notebook/plan';
 
 /** A run's cells for the least server: the study's three cells, the flow condition first. */
@@ -65,7 +65,9 @@ export async function startLeastServer(engine: EnginePool, study: LeastServerStu
       const [flow, analysis] = engine.runAll([withReynolds(template.flow, reynolds), withReynolds(template.analysis, reynolds)]);
       Promise.all([flow!, analysis!]).then(
         ([f, a]) => {
-          const body = Buffer.from(`{"flow":${JSON.stringify(f)},"analysis":{"status":${JSON.stringify(a.status)},"error":${JSON.stringify(a.error)},"durationMs":${a.durationMs},"result":${a.resultJson ?? 'null'}}}`);
+          // Each result goes in as the UTF-8 bytes the engine thread made, as the real server sends it.
+          const output = (o: EngineOutput): (string | Uint8Array)[] => [`{"status":${JSON.stringify(o.status)},"error":${JSON.stringify(o.error)},"durationMs":${o.durationMs},"result":`, o.resultJson ?? 'null', '}'];
+          const body = Buffer.concat(['{"flow":', ...output(f), ',"analysis":', ...output(a), '}'].map((p) => (typeof p === 'string' ? Buffer.from(p) : p)));
           res.writeHead(200, { 'content-type': 'application/json', 'content-length': body.length });
           res.end(body);
           answered++;

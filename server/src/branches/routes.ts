@@ -10,7 +10,7 @@ import type { JobService } from '../jobs/service';
 import { streamBranchJobs } from '../jobs/stream';
 import { isQuickRun, needsComputing } from '../jobs/work';
 import { exportCell } from '../notebook/export';
-import { draftJson, draftObject, runJson, type NotebookService } from '../notebook/service';
+import { draftJson, draftObject, runBytes, type NotebookService } from '../notebook/service';
 import { draftDocument, studyDocumentFilename } from '../notebook/study-document';
 import * as versions from '../versions/service';
 
@@ -47,8 +47,8 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
    * JSON text as the answer of a change, without the ETag Express would hash the whole body for: an
    * answer to a PUT or POST is never revalidated, and a draft with its outputs runs to 100 kB or more.
    */
-  const sendJsonOnce = (res: Response, json: string) => {
-    const body = Buffer.from(json);
+  const sendJsonOnce = (res: Response, json: string | Buffer) => {
+    const body = typeof json === 'string' ? Buffer.from(json) : json;
     res.type('application/json').setHeader('content-length', body.length);
     res.end(body);
   };
@@ -88,7 +88,7 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
       res.status(202).location(`/api/jobs/${job.jobId}`).json({ jobId: job.jobId, job });
       return;
     }
-    sendJsonOnce(res, runJson(await notebook.run(ctx, req.user!, planned)));
+    sendJsonOnce(res, runBytes(await notebook.run(ctx, req.user!, planned)));
   });
 
   /** The branch's jobs as server-sent events; for those who may run its cells. */

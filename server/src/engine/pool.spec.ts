@@ -1,6 +1,8 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { createEnginePool } from './pool';
 
+const text = (bytes: Uint8Array | null) => new TextDecoder().decode(bytes!);
+
 const pool = createEnginePool({ threads: 1 });
 afterAll(() => pool.close());
 
@@ -13,7 +15,7 @@ describe('engine worker pool', () => {
     });
     expect(out.status).toBe('ok');
     // Blasius: mean CF = 1.328/√Re_L for a plate laminar to its end (H. Blasius 1908).
-    expect(JSON.parse(out.resultJson!).cfMixed).toBeCloseTo(1.328 / Math.sqrt(1e6), 9);
+    expect(JSON.parse(text(out.resultJson)).cfMixed).toBeCloseTo(1.328 / Math.sqrt(1e6), 9);
     expect(pool.completed).toBe(1);
   });
 
@@ -47,7 +49,7 @@ describe('engine worker pool', () => {
       },
     ]);
     // Blasius: mean CF = 1.328/√Re_L for a plate laminar to its end (H. Blasius 1908).
-    expect(JSON.parse((await plate!).resultJson!).cfMixed).toBeCloseTo(1.328 / Math.sqrt(4e6), 9);
+    expect(JSON.parse(text((await plate!).resultJson)).cfMixed).toBeCloseTo(1.328 / Math.sqrt(4e6), 9);
     expect(await bad!).toMatchObject({ status: 'error', resultJson: null, error: { field: 'pressureTable line 3', line: 3 } });
     expect(pool.completed).toBe(before + 2);
   });

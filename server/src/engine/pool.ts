@@ -5,17 +5,24 @@ import type { CellTask, ComputedOutput } from '@laminote/aero';
 export type { CellTask, ComputedOutput } from '@laminote/aero';
 
 /**
+ * A cell's output as an engine thread hands it back: the result's JSON as the UTF-8 bytes of its text,
+ * encoded on that thread, so the server's main thread never encodes it (it goes to PostgreSQL and into
+ * the run's answer as these bytes: about 57 kB for a 2 × 300-station analysis).
+ */
+export type EngineOutput = Omit<ComputedOutput, 'resultJson'> & { resultJson: Uint8Array | null };
+
+/**
  * The engine's worker-thread pool (piscina): each task is one cell for `computeCell` (libs/aero/src/cells),
  * run off the event loop so the server keeps answering while it computes.
  */
 export interface EnginePool {
-  run(task: CellTask): Promise<ComputedOutput>;
+  run(task: CellTask): Promise<EngineOutput>;
   /**
    * Several cells in one task of one worker: one hand-over each way instead of one per cell (a flow
    * condition is microseconds of arithmetic, its message costs more). Each cell's promise settles
    * on its own: a defect in one rejects that one only.
    */
-  runAll(tasks: CellTask[]): Promise<ComputedOutput>[];
+  runAll(tasks: CellTask[]): Promise<EngineOutput>[];
   /** Tasks the workers have finished since the pool started (tests use it to see that a cached run computed nothing). */
   readonly completed: number;
   readonly threads: number;
@@ -32,7 +39,7 @@ export interface EnginePoolOptions {
 }
 
 /** One cell of a task of several (worker.mjs computeCellOutputs). */
-type BatchEntry = { output: ComputedOutput } | { defect: string };
+type BatchEntry = { output: EngineOutput } | { defect: string };
 
 /** The pool is full: the caller should answer 503 and the client try again. */
 export class EngineBusyError extends Error {}
@@ -42,7 +49,7 @@ export class EngineTimeoutError extends Error {}
 export function createEnginePool(options: EnginePoolOptions = {}): EnginePool {
   const threads = options.threads && options.threads > 0 ? options.threads : Math.max(1, availableParallelism());
   const timeoutMs = options.taskTimeoutMs ?? 60_000;
-  const piscina = new Piscina<CellTask | CellTask[], ComputedOutput | BatchEntry[]>({
+  const piscina = new Piscina<CellTask | CellTask[], EngineOutput | BatchEntry[]>({
     filename: new URL('./worker.mjs', import.meta.url).href,
     // The worker registers its own TypeScript loader; see worker.mjs.
     execArgv: [],
@@ -74,7 +81,7 @@ export function createEnginePool(options: EnginePoolOptions = {}): EnginePool {
       return completed;
     },
     async run(task) {
-      const outcome = await submit<ComputedOutput>(task);
+      const outcome = await submit<EngineOutput>(task);
       completed++;
       return outcome;
     },

@@ -7,6 +7,18 @@ import { register } from 'tsx/esm/api';
 register();
 const { computeCellOutput } = await import('../../../libs/aero/src/cells/compute.ts');
 
+const encoder = new TextEncoder();
+
+/**
+ * A cell's output with its result's JSON as UTF-8 bytes (EngineOutput in pool.ts): encoded here, on
+ * the engine's thread, instead of on the server's main thread, where it would be encoded twice (for
+ * PostgreSQL and for the answer).
+ */
+function computeCellBytes(task) {
+  const output = computeCellOutput(task);
+  return output.resultJson === null ? output : { ...output, resultJson: encoder.encode(output.resultJson) };
+}
+
 /**
  * Several cells in one task, each on its own: a fault that is not the input's (a defect, which
  * computeCellOutput throws) is handed back as that cell's `defect`, and the others stand.
@@ -14,11 +26,11 @@ const { computeCellOutput } = await import('../../../libs/aero/src/cells/compute
 export function computeCellOutputs(tasks) {
   return tasks.map((task) => {
     try {
-      return { output: computeCellOutput(task) };
+      return { output: computeCellBytes(task) };
     } catch (error) {
       return { defect: error instanceof Error ? error.message : String(error) };
     }
   });
 }
 
-export default computeCellOutput;
+export default computeCellBytes;

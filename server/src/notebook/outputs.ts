@@ -18,8 +18,25 @@ export interface CachedOutput {
   computedAt: string;
   durationMs: number;
   /** The output as the API sends it (CellOutput), serialised. */
-  json: string;
+  readonly json: string;
+  /**
+   * The same as UTF-8 bytes, when it was put together from bytes (an output this server has just
+   * computed): `json` is then decoded from them only when something asks for it.
+   */
+  bytes?: Buffer;
+  /** Its length in bytes or characters, for the cache's budget. */
+  size: number;
 }
+
+/** A result's JSON: its text, or the UTF-8 bytes of that text (as an engine thread hands it over). */
+export type ResultJson = string | Uint8Array;
+
+/** A computed output whose result is text or bytes. */
+export type ComputedResult = Omit<ComputedOutput, 'resultJson'> & { resultJson: ResultJson | null };
+
+/** A result as a parameter for pg: text as it is, bytes as a Buffer over the same memory (sent as they are). */
+export const resultParameter = (result: ResultJson | null): string | Buffer | null =>
+  result === null || typeof result === 'string' ? result : Buffer.from(result.buffer, result.byteOffset, result.byteLength);
 
 
 /** A stored output as read here: its result as the stored JSON text (spliced into answers, never parsed). */
@@ -30,7 +47,7 @@ export interface FreshOutput {
   fresh: true;
   key: string;
   kind: CellKind;
-  computed: ComputedOutput;
+  computed: ComputedResult;
 }
 
 /**
@@ -40,9 +57,9 @@ export interface FreshOutput {
  * JSON was parsed twice by PostgreSQL, once with the rows and once more as its json column, about a
  * third of PostgreSQL's CPU in a run of a 2 × 300-station analysis.
  */
-export function freshOutputsRows(fresh: readonly FreshOutput[], engineVersion: string): { rows: string; results: (string | null)[] } {
+export function freshOutputsRows(fresh: readonly FreshOutput[], engineVersion: string): { rows: string; results: (string | Buffer | null)[] } {
   const rows = fresh.map(({ key, kind, computed }, i) => ({ i: i + 1, key, kind, status: computed.status, error: computed.error, engine_version: engineVersion, duration_ms: Math.round(computed.durationMs) }));
-  return { rows: JSON.stringify(rows), results: fresh.map(({ computed }) => computed.resultJson) };
+  return { rows: JSON.stringify(rows), results: fresh.map(({ computed }) => resultParameter(computed.resultJson)) };
 }
 
 function outputJson(meta: Omit<CellOutput, 'result'>, resultJson: string | null): string {
@@ -51,10 +68,34 @@ function outputJson(meta: Omit<CellOutput, 'result'>, resultJson: string | null)
   return `${head.slice(0, -1)},"result":${resultJson ?? 'null'}}`;
 }
 
+const RESULT_END = Buffer.from('}');
+
+/**
+ * An output put together from its fields and its result: as text, or, when the result is bytes, as
+ * bytes (the text is decoded from them only if asked for, once).
+ */
+function cachedOutput(meta: Omit<CellOutput, 'result'>, resultJson: ResultJson | null): CachedOutput {
+  const fields = { key: meta.key, status: meta.status, error: meta.error, computedAt: meta.computedAt, durationMs: meta.durationMs };
+  if (resultJson === null || typeof resultJson === 'string') {
+    const json = outputJson(meta, resultJson);
+    return { ...fields, json, size: json.length };
+  }
+  const bytes = Buffer.concat([Buffer.from(`${JSON.stringify(meta).slice(0, -1)},"result":`), resultJson, RESULT_END]);
+  let text: string | undefined;
+  return {
+    ...fields,
+    bytes,
+    size: bytes.length,
+    get json() {
+      return (text ??= bytes.toString('utf8'));
+    },
+  };
+}
+
 function fromRow(row: OutputRow): CachedOutput {
   const error = row.status === 'error' ? ((row.error as CellError | null) ?? { message: 'the run failed' }) : null;
   const meta = { key: row.key, status: row.status, error, engineVersion: row.engineVersion, durationMs: row.durationMs, computedAt: row.computedAt.toISOString() };
-  return { key: row.key, status: row.status, error, computedAt: meta.computedAt, durationMs: row.durationMs, json: outputJson(meta, row.status === 'ok' ? (row.resultText ?? 'null') : null) };
+  return cachedOutput(meta, row.status === 'ok' ? (row.resultText ?? 'null') : null);
 }
 
 /** Reading outputs by key, built once per database handle and prepared by name (a run reads them every time). */
@@ -84,17 +125,17 @@ export class OutputStore {
   private readonly cache = new Map<string, CachedOutput>();
   private bytes = 0;
 
-  /** @param budgetBytes how much JSON text the cache keeps (characters, roughly bytes). */
+  /** @param budgetBytes how much JSON the cache keeps (bytes, or characters of text). */
   constructor(private readonly budgetBytes = 64 * 1024 * 1024) {}
 
   private remember(out: CachedOutput): CachedOutput {
     if (this.cache.has(out.key)) return out;
     this.cache.set(out.key, out);
-    this.bytes += out.json.length;
+    this.bytes += out.size;
     for (const [key, old] of this.cache) {
       if (this.bytes <= this.budgetBytes) break;
       this.cache.delete(key);
-      this.bytes -= old.json.length;
+      this.bytes -= old.size;
     }
     return out;
   }
@@ -130,14 +171,13 @@ export class OutputStore {
   }
 
   /** An output this server has just stored (at `computedAt`), kept in the cache with its JSON text. */
-  keep(key: string, engineVersion: string, computed: ComputedOutput, computedAt: string): CachedOutput {
-    const durationMs = Math.round(computed.durationMs);
-    const meta = { key, status: computed.status, error: computed.error, engineVersion, durationMs, computedAt };
-    return this.remember({ key, status: computed.status, error: computed.error, computedAt, durationMs, json: outputJson(meta, computed.resultJson) });
+  keep(key: string, engineVersion: string, computed: ComputedResult, computedAt: string): CachedOutput {
+    const meta = { key, status: computed.status, error: computed.error, engineVersion, durationMs: Math.round(computed.durationMs), computedAt };
+    return this.remember(cachedOutput(meta, computed.resultJson));
   }
 
   /** Stores a computed output (once: a concurrent store of the same key keeps the first). */
-  async put(tx: Tx, key: string, kind: CellKind, engineVersion: string, computed: ComputedOutput): Promise<CachedOutput> {
+  async put(tx: Tx, key: string, kind: CellKind, engineVersion: string, computed: ComputedResult): Promise<CachedOutput> {
     const durationMs = Math.round(computed.durationMs);
     const [row] = await tx
       .insert(outputs)
@@ -145,7 +185,7 @@ export class OutputStore {
         key,
         kind,
         status: computed.status,
-        result: computed.resultJson === null ? null : sql`${computed.resultJson}::json`,
+        result: computed.resultJson === null ? null : sql`${resultParameter(computed.resultJson)}::json`,
         error: computed.error,
         engineVersion,
         durationMs,

@@ -18,11 +18,11 @@ import { audit } from '../audit/audit';
 import type { Db, Tx } from '../db/client';
 import type pg from 'pg';
 import { auditEvents, cells as cellsTable, drafts, outputs, studies, users } from '../db/schema';
-import { EngineBusyError, type ComputedOutput, type EnginePool } from '../engine/pool';
+import { EngineBusyError, type EngineOutput, type EnginePool } from '../engine/pool';
 import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
 import type { BranchContext } from '../access/branch';
-import { freshOutputsRows, OutputStore, type CachedOutput, type FreshOutput } from './outputs';
+import { freshOutputsRows, OutputStore, type CachedOutput, type ComputedResult, type FreshOutput } from './outputs';
 import { storedCells, storedTrash, splitOutputKeys } from './draft-keys';
 import { keepCells, keptEntryOf } from './draft-cells';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
@@ -97,9 +97,27 @@ export interface DraftDoc {
   cells: { cell: Omit<DraftCell, 'output' | 'lastGoodOutput'>; output: CachedOutput | null; lastGoodOutput: CachedOutput | null }[];
 }
 
-/** Cells as a JSON array, their outputs spliced in as the stored text without parsing them again. */
+/**
+ * Cells as a JSON array, their outputs spliced in as they are held, without parsing them again: as
+ * text, or with `asBytes`, an output held as bytes (just computed) as those bytes, so it is never
+ * encoded again; the pieces are handed to `piece` in order.
+ */
+function writeCells(cells: DraftDoc['cells'], piece: (part: string | Buffer) => void, asBytes: boolean): void {
+  const output = (o: CachedOutput | null) => piece(o === null ? 'null' : asBytes && o.bytes ? o.bytes : o.json);
+  cells.forEach(({ cell, output: last, lastGoodOutput }, i) => {
+    piece(`${i ? ',' : '['}${JSON.stringify(cell).slice(0, -1)},"output":`);
+    output(last);
+    piece(',"lastGoodOutput":');
+    output(lastGoodOutput);
+    piece('}');
+  });
+  piece(cells.length ? ']' : '[]');
+}
+
 function cellsJson(cells: DraftDoc['cells']): string {
-  return `[${cells.map(({ cell, output, lastGoodOutput }) => `${JSON.stringify(cell).slice(0, -1)},"output":${output?.json ?? 'null'},"lastGoodOutput":${lastGoodOutput?.json ?? 'null'}}`).join(',')}]`;
+  let json = '';
+  writeCells(cells, (part) => (json += part as string), false);
+  return json;
 }
 
 /** The draft as JSON text, outputs spliced in without parsing them again. */
@@ -117,8 +135,21 @@ export interface RunDoc {
   ran: CellRunReport[];
 }
 
-export function runJson(doc: RunDoc): string {
-  return `{"cells":${cellsJson(doc.cells)},${JSON.stringify({ ...doc.meta, ran: doc.ran }).slice(1)}`;
+/** A run's answer as UTF-8 bytes: the outputs it has just computed go in as the bytes the engine made. */
+export function runBytes(doc: RunDoc): Buffer {
+  const parts: Buffer[] = [];
+  let text = '{"cells":';
+  writeCells(
+    doc.cells,
+    (part) => {
+      if (typeof part === 'string') return void (text += part);
+      parts.push(Buffer.from(text), part);
+      text = '';
+    },
+    true,
+  );
+  parts.push(Buffer.from(`${text},${JSON.stringify({ ...doc.meta, ran: doc.ran }).slice(1)}`));
+  return Buffer.concat(parts);
 }
 
 /** The draft as an object; with `only`, just that cell (the others are left out). */
@@ -179,7 +210,7 @@ const editable = (c: { kind: string; title: string; collapsed: boolean; inputs: 
 export class NotebookService {
   readonly outputs = new OutputStore();
   /** Outputs being computed right now, so two runs of the same key compute once. */
-  private readonly inFlight = new Map<string, Promise<ComputedOutput>>();
+  private readonly inFlight = new Map<string, Promise<EngineOutput>>();
 
   constructor(
     private readonly db: Db,
@@ -501,7 +532,7 @@ export class NotebookService {
     plans: Map<string, CellPlan>,
     reports: Map<string, CellRunReport>,
     known: Map<string, CachedOutput>,
-    computing: Map<string, Promise<ComputedOutput>>,
+    computing: Map<string, Promise<EngineOutput>>,
   ): Promise<{ report: CellRunReport; output: CachedOutput | FreshOutput | null }> {
     const base = { cellId: plan.cell.cellId, kind: plan.kind };
     const started = performance.now();
@@ -513,7 +544,7 @@ export class NotebookService {
       report: { ...base, status: output.status, reused: true, key: output.key, durationMs: performance.now() - started, error: output.error },
       output,
     });
-    const fresh = (computed: ComputedOutput) => ({
+    const fresh = (computed: ComputedResult) => ({
       report: { ...base, status: computed.status, reused: false, key: plan.key, durationMs: performance.now() - started, error: computed.error },
       output: { fresh: true as const, key: plan.key!, kind: plan.kind, computed },
     });
@@ -548,8 +579,8 @@ export class NotebookService {
    * the same key at once compute it once. Flow conditions (microseconds of arithmetic) ride in the task
    * of the first other cell; every other cell is a task of its own, so heavy cells share the threads.
    */
-  private computeAll(wanted: CellPlan[], plans: Map<string, CellPlan>, known: Map<string, CachedOutput>): Map<string, Promise<ComputedOutput>> {
-    const out = new Map<string, Promise<ComputedOutput>>();
+  private computeAll(wanted: CellPlan[], plans: Map<string, CellPlan>, known: Map<string, CachedOutput>): Map<string, Promise<EngineOutput>> {
+    const out = new Map<string, Promise<EngineOutput>>();
     const starting = new Set<string>();
     const light: CellPlan[] = [];
     const batches: CellPlan[][] = [];
