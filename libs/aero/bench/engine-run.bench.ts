@@ -4,7 +4,7 @@
  * The cells of the run round-trip bench (server/bench/notebook.bench.ts): a flow condition at M 0.72
  * with a new Reynolds number each run, a 601-row closed-loop table of a symmetric Joukowski section
  * (2 × 300 stations), and a transition analysis with its defaults. They are planned as the server plans
- * them (planCells, sourceOf) and computed through computeCellOutput, the function the server's engine
+ * them (planCells, sourceOf) and computed through computeCellOutput(task, 'bytes'), as the server's engine
  * worker threads call, each run on a structured copy of the tasks, as a worker thread receives them.
  *
  * Printed: the median per run and its parts, and beside it, in the same minutes, the same run the way
@@ -16,7 +16,7 @@
  *   npx tsx libs/aero/bench/engine-run.bench.ts
  */
 import { randomUUID } from 'node:crypto';
-import { computeCell, computeCellOutput, resultJson, type CellTask } from '../src/cells/compute';
+import { computeCell, computeCellOutput, resultBytes, resultJson, type CellTask } from '../src/cells/compute';
 import { planCells, sourceOf } from '../src/cells/plan';
 import { parsePressureTable } from '../src/pressure-table';
 import { joukowskiLoop } from '../test/joukowski';
@@ -57,7 +57,7 @@ function median(values: number[]): number {
 
 const table = benchTable();
 const rows = table.split('\n').length - 1;
-const times = { run: [] as number[], analysis: [] as number[], json: [] as number[], parse: [] as number[], before: [] as number[], beforeJson: [] as number[] };
+const times = { run: [] as number[], analysis: [] as number[], json: [] as number[], text: [] as number[], parse: [] as number[], before: [] as number[], beforeJson: [] as number[] };
 const ROUNDS = 60;
 const PER_ROUND = 20;
 let run = 0;
@@ -66,20 +66,23 @@ for (let round = 0; round < ROUNDS; round++) {
   for (let i = 0; i < PER_ROUND; i++) {
     const tasks = runTasks(6e6 + ++run * 1000, table);
     const t0 = performance.now();
-    for (const task of tasks) if (computeCellOutput(task).status !== 'ok') throw new Error('the run bench case should compute');
+    for (const task of tasks) if (computeCellOutput(task, 'bytes').status !== 'ok') throw new Error('the run bench case should compute');
     const t1 = performance.now();
     const analysis = tasks[1]!;
     const result = computeCell(analysis.kind, analysis.inputs, analysis.upstream);
     const t2 = performance.now();
-    resultJson(result);
+    resultBytes(result);
     const t3 = performance.now();
     parsePressureTable(table);
     const t4 = performance.now();
+    new TextEncoder().encode(resultJson(result));
+    const t5 = performance.now();
     if (round >= ROUNDS / 4) {
       times.run.push(t1 - t0);
       times.analysis.push(t2 - t1);
       times.json.push(t3 - t2);
       times.parse.push(t4 - t3);
+      times.text.push(t5 - t4);
     }
   }
   // Before: a table the engine has not read (a comment line tells each run's apart), the replacer.
@@ -104,6 +107,6 @@ for (let round = 0; round < ROUNDS; round++) {
 
 const ms = (values: number[]) => `${median(values).toFixed(3)} ms`;
 out(`engine's part of a notebook run (the run bench's cells: ${rows}-row Joukowski table, M 0.72, analysis defaults), through computeCellOutput, median of ${times.run.length} runs`);
-out(`  now:    ${ms(times.run)} a run [flow, analysis]; parts: analysis computed ${ms(times.analysis)}, result JSON (resultJson) ${ms(times.json)}; the table is read once and kept`);
+out(`  now:    ${ms(times.run)} a run [flow, analysis]; parts: analysis computed ${ms(times.analysis)}, result JSON written as bytes (resultBytes, as the server's engine threads write it) ${ms(times.json)} (as text then encoded: ${ms(times.text)}); the table is read once and kept`);
 out(`  before: ${ms(times.before)} a run, as every run was before: a table the engine has not read (parsed and kept; the plain parse alone ${ms(times.parse)}), the result written with the toPrecision replacer (${ms(times.beforeJson)}) (a study's first run of a new table still pays the reading, not the replacer)`);
 out(`  ratio now / before: ${(median(times.run) / median(times.before)).toFixed(2)}×`);

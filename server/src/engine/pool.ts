@@ -5,11 +5,11 @@ import type { CellTask, ComputedOutput } from '@laminote/aero';
 export type { CellTask, ComputedOutput } from '@laminote/aero';
 
 /**
- * A cell's output as an engine thread hands it back: the result's JSON as the UTF-8 bytes of its text,
- * encoded on that thread, so the server's main thread never encodes it (it goes to PostgreSQL and into
+ * A cell's output as an engine thread hands it back: the result's JSON as UTF-8 bytes, written as
+ * bytes on that thread, so the server's main thread never encodes it (it goes to PostgreSQL and into
  * the run's answer as these bytes: about 57 kB for a 2 × 300-station analysis).
  */
-export type EngineOutput = Omit<ComputedOutput, 'resultJson'> & { resultJson: Uint8Array | null };
+export type EngineOutput = ComputedOutput<Uint8Array>;
 
 /**
  * The engine's worker-thread pool (piscina): each task is one cell for `computeCell` (libs/aero/src/cells),

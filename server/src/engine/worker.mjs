@@ -7,16 +7,13 @@ import { register } from 'tsx/esm/api';
 register();
 const { computeCellOutput } = await import('../../../libs/aero/src/cells/compute.ts');
 
-const encoder = new TextEncoder();
-
 /**
- * A cell's output with its result's JSON as UTF-8 bytes (EngineOutput in pool.ts): encoded here, on
- * the engine's thread, instead of on the server's main thread, where it would be encoded twice (for
- * PostgreSQL and for the answer).
+ * A cell's output with its result's JSON as UTF-8 bytes (EngineOutput in pool.ts), written as bytes
+ * by the engine (resultBytes) on this thread: the server's main thread sends them on to PostgreSQL
+ * and into the run's answer as they are, never encoding the text.
  */
 function computeCellBytes(task) {
-  const output = computeCellOutput(task);
-  return output.resultJson === null ? output : { ...output, resultJson: encoder.encode(output.resultJson) };
+  return computeCellOutput(task, 'bytes');
 }
 
 /**

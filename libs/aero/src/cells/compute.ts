@@ -10,7 +10,7 @@ import { computePolar, polarTable } from './polar';
 import { computePressure, pressureTable } from './pressure';
 import { scalarTable, type ResultTable } from './result-table';
 import { computeSection, sectionTable } from './section';
-import { resultJson } from './result-json';
+import { resultBytes, resultJson } from './result-json';
 import { computeSweep, sweepTable } from './sweep';
 import type { Upstream } from './types';
 
@@ -72,25 +72,28 @@ export interface CellTask {
 }
 
 /** A computed output with its result as JSON text, numbers kept to RESULT_DIGITS. */
-export interface ComputedOutput {
+export interface ComputedOutput<Json extends string | Uint8Array = string> {
   status: 'ok' | 'error';
-  /** JSON text of the result when status is ok. */
-  resultJson: string | null;
+  /** JSON text of the result when status is ok (or, computed with `'bytes'`, its UTF-8 bytes). */
+  resultJson: Json | null;
   error: CellError | null;
   durationMs: number;
 }
 
-export { RESULT_DIGITS, resultJson, roundedCopy, roundedNumber } from './result-json';
+export { RESULT_DIGITS, resultBytes, resultJson, roundedCopy, roundedNumber } from './result-json';
 
 /**
  * Compute a cell into its stored form: the result as JSON text, or the one-line message with the
  * field at fault. A fault that is not the input's (a defect) is thrown, not stored.
  */
-export function computeCellOutput(task: CellTask): ComputedOutput {
+export function computeCellOutput(task: CellTask): ComputedOutput;
+/** The same with the result's JSON as its UTF-8 bytes (resultBytes), for a caller that sends bytes on. */
+export function computeCellOutput(task: CellTask, form: 'bytes'): ComputedOutput<Uint8Array>;
+export function computeCellOutput(task: CellTask, form: 'text' | 'bytes' = 'text'): ComputedOutput<string | Uint8Array> {
   const started = performance.now();
   try {
     const result = computeCell(task.kind, task.inputs, task.upstream);
-    return { status: 'ok', resultJson: resultJson(result), error: null, durationMs: performance.now() - started };
+    return { status: 'ok', resultJson: form === 'bytes' ? resultBytes(result) : resultJson(result), error: null, durationMs: performance.now() - started };
   } catch (error) {
     const cellError = toCellError(error);
     if (!cellError) throw error;

@@ -2,7 +2,7 @@ import { CELL_SCHEMAS, type CellInputs, type CellKind, type ComputedKind } from 
 import { describe, expect, it } from 'vitest';
 import { joukowskiLoop } from '../../test/joukowski';
 import { computeCell, computeCellOutput } from './compute';
-import { RESULT_DIGITS, resultJson, roundedNumber, roundToResultDigits } from './result-json';
+import { RESULT_DIGITS, resultBytes, resultJson, roundedNumber, roundToResultDigits } from './result-json';
 
 /**
  * The reference is the language's own decimal rounding: ECMA-262, Number.prototype.toPrecision (the
@@ -101,6 +101,9 @@ function inputs<K extends CellKind>(kind: K, given: Record<string, unknown>): Ce
   return CELL_SCHEMAS[kind].inputs.parse(given) as CellInputs[K];
 }
 
+/** resultBytes read back as text: the reference is JSON.stringify with the rounding replacer, UTF-8 encoded (TextEncoder, WHATWG Encoding). */
+const bytesText = (value: unknown) => new TextDecoder('utf-8', { fatal: true }).decode(resultBytes(value));
+
 describe('resultJson: the text of JSON.stringify with the rounding replacer, to the character', () => {
   it('gives the same text for analyses of a pressure table at several Reynolds and Mach numbers', () => {
     // Exact potential flow about a Joukowski section (the engine's analytic test loop).
@@ -117,6 +120,8 @@ describe('resultJson: the text of JSON.stringify with the rounding replacer, to 
       const result = computeCell('analysis', analysis, { flowCellId: flow, pressureCellId: pressure });
       const before = JSON.stringify(result);
       expect(resultJson(result)).toBe(JSON.stringify(result, referenceReplacer));
+      // The same as the bytes the server's engine threads write (resultBytes).
+      expect(bytesText(result)).toBe(JSON.stringify(result, referenceReplacer));
       // The value given is not touched (its numbers keep every digit).
       expect(JSON.stringify(result)).toBe(before);
       const output = computeCellOutput({ kind: 'analysis', inputs: analysis, upstream: { flowCellId: flow, pressureCellId: pressure } });
@@ -124,6 +129,7 @@ describe('resultJson: the text of JSON.stringify with the rounding replacer, to 
       for (const kind of ['flow', 'pressure'] as ComputedKind[]) {
         const source = kind === 'flow' ? flow : pressure;
         expect(resultJson(computeCell(kind, source.inputs, {}))).toBe(JSON.stringify(computeCell(kind, source.inputs, {}), referenceReplacer));
+        expect(bytesText(computeCell(kind, source.inputs, {}))).toBe(JSON.stringify(computeCell(kind, source.inputs, {}), referenceReplacer));
       }
     }
   });
@@ -159,5 +165,67 @@ describe('resultJson: the text of JSON.stringify with the rounding replacer, to 
   it('keeps the replacer for callers that stringify themselves, with the same numbers', () => {
     const value = { r: [1 / 3, 2 / 3, 12345678.9, 1e-12 / 7] };
     expect(JSON.stringify(value, roundedNumber)).toBe(JSON.stringify(value, referenceReplacer));
+  });
+});
+
+
+describe('resultBytes: the UTF-8 of JSON.stringify with the rounding replacer, to the byte', () => {
+  it('writes a million numbers of every magnitude and sign as JSON.stringify writes them rounded', () => {
+    const next = random(21);
+    for (let chunk = 0; chunk < 100; chunk++) {
+      const values: number[] = [];
+      for (let i = 0; i < 10_000; i++) {
+        const exponent = Math.floor(next() * 640) - 330;
+        values.push((next() < 0.5 ? -1 : 1) * (1 + 9 * next()) * 10 ** exponent);
+      }
+      expect(bytesText(values)).toBe(JSON.stringify(values, referenceReplacer));
+    }
+  });
+
+  it('writes the numbers next to powers of ten, decimal ties and notation changes, and integers, as JSON.stringify does', () => {
+    const next = random(23);
+    const values: number[] = [];
+    for (let e = -320; e <= 308; e++) values.push(...neighbours(Number(`1e${e}`), 3), ...neighbours(Number(`9.9999995e${e}`), 3), ...neighbours(Number(`1.5e${e}`), 1));
+    for (let i = 0; i < 20_000; i++) {
+      const n = 1_000_000 + Math.floor(next() * 9_000_000);
+      values.push(...neighbours(Number(`${n}5e${Math.floor(next() * 60) - 37}`), 2));
+    }
+    // Where Number::toString changes notation (ECMA-262: plain up to 1e21, "0.000…" down to 1e-6) and integers of every size.
+    values.push(1e-7, 1.234567e-7, 9.999999e-7, 1e-6, 1.5e-6, 123456.7, 1234567.4, 12345678.9, 1e20 + 0.5e5, 123456789012345680000, 1e21, 1.5e21, 9.9999999e20);
+    values.push(0, -0, 1, -1, 7, 10, 999_999_999, 1e9, -1e9, 2 ** 53, -(2 ** 53), 2 ** 31, 1e300, -1e300, 5e-324, -5e-324, 1.7976931348623157e308);
+    for (let i = 0; i < 10_000; i++) values.push(Math.round((next() - 0.5) * 10 ** Math.floor(next() * 16)));
+    expect(bytesText(values)).toBe(JSON.stringify(values, referenceReplacer));
+  });
+
+  it('writes text outside ASCII, escapes, holes, undefined and non-finite numbers as JSON.stringify does, and leaves the rest to it', () => {
+    const holes: unknown[] = [1.23456789];
+    holes[3] = 2 / 3;
+    const plain = {
+      'Re_θ – 1 µm': ['𝜃 ≥ 0', 'quote " and \\ and \n and \u0001', 'lone \ud800 surrogate'],
+      a: [Math.PI, -Math.E, 0, -0, 42, 1e300, NaN, Infinity, -Infinity, null, undefined, true, false, () => 1],
+      10: 0.1 + 0.2,
+      2: { nested: [[1e-9 / 7], { deep: -123456.7891 }], empty: {}, none: [] },
+      skipped: undefined,
+      holes,
+      bare: Object.assign(Object.create(null) as object, { z: 1 / 9 }),
+    };
+    expect(bytesText(plain)).toBe(JSON.stringify(plain, referenceReplacer));
+    class Stamp {
+      constructor(readonly at: number) {}
+      toJSON() {
+        return { at: this.at / 3 };
+      }
+    }
+    for (const odd of [{ when: new Date(0) }, [new Stamp(2)], { boxed: new Number(1 / 7) }, { s: new Stamp(1) }, 1 / 7, 'text', [[[[{ deep: 1 / 3 }]]]]]) {
+      expect(bytesText(odd)).toBe(JSON.stringify(odd, referenceReplacer));
+    }
+    let deep: unknown = [0.5];
+    for (let i = 0; i < 500; i++) deep = [deep];
+    expect(bytesText(deep)).toBe(JSON.stringify(deep, referenceReplacer));
+    const cycle: Record<string, unknown> = {};
+    cycle['self'] = cycle;
+    // A cycle is refused as resultJson refuses it (its rounded copy runs out of stack before JSON.stringify sees the cycle).
+    expect(() => resultJson(cycle)).toThrow();
+    expect(() => resultBytes(cycle)).toThrow();
   });
 });

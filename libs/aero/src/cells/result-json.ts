@@ -33,8 +33,19 @@ function scaled(magnitude: number, k: number): number {
  */
 export function roundToResultDigits(v: number): number {
   const magnitude = v < 0 ? -v : v;
+  if (!roundDecimal(magnitude)) return Number(v.toPrecision(RESULT_DIGITS));
+  const rounded = roundedScale >= 0 ? roundedDigits / POWERS_OF_TEN[roundedScale]! : roundedDigits * POWERS_OF_TEN[-roundedScale]!;
+  return v < 0 ? -rounded : rounded;
+}
+
+/**
+ * The decimal a positive magnitude rounds to, by arithmetic (roundToResultDigits): sets roundedDigits
+ * (the integer n, 10^(D−1) ≤ n ≤ 10^D for D = RESULT_DIGITS) and roundedScale (k: the value is
+ * n · 10^−k) and answers true; false where only toPrecision can tell (out of range, or a near-tie).
+ */
+function roundDecimal(magnitude: number): boolean {
   // 1e-15 ≤ |v| < 1e21 keeps |k| ≤ 22, where 10^k is exact.
-  if (!(magnitude >= 1e-15 && magnitude < 1e21)) return Number(v.toPrecision(RESULT_DIGITS));
+  if (!(magnitude >= 1e-15 && magnitude < 1e21)) return false;
   // Neighbouring values (a result's arrays) mostly share their scale: try the last one before log10.
   let k = lastScale;
   let y = scaled(magnitude, k);
@@ -44,19 +55,22 @@ export function roundToResultDigits(v: number): number {
     // log10 may be one off next to a power of ten.
     if (y < LOW) y = scaled(magnitude, ++k);
     else if (y >= HIGH) y = scaled(magnitude, --k);
-    if (!(y >= LOW && y < HIGH)) return Number(v.toPrecision(RESULT_DIGITS));
+    if (!(y >= LOW && y < HIGH)) return false;
     lastScale = k;
   }
   const whole = Math.floor(y);
   const fraction = y - whole;
-  if (fraction > 0.5 - TIE_MARGIN && fraction < 0.5 + TIE_MARGIN) return Number(v.toPrecision(RESULT_DIGITS));
-  const n = fraction < 0.5 ? whole : whole + 1;
-  const rounded = k >= 0 ? n / POWERS_OF_TEN[k]! : n * POWERS_OF_TEN[-k]!;
-  return v < 0 ? -rounded : rounded;
+  if (fraction > 0.5 - TIE_MARGIN && fraction < 0.5 + TIE_MARGIN) return false;
+  roundedDigits = fraction < 0.5 ? whole : whole + 1;
+  roundedScale = k;
+  return true;
 }
 
 /** The scale k of the number rounded last (a hint; any k in −22…22 is checked before use). */
 let lastScale = 0;
+/** What roundDecimal found last: the digits n and the scale k of n · 10^−k. */
+let roundedDigits = 0;
+let roundedScale = 0;
 
 /** Far wider than the error of y (under 1e-9), so only true near-ties take the exact path. */
 const TIE_MARGIN = 1e-6;
@@ -113,4 +127,207 @@ function copyOfObject(value: object): unknown {
 /** The stored text of a result: JSON.stringify(value, roundedNumber), to the character. */
 export function resultJson(value: unknown): string {
   return JSON.stringify(roundedCopy(value));
+}
+
+// ── The same text as bytes, written directly ──────────────────────────────────────────────────────
+
+/**
+ * The UTF-8 bytes of resultJson(value), for an object or array of plain data (what the engine's
+ * results are), written straight into bytes: about three times faster than rounding a copy and
+ * writing it with JSON.stringify (a 2 × 300-station analysis, 58 kB: 0.25 against 0.82 ms, and no
+ * encoding of the text after). Every rounded number is written from the decimal it was rounded to:
+ * the double nearest n · 10^−k, n of at most RESULT_DIGITS digits, is written by JavaScript (and so by
+ * JSON.stringify) as those digits, trailing zeros dropped, since no other decimal of so few digits
+ * lies within half a unit in the last place of that double (ECMA-262, Number::toString: the fewest
+ * digits that read back as the number), in the notation Number::toString picks by the decimal
+ * point's place. Anything but plain objects, arrays, strings, numbers, booleans and null (toJSON,
+ * boxed primitives, class instances, a bigint, a cycle) is left to resultJson itself, so the bytes
+ * are its text's in every case; a test holds the two against JSON.stringify with the rounding replacer.
+ */
+export function resultBytes(value: unknown): Uint8Array {
+  if (typeof value === 'object' && value !== null) {
+    length = 0;
+    if (writeValue(value, 0)) return bytes.slice(0, length);
+  }
+  return encoder.encode(resultJson(value));
+}
+
+const encoder = new TextEncoder();
+/** Where resultBytes writes (grown as needed, kept for the next call); `length` bytes of it are written. */
+let bytes = new Uint8Array(1 << 16);
+let length = 0;
+/** Deeper than this is left to JSON.stringify (which reports a cycle as a cycle). */
+const MAX_DEPTH = 200;
+const DIGITS = new Uint8Array(24);
+const keyBytes = new Map<string, Uint8Array>();
+
+function room(n: number): void {
+  if (length + n <= bytes.length) return;
+  const grown = new Uint8Array(Math.max(bytes.length * 2, length + n));
+  grown.set(bytes.subarray(0, length));
+  bytes = grown;
+}
+
+function writeByte(b: number): void {
+  room(1);
+  bytes[length++] = b;
+}
+
+/** Text that JSON has already escaped (a JSON string or a number's text). */
+function writeText(text: string): void {
+  const n = text.length;
+  room(n);
+  let i = 0;
+  for (; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 0x80) break;
+    bytes[length + i] = c;
+  }
+  if (i === n) {
+    length += n;
+    return;
+  }
+  length += i;
+  const rest = encoder.encode(text.slice(i));
+  room(rest.length);
+  bytes.set(rest, length);
+  length += rest.length;
+}
+
+/** A key as JSON writes it, quoted and escaped, with the colon after it. */
+function writeKey(key: string): void {
+  let written = keyBytes.get(key);
+  if (written === undefined) {
+    written = encoder.encode(`${JSON.stringify(key)}:`);
+    if (keyBytes.size < 4096) keyBytes.set(key, written);
+  }
+  room(written.length);
+  bytes.set(written, length);
+  length += written.length;
+}
+
+/** Writes a value; false when it is not plain data (the caller then leaves the whole value to resultJson). */
+function writeValue(value: unknown, depth: number): boolean {
+  switch (typeof value) {
+    case 'number':
+      room(NUMBER_ROOM);
+      writeNumber(value);
+      return true;
+    case 'string':
+      writeText(JSON.stringify(value));
+      return true;
+    case 'boolean':
+      writeText(value ? 'true' : 'false');
+      return true;
+    case 'object':
+      break;
+    default:
+      return false;
+  }
+  if (value === null) {
+    writeText('null');
+    return true;
+  }
+  if (depth > MAX_DEPTH) return false;
+  const proto: unknown = Object.getPrototypeOf(value);
+  if (Array.isArray(value)) {
+    if (proto !== Array.prototype || typeof (value as { toJSON?: unknown }).toJSON === 'function') return false;
+    writeByte(0x5b); // [
+    const n = value.length;
+    for (let i = 0; i < n; i++) {
+      room(NUMBER_ROOM + 1);
+      if (i > 0) bytes[length++] = 0x2c; // ,
+      const item: unknown = value[i];
+      if (typeof item === 'number') writeNumber(item);
+      else if (item === undefined || typeof item === 'function' || typeof item === 'symbol') writeText('null');
+      else if (!writeValue(item, depth + 1)) return false;
+    }
+    writeByte(0x5d); // ]
+    return true;
+  }
+  if ((proto !== Object.prototype && proto !== null) || typeof (value as { toJSON?: unknown }).toJSON === 'function') return false;
+  writeByte(0x7b); // {
+  let first = true;
+  for (const key of Object.keys(value)) {
+    const item: unknown = (value as Record<string, unknown>)[key];
+    if (item === undefined || typeof item === 'function' || typeof item === 'symbol') continue;
+    if (!first) writeByte(0x2c);
+    first = false;
+    writeKey(key);
+    if (typeof item === 'number') {
+      room(NUMBER_ROOM);
+      writeNumber(item);
+    } else if (!writeValue(item, depth + 1)) return false;
+  }
+  writeByte(0x7d); // }
+  return true;
+}
+
+/** Bytes writeNumber may write without asking for room (the most it writes itself: a sign and 21 digits). */
+const NUMBER_ROOM = 32;
+
+/** A number as resultJson writes it: JSON's text of roundedValue(v); room(NUMBER_ROOM) first. */
+function writeNumber(v: number): void {
+  if (Number.isInteger(v)) {
+    if (v >= 0 && v < 1e9) writeDigits(v, 0);
+    else writeText(String(v === 0 ? 0 : v));
+    return;
+  }
+  if (!Number.isFinite(v)) return writeText('null');
+  const magnitude = v < 0 ? -v : v;
+  if (!roundDecimal(magnitude)) return writeText(String(Number(v.toPrecision(RESULT_DIGITS))));
+  if (v < 0) bytes[length++] = 0x2d; // -
+  writeDigits(roundedDigits, roundedScale);
+}
+
+/**
+ * n · 10^−k (n a positive integer below 10^9, or 0) in the notation of Number::toString (ECMA-262):
+ * with d the digits of n less trailing zeros and p where the decimal point falls after the first
+ * digit (n · 10^−k = 0.d · 10^p), plain digits for p up to 21, a leading "0." for p down to −5, and
+ * otherwise d₁.d₂…e±(p − 1).
+ */
+function writeDigits(n: number, k: number): void {
+  if (n === 0) return writeByte(0x30);
+  let count = 0;
+  // n < 10^9 < 2^31: int32 arithmetic (a double's % would be a call to fmod).
+  for (let rest = n | 0; rest > 0; ) {
+    const tenth = (rest / 10) | 0;
+    DIGITS[count++] = 0x30 + rest - tenth * 10;
+    rest = tenth;
+  }
+  // DIGITS holds the digits last first; drop the trailing zeros (the first ones held).
+  let last = 0;
+  while (DIGITS[last] === 0x30) last++;
+  const m = count - last;
+  const p = count - k;
+  if (p >= m && p <= 21) {
+    for (let i = count - 1; i >= last; i--) bytes[length++] = DIGITS[i]!;
+    for (let i = m; i < p; i++) bytes[length++] = 0x30;
+  } else if (p > 0 && p <= 21) {
+    for (let i = count - 1, j = 0; i >= last; i--, j++) {
+      if (j === p) bytes[length++] = 0x2e; // .
+      bytes[length++] = DIGITS[i]!;
+    }
+  } else if (p > -6 && p <= 0) {
+    bytes[length++] = 0x30;
+    bytes[length++] = 0x2e;
+    for (let i = p; i < 0; i++) bytes[length++] = 0x30;
+    for (let i = count - 1; i >= last; i--) bytes[length++] = DIGITS[i]!;
+  } else {
+    bytes[length++] = DIGITS[count - 1]!;
+    if (m > 1) {
+      bytes[length++] = 0x2e;
+      for (let i = count - 2; i >= last; i--) bytes[length++] = DIGITS[i]!;
+    }
+    bytes[length++] = 0x65; // e
+    const exponent = p - 1;
+    bytes[length++] = exponent < 0 ? 0x2d : 0x2b;
+    writeExponent(exponent < 0 ? -exponent : exponent);
+  }
+}
+
+function writeExponent(e: number): void {
+  if (e >= 100) bytes[length++] = 0x30 + Math.floor(e / 100);
+  if (e >= 10) bytes[length++] = 0x30 + (Math.floor(e / 10) % 10);
+  bytes[length++] = 0x30 + (e % 10);
 }
