@@ -230,26 +230,32 @@ function writeValue(value: unknown, depth: number): boolean {
   }
   if (depth > MAX_DEPTH) return false;
   const proto: unknown = Object.getPrototypeOf(value);
-  if (Array.isArray(value)) {
-    if (proto !== Array.prototype || typeof (value as { toJSON?: unknown }).toJSON === 'function') return false;
-    writeByte(0x5b); // [
-    const n = value.length;
-    for (let i = 0; i < n; i++) {
-      room(NUMBER_ROOM + 1);
-      if (i > 0) bytes[length++] = 0x2c; // ,
-      const item: unknown = value[i];
-      if (typeof item === 'number') writeNumber(item);
-      else if (item === undefined || typeof item === 'function' || typeof item === 'symbol') writeText('null');
-      else if (!writeValue(item, depth + 1)) return false;
-    }
-    writeByte(0x5d); // ]
-    return true;
-  }
+  if (Array.isArray(value)) return proto === Array.prototype && typeof (value as { toJSON?: unknown }).toJSON !== 'function' && writeArray(value, depth);
   if ((proto !== Object.prototype && proto !== null) || typeof (value as { toJSON?: unknown }).toJSON === 'function') return false;
+  return writeObject(value as Record<string, unknown>, depth);
+}
+
+/** An array's items (a result's arrays are mostly numbers: those are written in the loop itself). */
+function writeArray(value: readonly unknown[], depth: number): boolean {
+  writeByte(0x5b); // [
+  const n = value.length;
+  for (let i = 0; i < n; i++) {
+    room(NUMBER_ROOM + 1);
+    if (i > 0) bytes[length++] = 0x2c; // ,
+    const item: unknown = value[i];
+    if (typeof item === 'number') writeNumber(item);
+    else if (item === undefined || typeof item === 'function' || typeof item === 'symbol') writeText('null');
+    else if (!writeValue(item, depth + 1)) return false;
+  }
+  writeByte(0x5d); // ]
+  return true;
+}
+
+function writeObject(value: Record<string, unknown>, depth: number): boolean {
   writeByte(0x7b); // {
   let first = true;
   for (const key of Object.keys(value)) {
-    const item: unknown = (value as Record<string, unknown>)[key];
+    const item: unknown = value[key];
     if (item === undefined || typeof item === 'function' || typeof item === 'symbol') continue;
     if (!first) writeByte(0x2c);
     first = false;
