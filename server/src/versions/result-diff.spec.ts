@@ -34,6 +34,16 @@ const result = (surfaces: EngineSurfaceResult[], cd = 0.003): EngineResult => ({
 const ok = (r: EngineResult) => sideOf(true, { status: 'ok', result: r, error: null });
 
 describe('compareAnalysis', () => {
+  it('overlays Cp from the edge velocity, kept to the digits of a stored result', () => {
+    // Incompressible: Cp = 1 − (ue/U∞)² (Bernoulli); at M 0.7 the compressible relation the engine uses, checked here only for being rounded.
+    const ue = [0, 0.3, 0.7, 1.1, 1.3];
+    const a = surface({ transitionS: 0.5, stations: { ...surface({ transitionS: 0.5 }).stations, ue } });
+    const compared = compareAnalysis('c', 'T', ok(result([a])), ok({ ...result([a]), flow: { reynolds: 6e6, mach: 0.7, nCrit: 9, nCritFrom: 'given' } }));
+    const overlay = compared.surfaces[0]!.overlay;
+    expect(overlay.a!.cp).toEqual(ue.map((u) => Number((1 - u * u).toPrecision(7))));
+    for (const cp of overlay.b!.cp) expect(cp === null || cp === Number(cp.toPrecision(7))).toBe(true);
+  });
+
   it('calls transition moving aft with less drag favourable, and the reverse adverse', () => {
     const aft = compareAnalysis('c', 'T', ok(result([surface({ transitionS: 0.3 })], 0.004)), ok(result([surface({ transitionS: 0.5, cd: 0.0025 })], 0.0035)));
     const upper = aft.surfaces[0]!;

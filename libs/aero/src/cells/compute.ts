@@ -80,7 +80,7 @@ export interface ComputedOutput<Json extends string | Uint8Array = string> {
   durationMs: number;
 }
 
-export { RESULT_DIGITS, resultBytes, resultJson, roundedCopy, roundedNumber } from './result-json';
+export { RESULT_DIGITS, resultBytes, resultJson, roundedCopy, roundedNumber, roundToResultDigits } from './result-json';
 
 /**
  * Compute a cell into its stored form: the result as JSON text, or the one-line message with the
