@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { DEFAULT_PROJECT_SETTINGS, isUuid } from '@laminote/contracts';
 import type { SessionUser } from '../auth/types';
 import type { Tx } from '../db/client';
-import { branches, drafts, memberships, projects, studies } from '../db/schema';
+import { branches, drafts, memberships, outputs, projects, studies } from '../db/schema';
 import type { ProjectContext } from './access';
 import { notFound, ProblemError } from '../http/problem';
 import { keepCells, knownCells } from '../notebook/draft-cells';
@@ -60,27 +60,41 @@ const buildAccessQuery = (tx: Tx) =>
 
 const accessQueries = new WeakMap<Tx, ReturnType<typeof buildAccessQuery>>();
 
+/** Which of some output keys were stored when the access was read (branchAccessWithDraft's `askKeys`). */
+export interface StoredKeysAnswer {
+  asked: ReadonlySet<string>;
+  stored: ReadonlySet<string>;
+}
+
 /**
  * The caller's access to a branch (as branchAccess) and the branch's draft row, in one query: the
  * notebook's draft and run routes read both on every request. The draft is null when the branch has
- * none yet (a branch made before drafts existed).
+ * none yet (a branch made before drafts existed). `askKeys`, output keys the caller expects to look
+ * up next (a run's, from the cells this app holds), are answered in the same query with those of them
+ * that are stored, so a run whose outputs are all new needs no lookup of its own.
  */
-export async function branchAccessWithDraft(tx: Tx, user: SessionUser, branchId: string): Promise<{ ctx: BranchContext; draft: typeof drafts.$inferSelect | null }> {
+export async function branchAccessWithDraft(
+  tx: Tx,
+  user: SessionUser,
+  branchId: string,
+  askKeys: readonly string[] = [],
+): Promise<{ ctx: BranchContext; draft: typeof drafts.$inferSelect | null; storedKeys: StoredKeysAnswer | null }> {
   if (!isUuid(branchId)) throw notFound('branch');
   let query = accessWithDraftQueries.get(tx);
   if (!query) accessWithDraftQueries.set(tx, (query = buildAccessWithDraftQuery(tx)));
   // The cells come only when they differ from those this app holds (drafts.cells_token).
   const known = knownCells(tx, branchId);
-  const [row] = await query.execute({ branchId, userId: user.id, cellsToken: known?.token ?? -1 });
+  const [row] = await query.execute({ branchId, userId: user.id, cellsToken: known?.token ?? -1, keys: askKeys });
   const ctx = contextOf(row, user);
+  const storedKeys = askKeys.length ? { asked: new Set(askKeys), stored: new Set(row?.storedKeys ?? []) } : null;
   const read = row?.draft;
-  if (!read) return { ctx, draft: null };
+  if (!read) return { ctx, draft: null, storedKeys };
   if (read.cells === null || read.trash === null) {
     if (!known || read.cellsToken !== known.token) throw new Error(`the draft of branch ${branchId} came without its cells`);
-    return { ctx, draft: { ...read, cells: known.cells, trash: known.trash } };
+    return { ctx, draft: { ...read, cells: known.cells, trash: known.trash }, storedKeys };
   }
   const kept = keepCells(tx, branchId, read.cellsToken, read.cells, read.trash);
-  return { ctx, draft: { ...read, cells: kept.cells, trash: kept.trash } };
+  return { ctx, draft: { ...read, cells: kept.cells, trash: kept.trash }, storedKeys };
 }
 
 /** A column of the draft, or null when its cells token is the one given (the caller holds them). */
@@ -94,6 +108,7 @@ const buildAccessWithDraftQuery = (tx: Tx) =>
       study: studies,
       settings: projects.settings,
       role: memberships.role,
+      storedKeys: sql<string[] | null>`(select array_agg(o.${sql.identifier(outputs.key.name)}) from ${outputs} o where o.${sql.identifier(outputs.key.name)} = any(${sql.placeholder('keys')}::text[]))`,
       draft: {
         branchId: drafts.branchId,
         revision: drafts.revision,

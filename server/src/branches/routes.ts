@@ -73,13 +73,17 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
    * whose outputs changed (RunResponse).
    */
   router.post('/:branchId/run', async (req, res) => {
-    const { ctx, draft } = await branchAccessWithDraft(db, req.user!, req.params.branchId);
+    // The outputs the run will look for are asked with the access, from the cells this app holds;
+    // a body that does not parse is refused below, after the access is checked.
+    const asked = runRequestSchema.safeParse(req.body ?? {});
+    const guess = notebook.runKeysGuess(req.params.branchId, asked.success ? asked.data.cellIds : undefined);
+    const { ctx, draft, storedKeys } = await branchAccessWithDraft(db, req.user!, req.params.branchId, guess);
     requireAction(ctx.access, 'runCells');
     requireWritable(ctx);
     const body = parse(runRequestSchema, req.body ?? {});
     // The draft is read once, with the access: the plan decides between computing at once and
     // queueing, and is what runs.
-    const planned = await notebook.planRun(ctx, body.cellIds, draft);
+    const planned = await notebook.planRun(ctx, body.cellIds, draft, storedKeys);
     const work = jobs.work(planned);
     // A few quick cells are computed at once on this server's engine pool and stored by key exactly as
     // a worker stores them, so a small run answers in milliseconds; longer work goes to the queue.

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type { CellError, CellKind, CellOutput } from '@laminote/contracts';
 import type { Tx } from '../db/client';
+import type { StoredKeysAnswer } from '../access/branch';
 import { outputs } from '../db/schema';
 import type { ComputedOutput } from '@laminote/aero';
 
@@ -154,14 +155,20 @@ export class OutputStore {
     return (await this.getMany(tx, [key])).get(key) ?? null;
   }
 
-  async getMany(tx: Tx, keys: Iterable<string | null | undefined>): Promise<Map<string, CachedOutput>> {
+  /**
+   * The outputs stored under these keys. `told`, when given, says which keys were asked of the
+   * database a moment ago and which of them were stored then (branchAccessWithDraft): a key asked and
+   * not stored is not asked again. One stored since is found at the run's store, which keeps the
+   * first output of a key.
+   */
+  async getMany(tx: Tx, keys: Iterable<string | null | undefined>, told?: StoredKeysAnswer | null): Promise<Map<string, CachedOutput>> {
     const found = new Map<string, CachedOutput>();
     const missing: string[] = [];
     for (const key of new Set(keys)) {
       if (typeof key !== 'string') continue;
       const hit = this.touch(key);
       if (hit) found.set(key, hit);
-      else missing.push(key);
+      else if (!told?.asked.has(key) || told.stored.has(key)) missing.push(key);
     }
     if (missing.length) {
       const rows = await outputsQuery(tx).execute({ keys: missing });

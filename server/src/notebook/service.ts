@@ -21,10 +21,10 @@ import { auditEvents, cells as cellsTable, drafts, outputs, studies, users } fro
 import { EngineBusyError, type EngineOutput, type EnginePool } from '../engine/pool';
 import { badRequest, conflict, ProblemError } from '../http/problem';
 import type { Logger } from '../logger';
-import type { BranchContext } from '../access/branch';
+import type { BranchContext, StoredKeysAnswer } from '../access/branch';
 import { freshOutputsRows, OutputStore, type CachedOutput, type ComputedResult, type FreshOutput } from './outputs';
 import { storedCells, storedTrash, splitOutputKeys } from './draft-keys';
-import { keepCells, keptEntryOf } from './draft-cells';
+import { keepCells, keptEntryOf, knownCells } from './draft-cells';
 import { canonicalJson, planCells, taskOf, type CellPlan, type StoredCell } from './plan';
 
 /** The places in a run, first to last: the cells of one place run together, after those before it. */
@@ -385,14 +385,35 @@ export class NotebookService {
    * stored already. The run route decides from it whether to compute at once or queue a job. `read`
    * is the draft row when the caller has it already (branchAccessWithDraft).
    */
-  async planRun(ctx: BranchContext, cellIds: string[] | undefined, read?: DraftRow | null): Promise<PlannedRun> {
+  async planRun(ctx: BranchContext, cellIds: string[] | undefined, read?: DraftRow | null, told?: StoredKeysAnswer | null): Promise<PlannedRun> {
     const row = read ?? (await draftRow(this.db, ctx.branch.id, false));
     const stored = storedCells(row);
     const plans = planCells(stored, keptEntryOf(row.cells));
     const targets = this.targets(plans, stored, cellIds);
-    // Every output the run could reuse, looked up at once.
-    const known = await this.outputs.getMany(this.db, [...targets].map((id) => plans.get(id)!.key));
+    // Every output the run could reuse, looked up at once (only those the access query has not answered).
+    const known = await this.outputs.getMany(this.db, [...targets].map((id) => plans.get(id)!.key), told);
     return { row, stored, plans, targets, known };
+  }
+
+  /**
+   * The output keys a run of these cells (or of all) will look up, from the draft's cells as this app
+   * holds them (none when it holds none): the run's access query asks for them, so that their lookup
+   * rides with it. A guess: if the draft has changed meanwhile, planRun looks up what it was not told.
+   */
+  runKeysGuess(branchId: string, cellIds: readonly string[] | undefined): string[] {
+    const known = knownCells(this.db, branchId);
+    if (!known) return [];
+    const plans = planCells(known.cells as StoredCell[], known);
+    const ids = cellIds?.filter((id) => plans.has(id)) ?? [...plans.keys()];
+    const keys = new Set<string>();
+    const add = (id: string) => {
+      const plan = plans.get(id)!;
+      if (plan.key === null || keys.has(plan.key)) return;
+      keys.add(plan.key);
+      for (const ref of plan.refs) if (plans.has(ref.cellId)) add(ref.cellId);
+    };
+    ids.forEach(add);
+    return [...keys];
   }
 
   /**
