@@ -29,8 +29,12 @@
  * It also reports the initial JavaScript of the built app (dist/web/browser: main and its static
  * imports), the notebook route's chunks, and the lazily loaded plot chunks, raw and gzip, and whether
  * the plot chunk was fetched before the page was interactive.
+ *
+ * For diagnosis, BENCH_TRACE=folder makes one traced cold open instead of the figures (traceColdOpen):
+ * a Chrome trace to open in the browser's performance panel, and the renderer main thread's time to
+ * interactive by kind of work and by JavaScript function.
  */
-import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
@@ -238,7 +242,7 @@ const answered = (): boolean => /waiting|Saving/.test(document.querySelector('la
  * types a space at the end of the first title and notes the paint after the indicator answered.
  * Plain source text: the page gets no bundler helpers.
  */
-function pageWatch(count: number): string {
+function pageWatch(count: number, marks = false): string {
   return `(() => {
   if (window !== window.top) return;
   const ready = ${ready.toString()};
@@ -247,7 +251,7 @@ function pageWatch(count: number): string {
   const afterPaint = (then) => setTimeout(then, 0);
   const waitAnswer = () => {
     if (!answered()) return void requestAnimationFrame(waitAnswer);
-    afterPaint(() => { state.interactiveMs = performance.now(); });
+    afterPaint(() => { state.interactiveMs = performance.now();${marks ? " performance.mark('lam-interactive');" : ''} });
   };
   const waitReady = () => {
     if (!ready(${count})) return void requestAnimationFrame(waitReady);
@@ -389,6 +393,80 @@ async function measureFloor(browser: Browser): Promise<Record<Way, { cold: numbe
 
 const WAYS: Way[] = ['page', 'playwright'];
 
+/** BENCH_TRACE=folder: instead of the figures, one cold open traced (see traceColdOpen). */
+const TRACE_DIR = process.env['BENCH_TRACE'] ?? '';
+
+/** Trace events as Chrome writes them (the fields read here). */
+interface TraceEvent {
+  name: string;
+  cat: string;
+  ph: string;
+  pid: number;
+  tid: number;
+  ts: number;
+  dur?: number;
+  args?: { name?: string };
+}
+
+/**
+ * For diagnosis, not a figure: one cold open of the study recorded as a Chrome trace (cold-open.json
+ * in BENCH_TRACE, for the browser's performance panel), and the renderer's main thread up to
+ * interactive summed: how long it was busy, and the time in each kind of work (inclusive, so nested
+ * kinds overlap; a task's own name is the catch-all). What is not busy is waiting: for the network,
+ * the server, or another process of the browser.
+ */
+async function traceColdOpen(browser: Browser, storage: Awaited<ReturnType<BrowserContext['storageState']>>, studyId: string, plotChunks: Set<string>): Promise<void> {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, storageState: storage });
+  await context.addInitScript(pageWatch(CELLS, true));
+  const page = await context.newPage();
+  await browser.startTracing(page, { categories: ['devtools.timeline', 'disabled-by-default-devtools.timeline', 'v8.execute', 'blink.user_timing', 'loading', 'v8', 'disabled-by-default-v8.cpu_profiler'] });
+  const opened = await openStudy(page, studyId, plotChunks, false, 'page');
+  const trace = await browser.stopTracing();
+  await context.close();
+  mkdirSync(TRACE_DIR, { recursive: true });
+  writeFileSync(path.join(TRACE_DIR, 'cold-open.json'), trace);
+  const events = (JSON.parse(trace.toString('utf8')) as { traceEvents: TraceEvent[] }).traceEvents;
+  const interactive = events.find((e) => e.name === 'lam-interactive');
+  if (!interactive) throw new Error('the trace has no lam-interactive mark');
+  const onMain = (e: TraceEvent) => e.pid === interactive.pid && e.tid === interactive.tid;
+  // The study's own navigation (Chrome also starts one for an empty document on the page).
+  const start = Math.max(...events.filter((e) => onMain(e) && e.name === 'navigationStart' && e.ts <= interactive.ts && (e.args as { data?: { documentLoaderURL?: string } } | undefined)?.data?.documentLoaderURL).map((e) => e.ts));
+  const end = interactive.ts;
+  const within = (e: TraceEvent) => (e.ph === 'X' && e.dur !== undefined && onMain(e) ? Math.max(0, Math.min(e.ts + e.dur, end) - Math.max(e.ts, start)) : 0);
+  const byName = new Map<string, number>();
+  for (const e of events) {
+    const ms = within(e) / 1000;
+    if (ms > 0) byName.set(e.name, (byName.get(e.name) ?? 0) + ms);
+  }
+  const total = (end - start) / 1000;
+  out(`traced cold open: interactive ${opened.interactiveMs.toFixed(0)} ms on the page's clock, ${total.toFixed(0)} ms in the trace; trace in ${path.join(TRACE_DIR, 'cold-open.json')}`);
+  out(`  renderer main thread busy (RunTask): ${(byName.get('RunTask') ?? 0).toFixed(0)} ms of ${total.toFixed(0)}; by kind of work (ms, inclusive):`);
+  for (const [name, ms] of [...byName].filter(([name]) => name !== 'RunTask').sort((a, b) => b[1] - a[1]).slice(0, 25)) out(`    ${ms.toFixed(1).padStart(7)}  ${name}`);
+  // V8's sampling profiler in the trace (Profile and ProfileChunk events): the page's JavaScript by
+  // function, self time from the navigation to interactive (each sample weighted by the time since the one before).
+  const nodes = new Map<number, string>();
+  const self = new Map<string, number>();
+  type ProfileData = { startTime?: number; cpuProfile?: { nodes?: { id: number; callFrame: { functionName: string; url?: string; lineNumber: number } }[]; samples?: number[] }; timeDeltas?: number[] };
+  const profile = events.find((e) => e.name === 'Profile' && e.pid === interactive.pid);
+  let at = (profile?.args as { data?: ProfileData } | undefined)?.data?.startTime ?? 0;
+  for (const e of events) {
+    if (e.name !== 'ProfileChunk' || e.pid !== interactive.pid) continue;
+    const data = (e.args as { data?: ProfileData }).data;
+    for (const node of data?.cpuProfile?.nodes ?? []) nodes.set(node.id, `${node.callFrame.functionName || '(anonymous)'} ${(node.callFrame.url ?? '').split('/').pop() ?? ''}:${node.callFrame.lineNumber}`);
+    (data?.cpuProfile?.samples ?? []).forEach((id, k) => {
+      const delta = data?.timeDeltas?.[k] ?? 0;
+      at += delta;
+      if (at < start || at > end) return;
+      const name = nodes.get(id) ?? String(id);
+      self.set(name, (self.get(name) ?? 0) + delta / 1000);
+    });
+  }
+  if (self.size) {
+    out('  JavaScript by function (self time, ms, navigation to interactive):');
+    for (const [name, ms] of [...self].sort((a, b) => b[1] - a[1]).slice(0, 30)) out(`    ${ms.toFixed(1).padStart(7)}  ${name}`);
+  }
+}
+
 function median(values: number[]): number {
   const sorted = [...values].sort((a, b) => a - b);
   return sorted[Math.floor(sorted.length / 2)]!;
@@ -413,6 +491,10 @@ try {
   const studyId = await makeStudy(signIn);
   const storage = await signIn.storageState();
   await signIn.close();
+  if (TRACE_DIR) {
+    await traceColdOpen(browser, storage, studyId, plotChunks);
+    process.exit(0);
+  }
 
   // The two measures alternate, so both see the same minutes of whatever else runs on the machine.
   const studyContext = async (way: Way) => {
