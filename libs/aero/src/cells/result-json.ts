@@ -293,43 +293,55 @@ function writeNumber(v: number): void {
  * otherwise d₁.d₂…e±(p − 1).
  */
 function writeDigits(n: number, k: number): void {
-  if (n === 0) return writeByte(0x30);
+  // Locals for the buffer and its length: the module's `bytes` and `length` are context slots, which
+  // every store would otherwise go through (this runs for every number of a result).
+  const b = bytes;
+  const d = DIGITS;
+  let at = length;
+  if (n === 0) {
+    b[at] = 0x30;
+    length = at + 1;
+    return;
+  }
   let count = 0;
   // n < 10^9 < 2^31: int32 arithmetic (a double's % would be a call to fmod).
   for (let rest = n | 0; rest > 0; ) {
     const tenth = (rest / 10) | 0;
-    DIGITS[count++] = 0x30 + rest - tenth * 10;
+    d[count++] = 0x30 + rest - tenth * 10;
     rest = tenth;
   }
-  // DIGITS holds the digits last first; drop the trailing zeros (the first ones held).
+  // d holds the digits last first; drop the trailing zeros (the first ones held).
   let last = 0;
-  while (DIGITS[last] === 0x30) last++;
+  while (d[last] === 0x30) last++;
   const m = count - last;
   const p = count - k;
   if (p >= m && p <= 21) {
-    for (let i = count - 1; i >= last; i--) bytes[length++] = DIGITS[i]!;
-    for (let i = m; i < p; i++) bytes[length++] = 0x30;
+    for (let i = count - 1; i >= last; i--) b[at++] = d[i]!;
+    for (let i = m; i < p; i++) b[at++] = 0x30;
   } else if (p > 0 && p <= 21) {
     for (let i = count - 1, j = 0; i >= last; i--, j++) {
-      if (j === p) bytes[length++] = 0x2e; // .
-      bytes[length++] = DIGITS[i]!;
+      if (j === p) b[at++] = 0x2e; // .
+      b[at++] = d[i]!;
     }
   } else if (p > -6 && p <= 0) {
-    bytes[length++] = 0x30;
-    bytes[length++] = 0x2e;
-    for (let i = p; i < 0; i++) bytes[length++] = 0x30;
-    for (let i = count - 1; i >= last; i--) bytes[length++] = DIGITS[i]!;
+    b[at++] = 0x30;
+    b[at++] = 0x2e;
+    for (let i = p; i < 0; i++) b[at++] = 0x30;
+    for (let i = count - 1; i >= last; i--) b[at++] = d[i]!;
   } else {
-    bytes[length++] = DIGITS[count - 1]!;
+    b[at++] = d[count - 1]!;
     if (m > 1) {
-      bytes[length++] = 0x2e;
-      for (let i = count - 2; i >= last; i--) bytes[length++] = DIGITS[i]!;
+      b[at++] = 0x2e;
+      for (let i = count - 2; i >= last; i--) b[at++] = d[i]!;
     }
-    bytes[length++] = 0x65; // e
+    b[at++] = 0x65; // e
     const exponent = p - 1;
-    bytes[length++] = exponent < 0 ? 0x2d : 0x2b;
+    b[at++] = exponent < 0 ? 0x2d : 0x2b;
+    length = at;
     writeExponent(exponent < 0 ? -exponent : exponent);
+    return;
   }
+  length = at;
 }
 
 function writeExponent(e: number): void {
