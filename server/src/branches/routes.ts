@@ -10,7 +10,7 @@ import type { JobService } from '../jobs/service';
 import { streamBranchJobs } from '../jobs/stream';
 import { isQuickRun, needsComputing } from '../jobs/work';
 import { exportCell } from '../notebook/export';
-import { draftJson, draftObject, runBytes, type NotebookService } from '../notebook/service';
+import { draftBytes, draftObject, runBytes, type NotebookService } from '../notebook/service';
 import { draftDocument, studyDocumentFilename } from '../notebook/study-document';
 import * as versions from '../versions/service';
 
@@ -42,7 +42,7 @@ const exportQuerySchema = z.object({ format: z.enum(['csv', 'json'], { error: 'f
  */
 export function branchesRouter({ db, notebook, jobs, events }: { db: Db; notebook: NotebookService; jobs: JobService; events: JobEvents }): Router {
   const router = Router();
-  const sendJson = (res: Response, json: string) => res.type('application/json').send(json);
+  const sendJson = (res: Response, json: Buffer) => res.type('application/json').send(json);
   /**
    * JSON text as the answer of a change, without the ETag Express would hash the whole body for: an
    * answer to a PUT or POST is never revalidated, and a draft with its outputs runs to 100 kB or more.
@@ -55,7 +55,7 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
 
   router.get('/:branchId/draft', async (req, res) => {
     const { ctx, draft } = await branchAccessWithDraft(db, req.user!, req.params.branchId);
-    sendJson(res, draftJson(await notebook.getDraft(ctx, draft)));
+    sendJson(res, draftBytes(await notebook.getDraft(ctx, draft)));
   });
 
   router.put('/:branchId/draft', async (req, res) => {
@@ -63,7 +63,7 @@ export function branchesRouter({ db, notebook, jobs, events }: { db: Db; noteboo
     requireAction(ctx.access, 'editStudy');
     requireWritable(ctx);
     const body = parse(saveDraftSchema, req.body);
-    sendJsonOnce(res, draftJson(await notebook.saveDraft(ctx, req.user!, body)));
+    sendJsonOnce(res, draftBytes(await notebook.saveDraft(ctx, req.user!, body)));
   });
 
   /**

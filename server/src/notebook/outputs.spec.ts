@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { OutputStore } from './outputs';
-import { runBytes, type RunDoc } from './service';
+import { draftBytes, runBytes, type DraftDoc, type RunDoc } from './service';
 
 // A result with characters outside ASCII (a warning's θ and dash, a unit's µ), so a byte that is not a
 // character would show.
@@ -32,5 +32,23 @@ describe('outputs held as bytes (a result as an engine thread hands it over)', (
     expect(fromBytes).toBe(fromText);
     expect(JSON.parse(fromBytes).cells[0].output.result).toEqual(result);
     expect(JSON.parse(runBytes({ ...doc(asBytes), cells: [] }).toString('utf8'))).toEqual({ cells: [], branchId: 'b', studyId: 's', revision: 3, ran: [] });
+  });
+
+  it('give the same draft answer as the same result held as text', () => {
+    const store = new OutputStore();
+    const asText = store.keep('k-1', 'e1', { ...computed, resultJson: resultText }, '2026-12-03T09:00:00.000Z');
+    const asBytes = store.keep('k-2', 'e1', { ...computed, resultJson: new TextEncoder().encode(resultText) }, '2026-12-03T09:00:00.000Z');
+    const cell = { cellId: 'c1', kind: 'analysis' as const, title: 'Nacelle – crest', collapsed: false, inputs: {}, runState: 'current' as const, problems: [] };
+    const meta = { branchId: 'b', studyId: 's', revision: 4, savedAt: '2026-12-03T09:01:00.000Z' } as unknown as DraftDoc['meta'];
+    const doc = (output: typeof asText): DraftDoc => ({ meta, cells: [{ cell, output, lastGoodOutput: output }, { cell: { ...cell, cellId: 'c2' }, output: null, lastGoodOutput: asText }] });
+    const fromBytes = draftBytes(doc(asBytes)).toString('utf8');
+    const fromText = draftBytes(doc({ ...asText, json: asBytes.json, bytes: undefined } as typeof asText)).toString('utf8');
+    expect(fromBytes).toBe(fromText);
+    const parsed = JSON.parse(fromBytes);
+    expect(parsed.cells[0].output.result).toEqual(result);
+    expect(parsed.cells[0].lastGoodOutput.key).toBe('k-2');
+    expect(parsed.cells[1]).toMatchObject({ cellId: 'c2', title: 'Nacelle – crest', output: null, lastGoodOutput: { key: 'k-1' } });
+    expect(parsed).toMatchObject({ branchId: 'b', revision: 4 });
+    expect(JSON.parse(draftBytes({ meta, cells: [] }).toString('utf8'))).toEqual({ cells: [], branchId: 'b', studyId: 's', revision: 4, savedAt: '2026-12-03T09:01:00.000Z' });
   });
 });

@@ -22,7 +22,8 @@ export interface CachedOutput {
   readonly json: string;
   /**
    * The same as UTF-8 bytes, when it was put together from bytes (an output this server has just
-   * computed): `json` is then decoded from them only when something asks for it.
+   * computed): `json` is then decoded from them each time something asks for it, and not kept (draft
+   * and run answers splice the bytes; only comparisons and exports ask for the text).
    */
   bytes?: Buffer;
   /** Its length in bytes or characters, for the cache's budget. */
@@ -73,7 +74,10 @@ const RESULT_END = Buffer.from('}');
 
 /**
  * An output put together from its fields and its result: as text, or, when the result is bytes, as
- * bytes (the text is decoded from them only if asked for, once).
+ * bytes only. The text decoded from them is not kept: kept beside the bytes, it doubled what the cache
+ * holds outside its budget, and each such string (tens of kB, made in V8's young generation and then
+ * held) was copied by the next scavenges and promoted, which made most of the server's collector work
+ * in the run bench (--trace-gc: the heap grew by about 1.5 MB a scavenge, to 150-200 MB).
  */
 function cachedOutput(meta: Omit<CellOutput, 'result'>, resultJson: ResultJson | null): CachedOutput {
   const fields = { key: meta.key, status: meta.status, error: meta.error, computedAt: meta.computedAt, durationMs: meta.durationMs };
@@ -82,13 +86,12 @@ function cachedOutput(meta: Omit<CellOutput, 'result'>, resultJson: ResultJson |
     return { ...fields, json, size: json.length };
   }
   const bytes = Buffer.concat([Buffer.from(`${JSON.stringify(meta).slice(0, -1)},"result":`), resultJson, RESULT_END]);
-  let text: string | undefined;
   return {
     ...fields,
     bytes,
     size: bytes.length,
     get json() {
-      return (text ??= bytes.toString('utf8'));
+      return bytes.toString('utf8');
     },
   };
 }

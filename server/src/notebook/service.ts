@@ -98,12 +98,12 @@ export interface DraftDoc {
 }
 
 /**
- * Cells as a JSON array, their outputs spliced in as they are held, without parsing them again: as
- * text, or with `asBytes`, an output held as bytes (just computed) as those bytes, so it is never
- * encoded again; the pieces are handed to `piece` in order.
+ * Cells as a JSON array, their outputs spliced in as they are held, without parsing them again: an
+ * output held as bytes (just computed) as those bytes, so it is never decoded or encoded again, one
+ * held as text as that text; the pieces are handed to `piece` in order.
  */
-function writeCells(cells: DraftDoc['cells'], piece: (part: string | Buffer) => void, asBytes: boolean): void {
-  const output = (o: CachedOutput | null) => piece(o === null ? 'null' : asBytes && o.bytes ? o.bytes : o.json);
+function writeCells(cells: DraftDoc['cells'], piece: (part: string | Buffer) => void): void {
+  const output = (o: CachedOutput | null) => piece(o === null ? 'null' : (o.bytes ?? o.json));
   cells.forEach(({ cell, output: last, lastGoodOutput }, i) => {
     piece(`${i ? ',' : '['}${JSON.stringify(cell).slice(0, -1)},"output":`);
     output(last);
@@ -114,15 +114,33 @@ function writeCells(cells: DraftDoc['cells'], piece: (part: string | Buffer) => 
   piece(cells.length ? ']' : '[]');
 }
 
-function cellsJson(cells: DraftDoc['cells']): string {
-  let json = '';
-  writeCells(cells, (part) => (json += part as string), false);
-  return json;
+/**
+ * JSON put together from text and outputs, as UTF-8 bytes: the text between outputs is gathered and
+ * encoded once per stretch; an output held as bytes goes in as those bytes, never decoded.
+ */
+function jsonBytes(write: (piece: (part: string | Buffer) => void) => void): Buffer {
+  const parts: Buffer[] = [];
+  let text = '';
+  write((part) => {
+    if (typeof part === 'string') return void (text += part);
+    if (text) parts.push(Buffer.from(text));
+    parts.push(part);
+    text = '';
+  });
+  if (text) parts.push(Buffer.from(text));
+  return Buffer.concat(parts);
 }
 
-/** The draft as JSON text, outputs spliced in without parsing them again. */
-export function draftJson(doc: DraftDoc): string {
-  return `{"cells":${cellsJson(doc.cells)},${JSON.stringify(doc.meta).slice(1)}`;
+/**
+ * The draft as UTF-8 JSON, outputs spliced in without parsing them again (those held as bytes as
+ * their bytes: a save's answer no longer decodes the analysis it holds into a string).
+ */
+export function draftBytes(doc: DraftDoc): Buffer {
+  return jsonBytes((piece) => {
+    piece('{"cells":');
+    writeCells(doc.cells, piece);
+    piece(`,${JSON.stringify(doc.meta).slice(1)}`);
+  });
 }
 
 /**
@@ -137,19 +155,11 @@ export interface RunDoc {
 
 /** A run's answer as UTF-8 bytes: the outputs it has just computed go in as the bytes the engine made. */
 export function runBytes(doc: RunDoc): Buffer {
-  const parts: Buffer[] = [];
-  let text = '{"cells":';
-  writeCells(
-    doc.cells,
-    (part) => {
-      if (typeof part === 'string') return void (text += part);
-      parts.push(Buffer.from(text), part);
-      text = '';
-    },
-    true,
-  );
-  parts.push(Buffer.from(`${text},${JSON.stringify({ ...doc.meta, ran: doc.ran }).slice(1)}`));
-  return Buffer.concat(parts);
+  return jsonBytes((piece) => {
+    piece('{"cells":');
+    writeCells(doc.cells, piece);
+    piece(`,${JSON.stringify({ ...doc.meta, ran: doc.ran }).slice(1)}`);
+  });
 }
 
 /** The draft as an object; with `only`, just that cell (the others are left out). */
