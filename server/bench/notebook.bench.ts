@@ -14,11 +14,13 @@
  * no database), as a ratio to the same floor, so what share of the gap is this server's and what share
  * the machine's can be read off one run. CPU is split by process (this one, every thread; PostgreSQL),
  * and with BENCH_THREADS=1 by thread. Everything is measured at steady state, after a warm-up of about
- * 500 runs and saves (WARM_ROUNDS), as a long-lived server runs.
+ * 1,500 runs and saves (WARM_ROUNDS; BENCH_WARM_ROUNDS=n for n rounds of 20), as a long-lived server
+ * runs. BENCH_ROUNDS_20=n times n rounds of the 20 clients instead of 12 (steadier percentiles).
  */
 import { randomUUID } from 'node:crypto';
 import { existsSync, mkdirSync, readdirSync, readFileSync, readlinkSync, writeFileSync } from 'node:fs';
 import inspector from 'node:inspector';
+import { getHeapCodeStatistics } from 'node:v8';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
@@ -123,7 +125,7 @@ function threadSplit(before: Map<number, number>, after: Map<number, number>, ru
 }
 const THREADS = process.env['BENCH_THREADS'] === '1';
 /** Rounds of all 20 clients before anything is measured (see the warm-up below). */
-const WARM_ROUNDS = 25;
+const WARM_ROUNDS = Number(process.env['BENCH_WARM_ROUNDS'] ?? 75);
 
 /**
  * CPU time of this whole process, every thread: the server's, the engine's workers, the clients' thread,
@@ -529,10 +531,16 @@ if (isMainThread) {
   // Warm-up: worker threads, connection pools, and V8's optimising compiler. The server's request path
   // (Express, pg, pino, the run's own code) is optimised only after some hundreds of requests; until
   // then it runs as baseline code, and the compiler's threads work beside it. A team's server lives for
-  // days, so the figures are taken at that steady state: 20 clients × WARM_ROUNDS rounds first (about
-  // 500 runs and saves), the least server and the GET /api/me floor as much. With 5 rounds of 4 clients
-  // (this bench before 2026-12-03) the server's main thread read 2.96 ms a run at 20 clients, with this
-  // warm-up 2.13 ms, and all CPU 11.3 against 8.2 ms a run (load 1-2, one run each).
+  // days, so the figures are taken at that steady state: 20 clients × WARM_ROUNDS rounds first, the
+  // least server and the GET /api/me floor as much. With 5 rounds of 4 clients (this bench before
+  // 2026-12-03) the server's main thread read 2.96 ms a run at 20 clients, with 25 rounds 2.13 ms (load
+  // 1-2, one run each). 25 rounds (500 runs) were still short of it: with --trace-opt, TurboFan kept
+  // compiling functions of the run's own path for the first time (planRun, the output cache, the engine
+  // pool's task functions: each runs once a run, so it turns hot only after many hundreds of runs), 57
+  // compilations in the 240 timed runs, and the V8 code of the server's thread grew by 24-32 kB over
+  // them; after 75 rounds it grows by about nothing (printed below, as the check). The work shared with
+  // GET /api/me (session, headers, log) is hot long before, as every request runs it. 75 rounds take
+  // about 3 s more than 25.
   await measure(clients, WARM_ROUNDS);
   await measureLeast(leastBase, 20, WARM_ROUNDS);
 
@@ -565,13 +573,15 @@ if (isMainThread) {
   const floors: number[] = [];
   for (const [count, rounds] of [
     [1, 60],
-    [20, 12],
+    [20, Number(process.env['BENCH_ROUNDS_20'] ?? 12)],
   ] as const) {
     // At 20 clients the floor is taken round by round with the runs (a round of 20 GET /api/me at once
     // before each round of runs), so both see the machine as it is in the same minute: on this shared
     // machine its speed moves by up to 2× from one minute to the next, and a floor taken before and
     // after the runs (as this bench did before 2026-12-03) could meet another speed than they did.
+    const code0 = getHeapCodeStatistics().code_and_metadata_size;
     const m = await measure(clients.slice(0, count), rounds, count === 20 && PROFILE_DIR !== '', count === 20 ? async () => void floors.push(...(await floor(20, 1))) : undefined);
+    const codeGrowth = getHeapCodeStatistics().code_and_metadata_size - code0;
     results.set(count, m);
     say(
       `${String(count).padStart(7)}  ${String(m.run.n).padStart(6)}  ${fmt(m.run.median)}  ${fmt(m.run.p95)}  ${fmt(m.run.max)}  ${fmt(m.save.median)}  ${fmt(m.save.p95)}  ${fmt(m.engine.median)}     ${m.throughput.toFixed(0).padStart(4)}`,
@@ -580,6 +590,9 @@ if (isMainThread) {
     say(`         PostgreSQL CPU (the backends of the bench's database): ${m.postgresCpuPerRun.toFixed(2)} ms per run`);
     say(`         this process, every thread (server, engine workers, the clients, V8's compiler and collector): ${m.processCpuPerRun.toFixed(2)} ms per run; with PostgreSQL ${(m.processCpuPerRun + m.postgresCpuPerRun).toFixed(2)} ms`);
     if (m.threads) say(`         by thread (ms per run): ${m.threads}`);
+    // Machine code V8 made for the server's thread meanwhile (less what it dropped): near nothing at
+    // steady state; tens of kB while the optimising compiler is still working on the request path.
+    say(`         V8 code and metadata of the server's thread: ${codeGrowth >= 0 ? '+' : ''}${(codeGrowth / 1024).toFixed(1)} kB over these rounds`);
   }
   // The least server (least-server.ts) right after, at the same concurrency: the same engine entry on the
   // same pool behind a bare node:http handler, no sign-in, no database. Set against the same floor.
