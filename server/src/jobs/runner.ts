@@ -25,12 +25,11 @@ const STATE_CHECK_MS = 100;
 /** Second argument of hashtextextended for a sweep's lock: keeps these locks apart from any other advisory lock. */
 const SWEEP_LOCK_SEED = 1_3_0_5;
 
-/** Text as a dollar-quoted literal: nothing inside is escaped, so a long JSON text is sent as it is. */
-function dollarQuoted(text: string): string {
-  let tag = 'cases';
-  while (`${text}$`.includes(`$${tag}$`)) tag += '_';
-  return `$${tag}$${text}$${tag}$`;
-}
+/** The version byte of jsonb's binary form (PostgreSQL's jsonb_recv: a version number, then the JSON text). */
+const JSONB_VERSION = Buffer.from([1]);
+
+/** JSON bytes as a jsonb parameter: pg sends a Buffer in binary form, which for jsonb is the text after a version byte. */
+const jsonbParameter = (json: Uint8Array): Buffer => Buffer.concat([JSONB_VERSION, json]);
 
 /**
  * A job worker: fetches pieces of work from the queue and runs them on its compute threads, one piece
@@ -54,13 +53,29 @@ export interface JobRunnerOptions {
 
 class JobDefect extends Error {}
 
+/** What a job needs to know of a stored output: that it is there and how it went, never its result. */
+interface StoredOutcome {
+  status: 'ok' | 'error';
+  error: CellError | null;
+  durationMs: number;
+}
+
+/** Outcomes a worker keeps in memory (a few hundred bytes each). */
+const KEPT_OUTCOMES = 10_000;
+
 export class JobRunner {
   private stopping = false;
   private readonly loops: Promise<void>[] = [];
   private readonly wakers = new Set<() => void>();
   /** Slots waiting for work, woken early when a notice says a job may have been queued. */
   private readonly idleWakers = new Set<() => void>();
-  private readonly outputs = new OutputStore(32 * 1024 * 1024);
+  /**
+   * Stores the outputs this worker computes. It keeps none of them: a worker never sends a result
+   * anywhere, so what it needs of stored outputs is how they went (`outcomes`), not their JSON.
+   */
+  private readonly outputs = new OutputStore(0);
+  /** How stored outputs went, by key (an output is stored once and never changes), the most recent last. */
+  private readonly outcomes = new Map<string, StoredOutcome>();
   /** Job rows by id (their work does not change), so a chunk does not read a large plan again. */
   private readonly rows = new Map<string, RunJobRow>();
   /** Pieces of work finished since start (the benchmark and tests read it). */
@@ -177,6 +192,45 @@ export class JobRunner {
     return row;
   }
 
+  /** Keeps how a stored output went. */
+  private know(key: string, outcome: StoredOutcome): StoredOutcome {
+    this.outcomes.delete(key);
+    this.outcomes.set(key, outcome);
+    if (this.outcomes.size > KEPT_OUTCOMES) this.outcomes.delete(this.outcomes.keys().next().value!);
+    return outcome;
+  }
+
+  /**
+   * How the outputs stored under these keys went (keys not stored are absent): from memory, else read
+   * without their results. `reread` asks the database for every key: what a job finds stored when it
+   * starts decides what it computes, and an output this worker saw may have been pruned since.
+   */
+  private async outcomesOf(keys: Iterable<string | null | undefined>, reread = false): Promise<Map<string, StoredOutcome>> {
+    const found = new Map<string, StoredOutcome>();
+    const missing: string[] = [];
+    for (const key of new Set(keys)) {
+      if (typeof key !== 'string') continue;
+      const hit = reread ? undefined : this.outcomes.get(key);
+      if (hit) found.set(key, hit);
+      else missing.push(key);
+    }
+    if (missing.length) {
+      const { rows } = await this.database.pool.query<{ key: string; status: 'ok' | 'error'; error: CellError | null; duration_ms: number }>({
+        name: 'job_output_outcomes',
+        text: 'select key, status, error, duration_ms from outputs where key = any($1::text[])',
+        values: [missing],
+      });
+      for (const r of rows) found.set(r.key, this.know(r.key, { status: r.status, error: r.status === 'error' ? (r.error ?? { message: 'the run failed' }) : null, durationMs: r.duration_ms }));
+    }
+    return found;
+  }
+
+  /** Stores a computed output (once: a concurrent store of the same key keeps the first) and keeps how it went. */
+  private async put(key: string, kind: JobWork['kind'], computed: ComputedOutput): Promise<void> {
+    const out = await this.outputs.put(this.db, key, kind, ENGINE_VERSION, computed);
+    this.know(key, { status: out.status, error: out.error, durationMs: out.durationMs });
+  }
+
   private async state(jobId: string): Promise<JobState | null> {
     const [row] = await this.db.select({ state: runJobs.state }).from(runJobs).where(eq(runJobs.id, jobId));
     return row?.state ?? null;
@@ -195,7 +249,7 @@ export class JobRunner {
     if (!started.length && !(await this.active(jobId))) return;
     const notices: JobNotice[] = started.length ? [{ type: 'job', jobId, branchId: row.branchId }] : [];
     let checkedAt = performance.now();
-    const stored = await this.outputs.getMany(this.db, work.map((w) => w.key));
+    const stored = await this.outcomesOf(work.map((w) => w.key), true);
     // Outputs stored and not yet shown in the draft: quick cells land together, in one draft update.
     const landed: JobWork[] = [];
     const chunks: PgBoss.JobInsert<WorkMessage>[] = [];
@@ -209,7 +263,7 @@ export class JobRunner {
       }
       const failed = await this.failedUpstream(w, work);
       if (failed) {
-        await this.outputs.put(this.db, w.key, w.kind, ENGINE_VERSION, { status: 'error', resultJson: null, error: failed, durationMs: 0 });
+        await this.put(w.key, w.kind, { status: 'error', resultJson: null, error: failed, durationMs: 0 });
         landed.push(w);
         continue;
       }
@@ -227,7 +281,7 @@ export class JobRunner {
         checkedAt = performance.now();
       }
       const computed = await this.compute.cell(w.task!);
-      await this.outputs.put(this.db, w.key!, w.kind, ENGINE_VERSION, computed);
+      await this.put(w.key!, w.kind, computed);
       landed.push(w);
     }
     // Sent again after a retry these are the same ids, which the queue keeps once. The notice wakes idle
@@ -249,7 +303,7 @@ export class JobRunner {
   /** Shows outputs that have landed in the draft, then tells the app servers (each cell's notice, and any others given), in one statement. */
   private async show(row: RunJobRow, landed: readonly JobWork[], notices: readonly JobNotice[] = []): Promise<void> {
     if (landed.length) {
-      const found = await this.outputs.getMany(this.db, landed.map((w) => w.key));
+      const found = await this.outcomesOf(landed.map((w) => w.key));
       await markDraftCells(this.db, row.branchId, landed.map((w) => ({ cellId: w.cellId, key: w.key!, ok: found.get(w.key!)?.status === 'ok' })));
     }
     await notifyJobs(this.db, [...landed.map((w): JobNotice => ({ type: 'output', jobId: row.id, branchId: row.branchId, cellId: w.cellId })), ...notices]);
@@ -259,7 +313,7 @@ export class JobRunner {
   private async failedUpstream(w: JobWork, work: readonly JobWork[]): Promise<CellError | null> {
     for (const ref of w.refs) {
       const up = work.find((u) => u.cellId === ref.cellId);
-      const out = up?.key ? await this.outputs.get(this.db, up.key) : null;
+      const out = up?.key ? ((await this.outcomesOf([up.key])).get(up.key) ?? null) : null;
       if (!up || !out) throw new JobDefect(`${CELL_KIND_LABELS[w.kind]}: the cell it uses (${ref.field}) could not be computed`);
       if (out.status === 'error') return upstreamFailedError(up.kind, ref.field, out.error);
     }
@@ -299,32 +353,25 @@ export class JobRunner {
 
   /**
    * Stores a chunk's cases, each once (one stored by an earlier try stays), tells the app servers, and
-   * answers how many cases of the sweep are stored now, all in one round trip: the chunk's cases go as
-   * their indices and one JSON array, as the engine wrote it, taken apart by PostgreSQL.
+   * answers how many cases of the sweep are stored now, in one round trip: the database's
+   * store_sweep_cases (migrations/0009) takes the chunk's indices and its cases as one JSON array, the
+   * bytes the engine wrote, bound as a jsonb parameter in its binary form (a version byte, then the
+   * text), so nothing of ~160 kB is written into a query string, scanned or encoded again here.
    *
    * The count decides who puts the sweep together, so it must see every other chunk's cases that are
    * stored: two chunks storing their last cases at once would otherwise each count without the other's
    * and neither would assemble. The sweep's stores therefore take turns (a lock on its key, held to the
-   * end of the transaction), and the count is a statement of its own after the lock, which in READ
-   * COMMITTED sees whatever the chunk before it committed. Two statements in one round trip means one
-   * query string sent as it is (the simple protocol, one transaction), so the values are written into
-   * it as literals; the JSON goes dollar-quoted, not escaped character by character.
+   * end of the transaction), and the function counts in a statement of its own after the lock, which in
+   * READ COMMITTED sees whatever the chunk before it committed.
    */
-  private async storeCases(row: RunJobRow, key: string, indices: readonly number[], json: string): Promise<number> {
+  private async storeCases(row: RunJobRow, key: string, indices: readonly number[], json: Uint8Array): Promise<number> {
     const notice = JSON.stringify({ type: 'job', jobId: row.id, branchId: row.branchId } satisfies JobNotice);
-    const results = (await this.database.pool.query(
-      `select pg_advisory_xact_lock(hashtextextended(${escapeLiteral(key)}, ${SWEEP_LOCK_SEED}));
-       with stored as (
-         insert into sweep_cases (sweep_key, index, step)
-         select ${escapeLiteral(key)}, c.index, c.step
-           from rows from (unnest('{${indices.map((i) => Math.trunc(i)).join(',')}}'::int[]), jsonb_array_elements(${dollarQuoted(json)}::jsonb)) as c(index, step)
-         on conflict do nothing
-         returning 1
-       )
-       select pg_notify(${escapeLiteral(JOB_CHANNEL)}, ${escapeLiteral(notice)}),
-              ((select count(*) from stored) + (select count(*) from sweep_cases where sweep_key = ${escapeLiteral(key)}))::int as n`,
-    )) as unknown as pg.QueryResult<{ n: number }>[];
-    return results[1]!.rows[0]!.n;
+    const { rows } = await this.database.pool.query<{ n: number }>({
+      name: 'store_sweep_cases',
+      text: 'select store_sweep_cases($1, $2, $3, $4, $5) as n',
+      values: [key, indices, jsonbParameter(json), JOB_CHANNEL, notice],
+    });
+    return rows[0]!.n;
   }
 
   /** How many cases of a sweep are stored, once the sweep's stores under way have committed (as storeCases counts). */
@@ -336,54 +383,65 @@ export class JobRunner {
     return results[1]!.rows[0]!.n;
   }
 
-  /** Once every case of a sweep is stored: its output put together from them, in order. */
+  /**
+   * Once every case of a sweep is stored: its output put together from them, in order, by PostgreSQL
+   * itself. The warnings are read first (a few, each once with the cases that give it, for
+   * gatherSweepWarnings to say alike ones once); then one statement joins the steps in order between
+   * the result's head and its warnings and stores the output, so a thousand cases (~350 kB) are neither
+   * read back here nor sent again. The cases' numbers are rounded already; the values the sweep runs
+   * over are rounded here as the engine rounds results. When every step failed, assembleSweep says so
+   * (it throws the sweep's error), from the cases read back as objects.
+   */
   private async assemble(row: RunJobRow, w: JobWork): Promise<void> {
+    const key = w.key!;
     const sw = w.task!.inputs as SweepInputs;
     const durationMs = Date.now() - (row.startedAt ?? row.createdAt).getTime();
-    let computed: ComputedOutput;
-    try {
-      computed = { status: 'ok', resultJson: await this.sweepResultJson(w.key!, sw), error: null, durationMs };
-    } catch (err) {
-      const error = toCellError(err);
-      if (!error) throw err;
-      computed = { status: 'error', resultJson: null, error, durationMs };
-    }
-    await this.outputs.put(this.db, w.key!, w.kind, ENGINE_VERSION, computed);
-  }
-
-  /**
-   * The sweep's result as assembleSweep gives it, written from the stored cases' text: PostgreSQL joins
-   * the steps in order and gathers the warnings (each once, in the order the cases first give them, with
-   * the cases that give it, for gatherSweepWarnings to say alike ones once), so
-   * a thousand cases are not read back as objects and written out again. The cases' numbers are rounded
-   * already; the values the sweep runs over are rounded here as the engine rounds results. When every
-   * step failed, assembleSweep itself says so (it throws the sweep's error).
-   */
-  private async sweepResultJson(key: string, sw: SweepInputs): Promise<string> {
-    const { rows } = await this.database.pool.query<{ steps: string; failed: boolean; warnings: string }>(
-      `select string_agg((step -> 'step')::text, ',' order by index) as steps,
-              bool_and(step -> 'step' ->> 'status' = 'error') as failed,
-              (select coalesce(json_agg(json_build_object('warning', seen.warning, 'steps', seen.steps) order by seen.first), '[]')::text
-                 from (select w.warning, min(array[c.index::bigint, w.at]) as first, array_agg(distinct c.index) as steps
-                         from sweep_cases c, jsonb_array_elements_text(c.step -> 'warnings') with ordinality as w(warning, at)
-                        where c.sweep_key = $1
-                        group by w.warning) as seen) as warnings
-         from sweep_cases
-        where sweep_key = $1`,
-      [key],
-    );
-    const { steps, failed, warnings } = rows[0]!;
-    if (failed) {
-      const cases = await this.db.select({ step: sweepCases.step }).from(sweepCases).where(eq(sweepCases.sweepKey, key)).orderBy(asc(sweepCases.index));
-      return resultJson(assembleSweep(sw, cases.map((c) => c.step as SweepCase)));
-    }
+    const { rows } = await this.database.pool.query<{ failed: boolean; warnings: string }>({
+      name: 'sweep_warnings',
+      text: `select bool_and(step -> 'step' ->> 'status' = 'error') as failed,
+                    (select coalesce(json_agg(json_build_object('warning', seen.warning, 'steps', seen.steps) order by seen.first), '[]')::text
+                       from (select w.warning, min(array[c.index::bigint, w.at]) as first, array_agg(distinct c.index) as steps
+                               from sweep_cases c, jsonb_array_elements_text(c.step -> 'warnings') with ordinality as w(warning, at)
+                              where c.sweep_key = $1
+                              group by w.warning) as seen) as warnings
+               from sweep_cases
+              where sweep_key = $1`,
+      values: [key],
+    });
+    const { failed, warnings } = rows[0]!;
+    if (failed) return this.assembleFailed(key, w, sw, durationMs);
     const head: Omit<SweepResult, 'steps' | 'warnings'> = {
       parameter: sw.parameter,
       values: sweepValues(sw),
       ...(sw.second ? { second: { parameter: sw.second.parameter, values: sweepValues(sw.second) } } : {}),
     };
     const gathered = gatherSweepWarnings(JSON.parse(warnings) as SweepWarning[], sweepCaseCount(sw));
-    return `${resultJson(head).slice(0, -1)},"steps":[${steps}],"warnings":${JSON.stringify(gathered)}}`;
+    const stored = await this.database.pool.query({
+      name: 'store_assembled_sweep',
+      text: `insert into outputs (key, kind, status, result, engine_version, duration_ms)
+             select $1, $2, 'ok', ($3 || coalesce(string_agg((step -> 'step')::text, ',' order by index), '') || $4)::json, $5, $6
+               from sweep_cases
+              where sweep_key = $1
+             on conflict do nothing
+             returning 1`,
+      values: [key, w.kind, `${resultJson(head).slice(0, -1)},"steps":[`, `],"warnings":${JSON.stringify(gathered)}}`, ENGINE_VERSION, Math.round(durationMs)],
+    });
+    // Stored by another try meanwhile: the first output of a key is kept, and read as it is.
+    if (stored.rowCount) this.know(key, { status: 'ok', error: null, durationMs: Math.round(durationMs) });
+  }
+
+  /** A sweep whose every step failed: assembleSweep throws the sweep's error, which is its output. */
+  private async assembleFailed(key: string, w: JobWork, sw: SweepInputs, durationMs: number): Promise<void> {
+    let computed: ComputedOutput;
+    try {
+      const cases = await this.db.select({ step: sweepCases.step }).from(sweepCases).where(eq(sweepCases.sweepKey, key)).orderBy(asc(sweepCases.index));
+      computed = { status: 'ok', resultJson: resultJson(assembleSweep(sw, cases.map((c) => c.step as SweepCase))), error: null, durationMs };
+    } catch (err) {
+      const error = toCellError(err);
+      if (!error) throw err;
+      computed = { status: 'error', resultJson: null, error, durationMs };
+    }
+    await this.put(key, w.kind, computed);
   }
 
   /**
@@ -394,7 +452,7 @@ export class JobRunner {
   private async finishIfDone(row: RunJobRow, landed: readonly JobWork[] = [], notices: readonly JobNotice[] = []): Promise<void> {
     const work = row.work as JobWork[];
     const keys = work.flatMap((w) => (w.key ? [w.key] : []));
-    const found = await this.outputs.getMany(this.db, keys);
+    const found = await this.outcomesOf(keys);
     if (keys.some((k) => !found.has(k))) return this.show(row, landed, notices);
     await markDraftCells(this.db, row.branchId, work.flatMap((w) => (w.key ? [{ cellId: w.cellId, key: w.key, ok: found.get(w.key)!.status === 'ok' }] : [])));
     const reports: CellRunReport[] = [...work].sort((a, b) => a.position - b.position).map((w) => {

@@ -26,7 +26,7 @@ describe('a chunk of sweep cases', () => {
   it('is one JSON array of its cases in the order asked for, each as the engine computes it alone', () => {
     const out = computeSweepCases({ task, indices });
     expect(out.indices).toEqual(indices);
-    expect(JSON.parse(out.json)).toEqual(reference);
+    expect(JSON.parse(Buffer.from(out.json).toString('utf8'))).toEqual(reference);
     expect(out.engineCpuMs).toBeGreaterThan(0);
   });
 
@@ -39,6 +39,6 @@ describe('a chunk of sweep cases', () => {
       slices++;
     }
     expect(slices).toBe(indices.length);
-    expect(JSON.parse(computation.output().json)).toEqual(reference);
+    expect(JSON.parse(Buffer.from(computation.output().json).toString('utf8'))).toEqual(reference);
   });
 });

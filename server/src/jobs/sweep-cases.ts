@@ -1,11 +1,11 @@
-import { computeSweepCases as computeEngineCases, resultJson, type CellTask, type SweepCase } from '@laminote/aero';
+import { computeSweepCases as computeEngineCases, resultBytes, type CellTask, type SweepCase } from '@laminote/aero';
 import type { SweepInputs } from '@laminote/contracts';
 import { threadCpuMs } from './thread-cpu';
 
 /**
  * What a job worker computes for a chunk of a sweep: its cases through the engine's chunk entry
  * (computeSweepCases in libs/aero/src/cells/sweep.ts: each case exactly as the sweep cell computes it,
- * what they share prepared once), kept as JSON text to store.
+ * what they share prepared once), kept as the JSON bytes to store.
  */
 
 export interface SweepCasesTask {
@@ -16,8 +16,12 @@ export interface SweepCasesTask {
 
 export interface SweepCasesOutput {
   indices: number[];
-  /** The cases (each its step and warnings) in the order of `indices`, as one JSON array, numbers to RESULT_DIGITS. */
-  json: string;
+  /**
+   * The cases (each its step and warnings) in the order of `indices`, as one JSON array, numbers to
+   * RESULT_DIGITS: the UTF-8 bytes resultBytes writes (resultJson's text, to the byte), which go to
+   * PostgreSQL as a parameter as they are.
+   */
+  json: Uint8Array;
   /** CPU time the computing thread spent inside the engine for these cases, in ms (its own thread's, not the process's). */
   engineCpuMs: number;
 }
@@ -56,8 +60,8 @@ export class SweepCasesComputation {
   }
 
   output(): SweepCasesOutput {
-    // One text for the chunk: one walk of the rounding and one string to send, not one of each per case.
-    return { indices: this.chunk.indices, json: resultJson(this.computed), engineCpuMs: this.engineCpuMs };
+    // One JSON array for the chunk: one walk of the rounding and one parameter to send, not one of each per case.
+    return { indices: this.chunk.indices, json: resultBytes(this.computed), engineCpuMs: this.engineCpuMs };
   }
 }
 
