@@ -35,8 +35,16 @@ import { CASES, inProcessCases, inProcessLightCells, studyCells, WARM_UP, type C
 /** Rounds of (in-process loop, one worker, two loops at once, two workers); BENCH_ROUNDS overrides. */
 const ROUNDS = Number(process.env['BENCH_ROUNDS'] ?? 5);
 const WORKER_COUNTS = process.env['BENCH_WORKERS'] === '1' ? ([1] as const) : ([1, 2] as const);
-/** Warm-up sweeps each fresh worker runs before the measured one (1 unless BENCH_WARM_JOBS says more: a worker that has run a few jobs, as a long-lived one has). */
-const WARM_JOBS = Number(process.env['BENCH_WARM_JOBS'] ?? 1);
+/**
+ * Warm-up sweeps each fresh worker runs before the measured one (BENCH_WARM_JOBS overrides): a worker
+ * that has run a few jobs, as a long-lived one has. V8 compiles the job's own path (the queue, the
+ * chunk's store, the light cells) as jobs come, not as cases do: with --trace-opt in the workers
+ * (BENCH_WORKER_FLAGS), TurboFan made 46 compilations during the measured job after 1 warm-up sweep,
+ * 26 after 6, 28 after 10 and 26 after 25 (the latter two of 100 cases each): some of the job's code
+ * is compiled again in every job (each study's new table), the rest is done by the fifth or sixth.
+ * The fresh workers' cost over their warm-up is printed beside the figure.
+ */
+const WARM_JOBS = Number(process.env['BENCH_WARM_JOBS'] ?? 6);
 const out = (line: string) => process.stdout.write(`${line}\n`);
 
 const t = await createTestApp({ LOG_LEVEL: 'silent' }, { worker: false });
