@@ -281,13 +281,32 @@ export class NotebookPage {
     this.drawn.set(new Set(cells.slice(0, FIRST_BODIES).map((cell) => cell.cellId)));
     if (count <= FIRST_BODIES) return;
     // The page counts as busy until every body is drawn (tests and whenStable wait for it).
-    const done = this.pendingTasks.add();
+    const pending = this.pendingTasks.add();
+    // Which frames are inside the window, as the browser tells once it has laid the page out for a frame
+    // anyway: reading the frames' places after each body drawn would lay the page out again at each step.
+    const inWindow = new Set<string>();
+    const watch =
+      typeof IntersectionObserver === 'function'
+        ? new IntersectionObserver((entries) => {
+            for (const entry of entries) {
+              const id = (entry.target as HTMLElement).dataset['cellId'];
+              if (!id) continue;
+              if (entry.isIntersecting) inWindow.add(id);
+              else inWindow.delete(id);
+            }
+          })
+        : null;
+    const done = () => {
+      watch?.disconnect();
+      pending();
+    };
     const idle = (next: () => void) =>
       typeof requestIdleCallback === 'function' ? requestIdleCallback(next, { timeout: 500 }) : setTimeout(next, 16);
     const step = () => {
       // The person may have left the study before the browser was idle: nothing more to draw.
       if (this.destroyRef.destroyed) return done();
-      const next = this.undrawnOnScreen()[0] ?? this.cells().find((cell) => !this.drawn().has(cell.cellId))?.cellId;
+      const undrawn = this.cells().filter((cell) => !this.drawn().has(cell.cellId));
+      const next = (undrawn.find((cell) => inWindow.has(cell.cellId)) ?? undrawn[0])?.cellId;
       if (!next) return done();
       this.draw([next]);
       afterNextRender(() => idle(step), { injector: this.injector });
@@ -298,6 +317,7 @@ export class NotebookPage {
       () => {
         if (this.destroyRef.destroyed) return done();
         const onScreen = this.undrawnOnScreen();
+        for (const frame of Array.from(this.host.nativeElement.querySelectorAll<HTMLElement>('lam-cell-frame'))) watch?.observe(frame);
         if (onScreen.length === 0) return idle(step);
         this.draw(onScreen);
         afterNextRender(() => idle(step), { injector: this.injector });
