@@ -9,7 +9,8 @@ import { spawnSync } from 'node:child_process';
 import { readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { startTestStack } from './lib/stack';
-import { NG, ROOT, TSX, webBuildIsCurrent } from './lib/paths';
+import { ROOT, TSX, webBuildIsCurrent } from './lib/paths';
+import { buildWeb } from './lib/web-build';
 
 const filter = process.argv.slice(2).find((a) => !a.startsWith('-'));
 const log = (line: string) => process.stdout.write(`[bench] ${line}\n`);
@@ -37,7 +38,7 @@ const needsStack = benches.some((f) => !f.startsWith('libs/'));
 const needsWeb = benches.some((f) => f.startsWith('apps/'));
 if (needsWeb && !webBuildIsCurrent()) {
   log('building the web app …');
-  if (spawnSync(NG, ['build', 'web'], { cwd: ROOT, stdio: 'inherit' }).status !== 0) process.exit(1);
+  if (!buildWeb()) process.exit(1);
 }
 const seed = async (env: NodeJS.ProcessEnv) => {
   if (spawnSync(TSX, ['server/src/seed/main.ts'], { cwd: ROOT, stdio: 'inherit', env: { ...process.env, ...env } }).status !== 0) throw new Error('seeding failed');

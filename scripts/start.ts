@@ -15,7 +15,8 @@ import path from 'node:path';
 import { DEMO_USERS } from '../oidc-fake/src/users';
 import { ensureDatabase, startCluster, stopClusterBeingStarted, type Cluster } from './lib/postgres';
 import { portIsFree, startService, supervise, waitForPort, type Supervised } from './lib/proc';
-import { DATA_DIR, NG, ROOT, TSX, webBuildIsCurrent } from './lib/paths';
+import { DATA_DIR, ROOT, TSX, webBuildIsCurrent } from './lib/paths';
+import { buildWeb } from './lib/web-build';
 
 const HOST = '127.0.0.1';
 const PORT = Number(process.env['PORT'] ?? 4200);
@@ -100,8 +101,7 @@ async function main(): Promise<void> {
   else if (webBuildIsCurrent()) log('web app build is current');
   else {
     log('building the web app …');
-    const build = spawnSync(NG, ['build', 'web'], { cwd: ROOT, stdio: 'inherit', env: { ...process.env, NG_CLI_ANALYTICS: 'false' } });
-    if (build.status !== 0) throw new Error('the web app did not build (see above)');
+    if (!buildWeb({ ...process.env, NG_CLI_ANALYTICS: 'false' })) throw new Error('the web app did not build (see above)');
   }
 
   let databaseUrl = process.env['DATABASE_URL'];

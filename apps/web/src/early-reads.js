@@ -69,6 +69,21 @@
         } catch (e) {}
       })
       .catch(function () {});
+    // The notebook's code beyond main's (its page, the cell bodies and what they import), listed in
+    // index.html by the build (scripts/lib/web-build.ts): asked for now, all at once, rather than a
+    // level of imports at a time once main has run. At low priority, after the reads above: over the
+    // six connections a browser keeps to a server, the draft's read is not queued behind them.
+    try {
+      var code = document.createDocumentFragment();
+      JSON.parse(document.getElementById('lam-study-code').textContent).forEach(function (file) {
+        var link = document.createElement('link');
+        link.rel = 'modulepreload';
+        link.fetchPriority = 'low';
+        link.href = file;
+        code.appendChild(link);
+      });
+      document.head.appendChild(code);
+    } catch (e) {}
   }
   // The first screen's other fonts (the bold of the titles and the icons): a browser asks for a font
   // only when styled text first needs it, which on a study is half a second after this point. The

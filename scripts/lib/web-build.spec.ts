@@ -1,0 +1,50 @@
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { afterEach, describe, expect, it } from 'vitest';
+import { addPreloads } from './web-build';
+
+let dist = '';
+afterEach(() => rmSync(dist, { recursive: true, force: true }));
+
+/** A built app in the shape esbuild writes it: main imports two chunks, one of which imports a third. */
+function builtApp(): string {
+  dist = mkdtempSync(path.join(tmpdir(), 'web-build-'));
+  const files: Record<string, string> = {
+    'main-M.js': 'import{a as x}from"./chunk-A.js";import"./chunk-B.js";const r=()=>import("./chunk-P.js");',
+    'chunk-A.js': 'import{c}from"./chunk-C.js";export{c as a};',
+    'chunk-B.js': 'export const b=1;',
+    'chunk-C.js': 'export const c=1;',
+    // The notebook page (lazy) and a cell body, with a chunk of their own and one shared with main.
+    'chunk-P.js': 'import{d}from"./chunk-D.js";import{a}from"./chunk-A.js";var s={selectors:[["lam-notebook-page"]]};const p=()=>import("./chunk-L.js");',
+    'chunk-F.js': 'import{d}from"./chunk-D.js";var s={selectors:[["lam-flow-cell"]]};',
+    'chunk-D.js': 'export const d=1;',
+    // A lazy chunk only a body imports dynamically (the plots): not listed.
+    'chunk-L.js': 'export const plot=1;',
+    'scripts-S.js': '(function(){})();',
+  };
+  for (const [file, text] of Object.entries(files)) writeFileSync(path.join(dist, file), text);
+  writeFileSync(
+    path.join(dist, 'index.html'),
+    '<!doctype html><html><head><title>t</title></head><body><lam-root></lam-root><link rel="modulepreload" href="chunk-A.js"><script src="scripts-S.js" defer></script><script src="main-M.js" type="module"></script></body></html>',
+  );
+  return dist;
+}
+
+describe('addPreloads', () => {
+  it('names every script main imports and lists the notebook code beyond it, once however often it runs', () => {
+    const dir = builtApp();
+    const result = addPreloads(dir);
+    expect(new Set(result.initial)).toEqual(new Set(['scripts-S.js', 'main-M.js', 'chunk-A.js', 'chunk-B.js', 'chunk-C.js']));
+    expect(new Set(result.notebook)).toEqual(new Set(['chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
+    const once = readFileSync(path.join(dir, 'index.html'), 'utf8');
+    const preloaded = [...once.matchAll(/<link rel="modulepreload" href="([\w-]+\.js)">/g)].map((m) => m[1]);
+    expect(preloaded.sort()).toEqual(['chunk-A.js', 'chunk-B.js', 'chunk-C.js']);
+    const list = /<script type="application\/json" id="lam-study-code">(.*?)<\/script>/.exec(once);
+    expect(new Set(JSON.parse(list![1]!))).toEqual(new Set(['chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
+    // Before the scripts, so early-reads.js finds the list when it runs.
+    expect(once.indexOf('lam-study-code')).toBeLessThan(once.indexOf('<script src="scripts-S.js"'));
+    addPreloads(dir);
+    expect(readFileSync(path.join(dir, 'index.html'), 'utf8')).toBe(once);
+  });
+});

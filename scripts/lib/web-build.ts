@@ -1,0 +1,71 @@
+import { spawnSync } from 'node:child_process';
+import { readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { NG, ROOT, WEB_DIST } from './paths';
+
+/**
+ * Builds the web app (`ng build web`) and then names, in its index.html, the code a first screen needs
+ * so the browser asks for it at once (`addPreloads`). Returns whether the build succeeded.
+ */
+export function buildWeb(env: NodeJS.ProcessEnv = process.env): boolean {
+  const build = spawnSync(NG, ['build', 'web'], { cwd: ROOT, stdio: 'inherit', env });
+  if (build.status !== 0) return false;
+  addPreloads(WEB_DIST);
+  return true;
+}
+
+const STATIC_IMPORT = /(?:import|export)\s*(?:[\w$*{},\s]*from\s*)?["']\.\/([\w-]+\.js)["']/g;
+
+/** Each built script and the scripts it imports statically (what the browser fetches before it runs it). */
+function staticImports(dist: string): Map<string, { text: string; imports: string[] }> {
+  const scripts = new Map<string, { text: string; imports: string[] }>();
+  for (const file of readdirSync(dist).filter((f) => f.endsWith('.js'))) {
+    const text = readFileSync(path.join(dist, file), 'utf8');
+    scripts.set(file, { text, imports: [...text.matchAll(STATIC_IMPORT)].map((m) => m[1]!) });
+  }
+  return scripts;
+}
+
+function closure(scripts: Map<string, { imports: string[] }>, roots: Iterable<string>, without: ReadonlySet<string> = new Set()): string[] {
+  const seen = new Set<string>();
+  const visit = (file: string) => {
+    if (seen.has(file) || without.has(file) || !scripts.has(file)) return;
+    seen.add(file);
+    for (const next of scripts.get(file)!.imports) visit(next);
+  };
+  for (const root of roots) visit(root);
+  return [...seen];
+}
+
+/** The notebook page's component and the cell bodies' (their selectors as the compiler writes them). */
+const NOTEBOOK_ROOT = /selectors:\[\["lam-(?:notebook-page|[a-z-]+-cell)"\]\]/;
+
+/**
+ * Without these hints a cold open fetches its code in rounds, one per level of imports: Angular's build
+ * names at most 10 of the initial scripts in index.html (main's own imports beyond them are found when
+ * main arrives), and the notebook's page and cell bodies, with the shared code they import, come a
+ * level at a time after main has run. Here index.html gets a modulepreload link for every script main
+ * imports, and, for a study's address (early-reads.js reads it), the list of the notebook's scripts
+ * beyond those, so all of them are asked for at once. Running it again changes nothing.
+ */
+export function addPreloads(dist: string): { initial: string[]; notebook: string[] } {
+  const indexFile = path.join(dist, 'index.html');
+  let html = readFileSync(indexFile, 'utf8');
+  const scripts = staticImports(dist);
+  const entries = [...html.matchAll(/<script src="([\w-]+\.js)"[^>]*>/g)].map((m) => m[1]!);
+  const initial = closure(scripts, entries);
+  const initialSet = new Set(initial);
+  const roots = [...scripts].filter(([, s]) => NOTEBOOK_ROOT.test(s.text)).map(([file]) => file);
+  const notebook = closure(scripts, roots, initialSet);
+
+  const linked = new Set([...html.matchAll(/<link rel="modulepreload" href="([\w-]+\.js)"/g)].map((m) => m[1]!));
+  const links = initial.filter((file) => !linked.has(file) && !entries.includes(file)).map((file) => `<link rel="modulepreload" href="${file}">`);
+  const list = `<script type="application/json" id="lam-study-code">${JSON.stringify(notebook)}</script>`;
+  html = html.replace(/<script type="application\/json" id="lam-study-code">.*?<\/script>/, '');
+  // Beside Angular's own links, before the scripts (early-reads.js reads the list once the page is parsed).
+  const firstScript = html.indexOf('<script src="');
+  if (firstScript < 0) throw new Error(`${indexFile} names no script`);
+  html = `${html.slice(0, firstScript)}${links.join('')}${list}${html.slice(firstScript)}`;
+  writeFileSync(indexFile, html);
+  return { initial, notebook };
+}
