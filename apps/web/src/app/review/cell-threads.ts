@@ -126,7 +126,7 @@ export class CellThreads {
         setTimeout(() => {
           const thread = this.linkedThread() ? this.host.nativeElement.querySelector<HTMLElement>(`[data-thread-id="${this.linkedThread()}"]`) : null;
           const target = thread ?? this.host.nativeElement.closest<HTMLElement>('lam-cell-frame') ?? this.host.nativeElement;
-          target.scrollIntoView({ block: thread ? 'center' : 'start' });
+          target.scrollIntoView?.({ block: thread ? 'center' : 'start' });
         }, 50);
       });
     });
@@ -138,7 +138,8 @@ export class CellThreads {
       if (open && !wasOpen) {
         setTimeout(() => {
           if (this.query()?.get('cell') === untracked(this.cellId)) return;
-          this.host.nativeElement.querySelector<HTMLElement>('.panel')?.scrollIntoView({ block: 'nearest', behavior: 'smooth' });
+          // These run after a timeout, which may come after the component (or a test's page without layout) is gone.
+          this.host.nativeElement.querySelector<HTMLElement>('.panel')?.scrollIntoView?.({ block: 'nearest', behavior: 'smooth' });
         });
       }
       wasOpen = open;
@@ -154,7 +155,7 @@ export class CellThreads {
 
   protected openAt(threadId: string): void {
     this.store.setOpen(this.cellId(), true);
-    setTimeout(() => this.host.nativeElement.querySelector<HTMLElement>(`[data-thread-id="${threadId}"]`)?.scrollIntoView({ block: 'center' }));
+    setTimeout(() => this.host.nativeElement.querySelector<HTMLElement>(`[data-thread-id="${threadId}"]`)?.scrollIntoView?.({ block: 'center' }));
   }
 
   protected close(): void {
