@@ -14,19 +14,21 @@ export function buildWeb(env: NodeJS.ProcessEnv = process.env): boolean {
   return true;
 }
 
-const STATIC_IMPORT = /(?:import|export)\s*(?:[\w$*{},\s]*from\s*)?["']\.\/([\w-]+\.js)["']/g;
+/** The built scripts a built script imports statically (esbuild's output: `import … from "./chunk-X.js"`). */
+export const staticImportsOf = (text: string): string[] => [...text.matchAll(/(?:import|export)\s*(?:[\w$*{},\s]*from\s*)?["']\.\/([\w-]+\.js)["']/g)].map((m) => m[1]!);
 
 /** Each built script and the scripts it imports statically (what the browser fetches before it runs it). */
 function staticImports(dist: string): Map<string, { text: string; imports: string[] }> {
   const scripts = new Map<string, { text: string; imports: string[] }>();
   for (const file of readdirSync(dist).filter((f) => f.endsWith('.js'))) {
     const text = readFileSync(path.join(dist, file), 'utf8');
-    scripts.set(file, { text, imports: [...text.matchAll(STATIC_IMPORT)].map((m) => m[1]!) });
+    scripts.set(file, { text, imports: staticImportsOf(text) });
   }
   return scripts;
 }
 
-function closure(scripts: Map<string, { imports: string[] }>, roots: Iterable<string>, without: ReadonlySet<string> = new Set()): string[] {
+/** The scripts `roots` bring in by static imports, themselves included, leaving out `without` (and what only they import). */
+export function closure(scripts: ReadonlyMap<string, { imports: readonly string[] }>, roots: Iterable<string>, without: ReadonlySet<string> = new Set()): string[] {
   const seen = new Set<string>();
   const visit = (file: string) => {
     if (seen.has(file) || without.has(file) || !scripts.has(file)) return;

@@ -43,6 +43,7 @@ import type { AddressInfo } from 'node:net';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import type { Branch, Draft, DraftCellInput, Project, Study } from '@laminote/contracts';
 import { joukowskiLoop } from '../../../libs/aero/test/joukowski';
+import { closure, staticImportsOf } from '../../../scripts/lib/web-build';
 import { launchBrowser, signInThroughProvider } from '../../../tests/support/browser';
 
 const APP = process.env['APP_URL'];
@@ -58,7 +59,7 @@ interface Chunk {
   file: string;
   bytes: number;
   gzip: number;
-  staticImports: string[];
+  imports: string[];
   dynamicImports: string[];
   text: string;
 }
@@ -68,23 +69,14 @@ function readChunks(): Map<string, Chunk> {
   for (const file of readdirSync(DIST).filter((f) => f.endsWith('.js'))) {
     const buffer = readFileSync(path.join(DIST, file));
     const text = buffer.toString('utf8');
-    const staticImports = [...text.matchAll(/(?:import|export)\s*(?:[\w$*{},\s]*from\s*)?["']\.\/([\w-]+\.js)["']/g)].map((m) => m[1]!);
     const dynamicImports = [...text.matchAll(/import\(\s*["']\.\/([\w-]+\.js)["']\s*\)/g)].map((m) => m[1]!);
-    chunks.set(file, { file, bytes: buffer.length, gzip: gzipSync(buffer).length, staticImports, dynamicImports, text });
+    chunks.set(file, { file, bytes: buffer.length, gzip: gzipSync(buffer).length, imports: staticImportsOf(text), dynamicImports, text });
   }
   return chunks;
 }
 
-function closure(chunks: Map<string, Chunk>, roots: string[], without = new Set<string>()): Set<string> {
-  const seen = new Set<string>();
-  const visit = (file: string) => {
-    if (seen.has(file) || without.has(file) || !chunks.has(file)) return;
-    seen.add(file);
-    for (const next of chunks.get(file)!.staticImports) visit(next);
-  };
-  roots.forEach(visit);
-  return seen;
-}
+/** closure (the web build's own, which names the first screens' scripts) as a set. */
+const closureSet = (chunks: Map<string, Chunk>, roots: string[], without = new Set<string>()): Set<string> => new Set(closure(chunks, roots, without));
 
 function total(chunks: Map<string, Chunk>, files: Set<string>): { bytes: number; gzip: number } {
   let bytes = 0;
@@ -107,12 +99,12 @@ function bundleReport(): { plotChunks: Set<string>; firstScreenGzip: number; zod
   const html = readFileSync(path.join(DIST, 'index.html'), 'utf8');
   // Every script the page names: the app's module entry and any plain script before it (early-reads.js).
   const entry = [...html.matchAll(/<script src="([\w-]+\.js)"[^>]*>/g)].map((m) => m[1]!);
-  const initial = closure(chunks, entry);
+  const initial = closureSet(chunks, entry);
   const notebookRoot = [...chunks.values()].find((c) => c.text.includes('lam-notebook-page'))?.file;
   if (!notebookRoot) throw new Error('no chunk holds the notebook page');
-  const notebook = closure(chunks, [notebookRoot], initial);
+  const notebook = closureSet(chunks, [notebookRoot], initial);
   const plotRoots = [...chunks.values()].filter((c) => c.text.includes('plotly-plot') || /plotly\.js v\d|Plotly\.version|plotly\.js-style-/.test(c.text)).map((c) => c.file);
-  const plot = closure(chunks, plotRoots, new Set([...initial, ...notebook]));
+  const plot = closureSet(chunks, plotRoots, new Set([...initial, ...notebook]));
   // Lazy: outside the first screen's static imports, and fetched by a dynamic import (from the notebook
   // or from a cell body the notebook defers).
   const firstScreen = new Set([...initial, ...notebook]);
