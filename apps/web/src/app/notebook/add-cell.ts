@@ -4,7 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule, MatMenuTrigger } from '@angular/material/menu';
 import type { CellKind } from '@laminote/contracts/cell-kinds';
 import { ADDABLE_KINDS, cellKindInfo } from '../shared/cell-kinds';
-import { loadRuntimeChecks, runtimeChecks } from '../shared/runtime-checks';
+import { loadRuntimeChecksWhenIdle, runtimeChecks } from '../shared/runtime-checks';
 
 /**
  * Adds a cell at one place in the stack: a thin insertion line between cells, or the full button at
@@ -60,7 +60,7 @@ export class AddCell {
   private readonly trigger = viewChild.required(MatMenuTrigger);
 
   constructor() {
-    inject(PendingTasks).run(() => loadRuntimeChecks());
+    inject(PendingTasks).run(() => loadRuntimeChecksWhenIdle());
   }
 
   /** Opens the list of kinds (the Alt+Enter shortcut). */

@@ -1,22 +1,19 @@
 import { NgComponentOutlet } from '@angular/common';
-import { ChangeDetectionStrategy, Component, type Type, computed, input, resource } from '@angular/core';
+import { ChangeDetectionStrategy, Component, type Type, computed, input } from '@angular/core';
 import type { DraftCell } from '@laminote/contracts';
 import { CELL_BODIES, type CellBodyComponent } from './cell-bodies';
 
 /**
- * A cell's body: its kind's component (`CELL_BODIES`), loaded on first use and given the cell. Until
- * the component's code is here, or while the page holds the body back (`held`: cells below the first
- * screen are drawn in small batches), it says it is drawing; a failed load is said.
+ * A cell's body: its kind's component (`CELL_BODIES`), given the cell. While the page holds the body
+ * back (`held`: cells below the first screen are drawn while the browser is idle) it says it is drawing.
  */
 @Component({
   selector: 'lam-cell-body',
   imports: [NgComponentOutlet],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    @if (body.value(); as component) {
+    @if (body(); as component) {
       <ng-container *ngComponentOutlet="component; inputs: inputs()" />
-    } @else if (body.error()) {
-      <p class="body-pending" role="alert">This cell could not be drawn: its code did not load. Reload the page to try again.</p>
     } @else {
       <p class="body-pending" aria-busy="true" [style.min-height.px]="placeholderHeight()">Drawing…</p>
     }
@@ -36,10 +33,7 @@ export class CellBody {
   readonly held = input(false);
 
   private readonly kind = computed(() => this.cell().kind);
-  protected readonly body = resource<Type<CellBodyComponent>, DraftCell['kind'] | undefined>({
-    params: () => (this.held() ? undefined : this.kind()),
-    loader: ({ params }) => CELL_BODIES[params](),
-  });
+  protected readonly body = computed((): Type<CellBodyComponent> | null => (this.held() ? null : CELL_BODIES[this.kind()]));
   protected readonly inputs = computed(() => ({ cell: this.cell() }));
   /** About the drawn body's height, so the page does not jump as the bodies come and the first screen is measured right. */
   protected readonly placeholderHeight = computed(() => {

@@ -4,7 +4,7 @@ import type { FormGroup } from '@angular/forms';
 import type { DraftCell } from '@laminote/contracts';
 import { sameJson } from '@laminote/contracts/values';
 import { DraftSession } from '../shared/draft-session';
-import { type RuntimeChecks, loadRuntimeChecks, runtimeChecks } from '../shared/runtime-checks';
+import { type RuntimeChecks, loadRuntimeChecksWhenIdle, runtimeChecks } from '../shared/runtime-checks';
 
 const PLAIN_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -86,7 +86,7 @@ export function bindCellForm<V>(options: CellFormOptions<V>): { readonly problem
   const session = inject(DraftSession);
   const { form, cell, toForm, fromForm } = options;
   // Unit tests and server-side stability wait for the schemas like any other pending work.
-  inject(PendingTasks).run(() => loadRuntimeChecks());
+  inject(PendingTasks).run(() => loadRuntimeChecksWhenIdle());
   let shown: Record<string, unknown> | null = null;
 
   effect(() => {

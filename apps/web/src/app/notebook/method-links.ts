@@ -56,6 +56,6 @@ export class MethodLinks {
   });
 
   constructor() {
-    if (!catalogue.module()) inject(PendingTasks).run(catalogue.load);
+    if (!catalogue.module()) inject(PendingTasks).run(catalogue.loadWhenIdle);
   }
 }

@@ -37,7 +37,6 @@ import { roleLabel } from '../shared/role-label';
 import { StudyApi } from '../shared/study-api';
 import { AddCell } from './add-cell';
 import { CellBody } from './cell-body';
-import { CELL_BODIES } from './cell-bodies';
 import { CellFrame } from './cell-frame';
 import { cellKindInfo } from '../shared/cell-kinds';
 import { type ConflictChoice, ConflictDialog } from './conflict-dialog';
@@ -65,8 +64,6 @@ interface OpenedStudy {
  * follow one body per idle moment of the browser, so a keystroke never waits behind more than one body.
  */
 const FIRST_BODIES = 1;
-/** The code of the first cells' kinds is fetched with the page, before their bodies are drawn. */
-const PREFETCHED_CELLS = 6;
 
 /** `?branch=` names a branch by id or by name; without it the study opens on `main`. */
 function pickBranch(branches: Branch[], wanted: string | undefined): Branch | undefined {
@@ -277,7 +274,6 @@ export class NotebookPage {
 
   private drawBodiesProgressively(cells: readonly DraftCell[]): void {
     const count = cells.length;
-    for (const kind of new Set(cells.slice(0, PREFETCHED_CELLS).map((cell) => cell.kind))) void CELL_BODIES[kind]().catch(() => undefined);
     this.drawn.set(new Set(cells.slice(0, FIRST_BODIES).map((cell) => cell.cellId)));
     if (count <= FIRST_BODIES) return;
     // The page counts as busy until every body is drawn (tests and whenStable wait for it).

@@ -1,13 +1,9 @@
-import { loadRuntimeChecks } from '../shared/runtime-checks';
-import { CELL_BODIES } from './cell-bodies';
-
 /**
- * The notebook's code, fetched all at once when the app starts on a study's address: the page, the
- * body of every cell kind (`CELL_BODIES`) and the schemas its forms check with.
- * Without it they come in rounds: the page after the sign-in check, the bodies after the draft.
+ * The notebook's code, fetched when the app starts on a study's address: the page with the body of every
+ * cell kind (`CELL_BODIES`), rather than after the sign-in check. The schemas its forms check with come
+ * once the first screen is drawn (`loadRuntimeChecksWhenIdle`).
  */
 export function prefetchNotebook(): void {
-  const loads: (() => Promise<unknown>)[] = [() => import('./notebook-page'), ...Object.values(CELL_BODIES), loadRuntimeChecks];
   // A failed fetch here is tried again where the code is needed.
-  for (const load of loads) void load().catch(() => undefined);
+  void import('./notebook-page').catch(() => undefined);
 }

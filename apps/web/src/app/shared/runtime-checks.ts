@@ -11,5 +11,12 @@ const checks = lazyModule(() => import('./runtime-schemas'));
 
 export const loadRuntimeChecks = checks.load;
 
+/**
+ * The same, once the browser is next idle: how what a first screen draws asks for them. zod is 470 kB of
+ * script to run, and its first checks of the screen's cells took about as long again, inside the
+ * drawing of the first screen; now a form waits read-only for that idle moment instead.
+ */
+export const loadRuntimeChecksWhenIdle = checks.loadWhenIdle;
+
 /** The schemas once loaded (a signal); null before. */
 export const runtimeChecks = checks.module;
