@@ -137,7 +137,7 @@ export function createApp(deps: AppDeps): Express {
   // One router per resource: /api/<name> is served by server/src/<name>/routes.ts.
   api.use('/me', meRouter({ db }));
   api.use('/projects', projectsRouter({ db }));
-  api.use('/studies', studiesRouter({ db, config }));
+  api.use('/studies', studiesRouter({ db, config, notebook }));
   api.use('/branches', branchesRouter({ db, notebook, jobs, events: deps.jobs.events }));
   api.use('/versions', versionsRouter({ db, config }));
   api.use('/threads', threadsRouter({ db, config }));

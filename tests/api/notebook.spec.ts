@@ -69,6 +69,27 @@ describe('draft', () => {
     await as['engineer']!.get(`/api/branches/${randomUUID()}/draft`).expect(404);
   });
 
+  it('opens a study in one read: the study, its branches and the draft of the branch asked for (else main), for members only', async () => {
+    const { studyId, branchId } = await newStudy('Opening');
+    const cell = { kind: 'note' as const, title: 'Reading', inputs: { markdown: 'hello' } };
+    await save(as['engineer']!, branchId, 0, [cell]).expect(200);
+    const draft = (await as['viewer']!.get(`/api/branches/${branchId}/draft`).expect(200)).body as Draft;
+    const study = (await as['viewer']!.get(`/api/studies/${studyId}`).expect(200)).body;
+    const branches = (await as['viewer']!.get(`/api/studies/${studyId}/branches`).expect(200)).body;
+    for (const query of ['', '?branch=main', `?branch=${branchId}`]) {
+      const opening = await as['viewer']!.get(`/api/studies/${studyId}/opening${query}`).expect(200);
+      // The same study, branches and draft as their own reads give.
+      expect(opening.body).toEqual({ study, branches, draft });
+    }
+    const none = await as['viewer']!.get(`/api/studies/${studyId}/opening?branch=${encodeURIComponent('no such branch')}`).expect(200);
+    expect(none.body).toEqual({ study, branches, draft: null });
+    const hostile = await as['viewer']!.get(`/api/studies/${studyId}/opening?branch=a%00b`).expect(400);
+    expect(hostile.body.detail ?? hostile.body.title).toMatch(/branch/i);
+    await as['outsider']!.get(`/api/studies/${studyId}/opening`).expect(404);
+    await as['viewer']!.get(`/api/studies/${randomUUID()}/opening`).expect(404);
+    await request(t.app).get(`/api/studies/${studyId}/opening`).expect(401);
+  });
+
   it('validates cells by their kind and names the field at fault, keeping what was typed', async () => {
     const { branchId } = await newStudy('Validation');
     const flowId = randomUUID();

@@ -1,7 +1,6 @@
 // The app's first reads, started by this small script as soon as the page is parsed, while the app's
-// own code is still arriving and starting: who is signed in and, on a study's address, the study, its
-// branches and its draft. Without it they come in rounds after the app has started: the sign-in check,
-// then the study and its branches, then the draft.
+// own code is still arriving and starting: who is signed in and, on a study's address, the study with
+// its branches and its draft (one read). Without it they come after the app has started.
 //
 // The app takes each answer once, for the same GET of the same address (core/early-reads.ts); it asks
 // the server itself for anything not here. So a wrong guess here costs a wasted read, never a wrong
@@ -33,42 +32,22 @@
   if (study) {
     var studyId = study[1];
     var wanted = new URLSearchParams(location.search).get('branch');
-    // The branch this address opened last time, remembered here: its draft is read beside the study
-    // rather than after the branches have answered. A branch keeps its id, so this is right unless
-    // the branch has gone, and then the app never asks for that address and the read is only wasted.
-    var rememberKey = 'laminote.openedBranch:' + studyId + ':' + (wanted || '');
-    var remembered = null;
-    try {
-      remembered = localStorage.getItem(rememberKey);
-    } catch (e) {}
+    // The study, its branches and the opened branch's draft in one read (GET …/opening, written as
+    // NotebookApi.opening writes it): the branch is chosen by the server, so the draft does not wait
+    // for the branches to answer first.
     var readStudy = function () {
-      read('/api/studies/' + studyId);
-      if (remembered) read('/api/branches/' + remembered + '/draft');
-      return json(read('/api/studies/' + studyId + '/branches'));
+      read('/api/studies/' + studyId + '/opening' + (wanted ? '?branch=' + encodeURIComponent(wanted) : ''));
     };
     // The anti-forgery cookie is set at sign-in: with it, the study is read beside the sign-in check
-    // rather than after it (it outlives a session that ended, which costs three refused reads at most).
+    // rather than after it (it outlives a session that ended, which costs a refused read at most).
     var signedInBefore = /(?:^|;\s*)XSRF-TOKEN=/.test(document.cookie);
-    (signedInBefore
-      ? readStudy()
-      : json(me).then(function (person) {
-          return person ? readStudy() : null;
+    if (signedInBefore) readStudy();
+    else
+      json(me)
+        .then(function (person) {
+          if (person) readStudy();
         })
-    )
-      .then(function (branches) {
-        if (!Array.isArray(branches)) return;
-        // The branch the notebook opens (notebook-page.ts, pickBranch): the one named or, without a
-        // name, main. Anything else is left to the app.
-        var branch = branches.find(function (b) {
-          return wanted ? b.id === wanted || b.name === wanted : b.name === 'main';
-        });
-        if (!branch) return;
-        if (branch.id !== remembered) read('/api/branches/' + branch.id + '/draft');
-        try {
-          localStorage.setItem(rememberKey, branch.id);
-        } catch (e) {}
-      })
-      .catch(function () {});
+        .catch(function () {});
     // The notebook's code beyond main's (its page, the cell bodies and what they import), listed in
     // index.html by the build (scripts/lib/web-build.ts): asked for now, all at once, rather than a
     // level of imports at a time once main has run. At low priority, after the reads above: over the

@@ -16,7 +16,7 @@ import {
 } from './api';
 import { jobSchema, runQueuedSchema } from './jobs';
 import { validationReportSchema } from './methods';
-import { draftSchema, runRequestSchema, runResponseSchema, saveDraftSchema, uploadResponseSchema } from './notebook';
+import { draftSchema, runRequestSchema, runResponseSchema, saveDraftSchema, studyOpeningQuerySchema, studyOpeningSchema, uploadResponseSchema } from './notebook';
 import {
   commentRevisionSchema,
   commentTextSchema,
@@ -134,6 +134,10 @@ export const API_OPERATIONS: readonly ApiOperation[] = [
   op('GET', '/api/studies/:studyId', 'Studies', 'A study', { response: named('Study', studySchema) }),
   op('PATCH', '/api/studies/:studyId', 'Studies', 'Rename, describe or archive a study', { body: named('UpdateStudy', updateStudySchema), response: named('Study', studySchema) }),
   op('GET', '/api/studies/:studyId/branches', 'Studies', 'A study’s branches', { response: list('Branch', branchSchema) }),
+  op('GET', '/api/studies/:studyId/opening', 'Studies', 'A study, its branches and the draft of the branch it opens on (?branch= by id or name, else main), in one read', {
+    query: named('StudyOpeningQuery', studyOpeningQuerySchema),
+    response: named('StudyOpening', studyOpeningSchema),
+  }),
   op('GET', '/api/studies/:studyId/versions', 'Versions', 'A study’s branches and every version, newest first', { response: named('StudyHistory', studyHistorySchema) }),
   op('POST', '/api/studies/:studyId/baseline', 'Versions', 'Mark (or clear) the baseline version (leads)', { body: named('MarkBaseline', markBaselineSchema), response: named('StudyHistory', studyHistorySchema) }),
   op('POST', '/api/studies/:studyId/uploads', 'Notebook', 'Upload a pressure table file (multipart, field “file”)', { body: { contentType: 'multipart/form-data', description: 'The file in the field “file”.' }, status: 201, response: named('UploadResponse', uploadResponseSchema), token: 'run' }),

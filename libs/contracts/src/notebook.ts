@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { cellErrorSchema, cellKindSchema } from './cell-schemas';
+import { branchSchema, studySchema } from './api';
 import { safeText } from './text';
 
 /**
@@ -78,6 +79,19 @@ export const draftSchema = z.object({
   updatedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
 });
 export type Draft = z.infer<typeof draftSchema>;
+
+/** GET /api/studies/:studyId/opening?branch= */
+export const studyOpeningQuerySchema = z.object({
+  branch: safeText('branch').max(200, 'branch must be at most 200 characters').optional(),
+});
+export type StudyOpeningQuery = z.infer<typeof studyOpeningQuerySchema>;
+
+/**
+ * What the notebook shows first, in one read: the study, its branches, and the draft of the branch it
+ * opens on (`pickBranch`: the one named, else main); the draft is null when the name matches no branch.
+ */
+export const studyOpeningSchema = z.object({ study: studySchema, branches: z.array(branchSchema), draft: draftSchema.nullable() });
+export type StudyOpening = z.infer<typeof studyOpeningSchema>;
 
 /** POST /api/branches/:branchId/run { cellIds?: string[] } — omitted means the whole study, in dependency order. */
 export const runRequestSchema = z.object({ cellIds: z.array(z.string().uuid('cellIds must hold cell ids')).max(200, 'at most 200 cells per run').optional() });

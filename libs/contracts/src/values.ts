@@ -48,3 +48,13 @@ export function sci(value: number | null | undefined, digits = 3, trim = false):
   const [mantissa, exponent] = value.toExponential(digits - 1).split('e');
   return `${trim ? String(Number(mantissa)) : mantissa} × ${powerOfTen(Number(exponent))}`;
 }
+
+/**
+ * The branch a study opens on: the one `wanted` names (by id or by name), or without a name `main`, else
+ * the first branch not archived, else the first. Undefined when a name matches none (or there is none).
+ * The notebook page and GET /api/studies/:studyId/opening both choose with this.
+ */
+export function pickBranch<B extends { readonly id: string; readonly name: string; readonly archived: boolean }>(branches: readonly B[], wanted?: string | null): B | undefined {
+  if (wanted) return branches.find((b) => b.id === wanted || b.name === wanted);
+  return branches.find((b) => b.name === 'main') ?? branches.find((b) => !b.archived) ?? branches[0];
+}

@@ -1,9 +1,11 @@
 import { Router } from 'express';
-import { createThreadSchema, markBaselineSchema, updateStudySchema } from '@laminote/contracts';
+import { createThreadSchema, markBaselineSchema, pickBranch, studyOpeningQuerySchema, updateStudySchema } from '@laminote/contracts';
 import type { Config } from '../config';
 import type { Db } from '../db/client';
 import { requireAction, studyAccess } from '../access/access';
+import { branchAccessWithDraft } from '../access/branch';
 import { parse } from '../http/problem';
+import { draftBytes, type NotebookService } from '../notebook/service';
 import { receiveFile, storeUpload } from '../notebook/uploads';
 import { reviewStudy, viewOf } from '../review/context';
 import * as threads from '../review/threads';
@@ -18,7 +20,7 @@ import * as service from './service';
  * (Listing and making studies is under /api/projects/:projectId/studies.) Files uploaded
  * to a study are read back under /api/uploads.
  */
-export function studiesRouter({ db, config }: { db: Db; config: Pick<Config, 'PUBLIC_URL'> }): Router {
+export function studiesRouter({ db, config, notebook }: { db: Db; config: Pick<Config, 'PUBLIC_URL'>; notebook: NotebookService }): Router {
   const router = Router();
 
   router.get('/:studyId', async (req, res) => {
@@ -37,6 +39,25 @@ export function studiesRouter({ db, config }: { db: Db; config: Pick<Config, 'PU
   router.get('/:studyId/branches', async (req, res) => {
     const { study } = await studyAccess(db, req.user!, req.params.studyId);
     res.json(await service.listBranches(db, study.id));
+  });
+
+  /**
+   * The study, its branches and the opened branch's draft in one answer (StudyOpening): a notebook
+   * opened in a fresh browser reads its draft beside the study instead of after the branches have
+   * answered, a round trip on its first screen. The draft is put in as the bytes GET …/draft sends.
+   */
+  router.get('/:studyId/opening', async (req, res) => {
+    const { study } = await studyAccess(db, req.user!, req.params.studyId);
+    const { branch: wanted } = parse(studyOpeningQuerySchema, req.query);
+    const [studyView, branches] = await Promise.all([service.getStudy(db, study.id), service.listBranches(db, study.id)]);
+    const chosen = pickBranch(branches, wanted);
+    let draft: Buffer = Buffer.from('null');
+    if (chosen) {
+      const opened = await branchAccessWithDraft(db, req.user!, chosen.id);
+      draft = draftBytes(await notebook.getDraft(opened.ctx, opened.draft));
+    }
+    const head = Buffer.from(`{"study":${JSON.stringify(studyView)},"branches":${JSON.stringify(branches)},"draft":`);
+    res.type('application/json').send(Buffer.concat([head, draft, Buffer.from('}')]));
   });
 
   router.get('/:studyId/versions', async (req, res) => {

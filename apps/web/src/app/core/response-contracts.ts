@@ -18,6 +18,7 @@ import type {
   RunResponse,
   Study,
   StudyHistory,
+  StudyOpening,
   StudyReview,
   Thread,
   TokenSummary,
@@ -38,6 +39,7 @@ export interface ResponseContracts {
   job: Job;
   studies: Study[];
   study: Study;
+  studyOpening: StudyOpening;
   importedStudy: ImportStudyResult;
   projects: Project[];
   project: Project;

@@ -28,13 +28,12 @@ import { RouterLink } from '@angular/router';
 import type { Branch, Draft, DraftCell, ProjectAccess, Study } from '@laminote/contracts';
 import type { CellKind } from '@laminote/contracts/cell-kinds';
 import { can } from '@laminote/contracts/access';
-import { Subject, debounceTime, forkJoin, map, merge, switchMap, throwError } from 'rxjs';
+import { Subject, debounceTime, merge, of, switchMap, throwError } from 'rxjs';
 import { Auth } from '../core/auth';
 import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { ProblemBanner } from '../shared/problem-banner';
 import { roleLabel } from '../shared/role-label';
-import { StudyApi } from '../shared/study-api';
 import { AddCell } from './add-cell';
 import { CellBody } from './cell-body';
 import { CellFrame } from './cell-frame';
@@ -64,12 +63,6 @@ interface OpenedStudy {
  * follow one body per idle moment of the browser, so a keystroke never waits behind more than one body.
  */
 const FIRST_BODIES = 1;
-
-/** `?branch=` names a branch by id or by name; without it the study opens on `main`. */
-function pickBranch(branches: Branch[], wanted: string | undefined): Branch | undefined {
-  if (wanted) return branches.find((b) => b.id === wanted || b.name === wanted);
-  return branches.find((b) => b.name === 'main') ?? branches.find((b) => !b.archived) ?? branches[0];
-}
 
 function isTextEntry(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
@@ -112,7 +105,6 @@ function isTextEntry(target: EventTarget | null): boolean {
   },
 })
 export class NotebookPage {
-  private readonly studies = inject(StudyApi);
   private readonly api = inject(NotebookApi);
   private readonly auth = inject(Auth);
   private readonly title = inject(Title);
@@ -136,17 +128,17 @@ export class NotebookPage {
   private readonly opening = loader(
     () => ({ studyId: this.studyId(), branch: this.branch() }),
     ({ studyId, branch }) =>
-      forkJoin({ study: this.studies.get(studyId), branches: this.api.branches(studyId) }).pipe(
-        switchMap(({ study, branches }) => {
-          const chosen = pickBranch(branches, branch);
-          if (!chosen) {
+      this.api.opening(studyId, branch).pipe(
+        switchMap(({ study, branches, draft }) => {
+          const chosen = draft ? branches.find((b) => b.id === draft.branchId) : undefined;
+          if (!chosen || !draft) {
             return throwError(() => ({
               type: 'about:blank',
               title: branch ? `This study has no branch “${branch}”` : 'This study has no branch to open',
               status: 404,
             }));
           }
-          return this.api.draft(chosen.id).pipe(map((draft): OpenedStudy => ({ study, branches, branch: chosen, draft })));
+          return of<OpenedStudy>({ study, branches, branch: chosen, draft });
         }),
       ),
   );

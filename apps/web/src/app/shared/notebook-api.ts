@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { Branch, Draft, RunQueued, RunRequest, RunResponse, SaveDraft, UploadResponse } from '@laminote/contracts';
+import type { Branch, Draft, RunQueued, RunRequest, RunResponse, SaveDraft, StudyOpening, UploadResponse } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
@@ -19,6 +19,15 @@ export class NotebookApi {
 
   branches(studyId: string): Observable<Branch[]> {
     return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/branches`).pipe(checked('branches', 'the branches of a study'));
+  }
+
+  /**
+   * The study, its branches and the draft of the branch it opens on (`branch` by id or name, else main),
+   * in one read. The address is written out here as early-reads.js writes it, so its early answer fits.
+   */
+  opening(studyId: string, branch?: string): Observable<StudyOpening> {
+    const query = branch ? `?branch=${encodeURIComponent(branch)}` : '';
+    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/opening${query}`).pipe(checked('studyOpening', 'a study as it opens'));
   }
 
   draft(branchId: string): Observable<Draft> {
