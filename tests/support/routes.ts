@@ -58,6 +58,7 @@ export const ACCESS_RULES: Readonly<Record<string, AccessRule>> = {
   'GET /api/studies/:studyId': { project: 'read' },
   'PATCH /api/studies/:studyId': { project: 'editStudy' },
   'GET /api/studies/:studyId/branches': { project: 'read' },
+  'GET /api/studies/:studyId/opening': { project: 'read' },
   'GET /api/studies/:studyId/versions': { project: 'read' },
   'POST /api/studies/:studyId/baseline': { project: 'markBaseline' },
   'GET /api/studies/:studyId/threads': { project: 'read' },
