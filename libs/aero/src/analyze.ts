@@ -20,7 +20,8 @@ import { headMarch, ludwiegTillmannCf, TURBULENT_START_SHAPE_FACTOR } from './he
 import { hRexTransitionLog10ReX } from './h-rex';
 import { michelTransitionReTheta } from './michel';
 import { keptPressureTable, type KeptPressureTableParse, type PressureTableRow } from './pressure-table';
-import { bodyAt, inviscidTable, prepareSection, sectionAt, ShapeInputError } from './section-case';
+import { bodyAt, inviscidTable, prepareSection, sectionAt } from './section-case';
+import { ShapeInputError } from './shape-input';
 import { leastSquaresSlope, smoothedSlope } from './smoothing';
 import { splitAtStagnation, StagnationError } from './stagnation';
 import { Scratch } from './scratch';

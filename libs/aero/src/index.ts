@@ -29,6 +29,7 @@ export * from './compressibility-correction';
 export * from './naca-sections';
 export * from './polar';
 export * from './section-case';
+export * from './shape-input';
 export * from './section-coordinates';
 export * from './section-geometry';
 export * from './vortex-panel';

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { computePolarPoints } from './polar';
-import { bodyAt, prepareSection, sectionAt, ShapeInputError } from './section-case';
+import { bodyAt, prepareSection, sectionAt } from './section-case';
+import { ShapeInputError } from './shape-input';
 
 describe('section case: from a shape to Cp', () => {
   it('pasted coordinates and the NACA generator give the same solution', () => {

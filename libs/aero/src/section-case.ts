@@ -5,6 +5,7 @@ import { criticalMachKarmanTsien, karmanTsien, prandtlGlauert } from './compress
 import { nacaSection, NacaDesignationError } from './naca-sections';
 import { normalizeSection, parseSectionCoordinates } from './section-coordinates';
 import { repanelSection, sectionGeometry, type SectionGeometry } from './section-geometry';
+import { readBodyMeridian, ShapeInputError } from './shape-input';
 import { PanelGeometryError, vortexPanelAt, vortexPanelAtLift, vortexPanelSolver, type VortexPanelSolver } from './vortex-panel';
 
 /**
@@ -14,16 +15,6 @@ import { PanelGeometryError, vortexPanelAt, vortexPanelAtLift, vortexPanelSolver
  * all go through here. Bad input throws ShapeInputError naming the field (and line) at fault.
  */
 
-export class ShapeInputError extends Error {
-  constructor(
-    readonly field: string,
-    message: string,
-    readonly line?: number,
-  ) {
-    super(message);
-    this.name = 'ShapeInputError';
-  }
-}
 
 export interface PreparedSection {
   /** Unit-chord loop as given (or generated). */
@@ -161,34 +152,6 @@ export function inviscidTable(solution: { x: number[]; y: number[]; cp: number[]
   return rows.join('\n');
 }
 
-/** Read a meridian `x r` from the nose to the tail; the same reader rules as section coordinates. */
-export function readBodyMeridian(text: string): { x: number[]; r: number[] } {
-  const x: number[] = [];
-  const r: number[] = [];
-  const lines = text.split(/\r\n|\n|\r/);
-  let title = false;
-  for (let i = 0; i < lines.length; i++) {
-    const content = lines[i].replace(/#.*$/, '').trim();
-    if (content === '') continue;
-    const fields = content.replace(/[,;]$/, '').split(/\s*[,;\t]\s*|\s+/);
-    const values = fields.map((f) => (/^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/.test(f) ? Number(f) : NaN));
-    if (!values.every(Number.isFinite)) {
-      if (x.length === 0 && !title) {
-        title = true;
-        continue;
-      }
-      throw new ShapeInputError('coordinates', `line ${i + 1}: "${fields.find((_, k) => !Number.isFinite(values[k]))!.slice(0, 40)}" is not a number`, i + 1);
-    }
-    if (fields.length !== 2) throw new ShapeInputError('coordinates', `line ${i + 1}: expected two numbers, x and r, found ${fields.length}`, i + 1);
-    if (values[1] < 0) throw new ShapeInputError('coordinates', `line ${i + 1}: body radius must not be negative`, i + 1);
-    if (x.length > 0 && !(values[0] > x[x.length - 1])) throw new ShapeInputError('coordinates', `line ${i + 1}: x must increase from the nose to the tail (${values[0]} after ${x[x.length - 1]})`, i + 1);
-    x.push(values[0]);
-    r.push(values[1]);
-  }
-  if (x.length < 5) throw new ShapeInputError('coordinates', `needs at least 5 points from the nose to the tail, found ${x.length}`);
-  if (r[0] !== 0 || r[r.length - 1] !== 0) throw new ShapeInputError('coordinates', 'the meridian must start and end on the axis (r = 0 at the nose and the tail)');
-  return { x, r };
-}
 
 /** The body's surface flow at zero incidence, re-panelled with `panels` panels (cosine in arc length). */
 export function bodyAt(spec: Pick<BodySpec, 'coordinates' | 'panels'>): BodyInviscid & { s: number[]; speed: number[] } {

@@ -1,5 +1,6 @@
 import type { BodyInputs, BodyResult } from '@laminote/contracts';
-import { bodyAt, readBodyMeridian, ShapeInputError } from '../section-case';
+import { bodyAt } from '../section-case';
+import { readBodyMeridian, ShapeInputError } from '../shape-input';
 import { fail } from './errors';
 import { warningNotes, type ResultTable } from './result-table';
 

@@ -1,7 +1,7 @@
 import type { PolarInputs, PolarResult } from '@laminote/contracts';
 import { CaseError } from '../analyze';
 import { polarPoint, polarValues } from '../polar';
-import { ShapeInputError } from '../section-case';
+import { ShapeInputError } from '../shape-input';
 import { computeFlow } from './flow';
 import { prepareSectionCell } from './section';
 import { upstreamOf, type Upstream } from './types';

@@ -1,5 +1,6 @@
 import { pressureInputsSchema, type FlowInputs, type PressureInputs, type SectionInputs, type SectionResult } from '@laminote/contracts';
-import { inviscidTable, prepareSection, sectionAt, ShapeInputError, type PreparedSection } from '../section-case';
+import { inviscidTable, prepareSection, sectionAt, type PreparedSection } from '../section-case';
+import { ShapeInputError } from '../shape-input';
 import { fail } from './errors';
 import { computeFlow } from './flow';
 import { optionalUpstreamOf, type Upstream } from './types';

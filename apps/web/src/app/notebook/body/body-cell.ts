@@ -5,7 +5,7 @@ import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { readBodyMeridian, ShapeInputError } from '@laminote/aero/section-case';
+import { readBodyMeridian, ShapeInputError } from '@laminote/aero/shape-input';
 import type { BodyResult, DraftCell } from '@laminote/contracts';
 import { Plot } from '../../shared/plot';
 import { bindCellForm, numberInput, numberText } from '../cell-form';
