@@ -52,7 +52,7 @@ export function sci(value: number | null | undefined, digits = 3, trim = false):
 /**
  * The branch a study opens on: the one `wanted` names (by id or by name), or without a name `main`, else
  * the first branch not archived, else the first. Undefined when a name matches none (or there is none).
- * The notebook page and GET /api/studies/:studyId/opening both choose with this.
+ * GET /api/studies/:studyId/opening chooses with this; the notebook page opens the branch it answers with.
  */
 export function pickBranch<B extends { readonly id: string; readonly name: string; readonly archived: boolean }>(branches: readonly B[], wanted?: string | null): B | undefined {
   if (wanted) return branches.find((b) => b.id === wanted || b.name === wanted);

@@ -1,5 +1,4 @@
 import type {
-  Branch,
   BranchOverview,
   Comparison,
   CommentRevision,
@@ -33,7 +32,6 @@ import type { z } from 'zod';
 
 /** Each API answer the web app checks (`checked`), by name, with the type its contract gives it. */
 export interface ResponseContracts {
-  branches: Branch[];
   draft: Draft;
   uploadedTable: UploadResponse;
   job: Job;

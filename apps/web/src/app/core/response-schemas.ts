@@ -1,6 +1,5 @@
 import {
   branchOverviewSchema,
-  branchSchema,
   commentRevisionSchema,
   comparisonSchema,
   createdTokenSchema,
@@ -38,7 +37,6 @@ import type { ResponseSchemas } from './response-contracts';
  * `fileReplacements`), so zod and the schemas are not shipped where they would only be cast.
  */
 export const RESPONSE_SCHEMAS: ResponseSchemas | null = {
-  branches: branchSchema.array(),
   draft: draftSchema,
   uploadedTable: uploadResponseSchema,
   job: jobSchema,

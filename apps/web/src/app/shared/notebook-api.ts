@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { Branch, Draft, RunQueued, RunRequest, RunResponse, SaveDraft, StudyOpening, UploadResponse } from '@laminote/contracts';
+import type { Draft, RunQueued, RunRequest, RunResponse, SaveDraft, StudyOpening, UploadResponse } from '@laminote/contracts';
 import type { Observable } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
@@ -15,10 +15,6 @@ export class NotebookApi {
 
   private branch(branchId: string): string {
     return `${this.base}/branches/${encodeURIComponent(branchId)}`;
-  }
-
-  branches(studyId: string): Observable<Branch[]> {
-    return this.http.get(`${this.base}/studies/${encodeURIComponent(studyId)}/branches`).pipe(checked('branches', 'the branches of a study'));
   }
 
   /**
