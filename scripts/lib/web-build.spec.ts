@@ -15,10 +15,14 @@ function builtApp(): string {
     'chunk-A.js': 'import{c}from"./chunk-C.js";export{c as a};',
     'chunk-B.js': 'export const b=1;',
     'chunk-C.js': 'export const c=1;',
-    // The notebook page (lazy) and a cell body, with a chunk of their own and one shared with main.
-    'chunk-P.js': 'import{d}from"./chunk-D.js";import{a}from"./chunk-A.js";var s={selectors:[["lam-notebook-page"]]};const p=()=>import("./chunk-L.js");',
-    'chunk-F.js': 'import{d}from"./chunk-D.js";var s={selectors:[["lam-flow-cell"]]};',
+    // The notebook page (lazy) with a cell body it draws itself, a chunk of their own and one shared with main.
+    'chunk-P.js':
+      'import{d}from"./chunk-D.js";import{a}from"./chunk-A.js";import{f}from"./chunk-F.js";var s={selectors:[["lam-notebook-page"]]};const p=()=>import("./chunk-L.js");const q=()=>import("./chunk-Q.js");',
+    'chunk-F.js': 'import{d}from"./chunk-D.js";var s={selectors:[["lam-flow-cell"]]};export const f=1;',
     'chunk-D.js': 'export const d=1;',
+    // A body fetched on first use (the leading edge), with a chunk of its own beside the page's.
+    'chunk-Q.js': 'import{d}from"./chunk-D.js";import{e}from"./chunk-E.js";var s={selectors:[["lam-leading-edge-cell"]]};',
+    'chunk-E.js': 'export const e=1;',
     // A lazy chunk only a body imports dynamically (the plots): not listed.
     'chunk-L.js': 'export const plot=1;',
     'scripts-S.js': '(function(){})();',
@@ -32,7 +36,7 @@ function builtApp(): string {
 }
 
 describe('addPreloads', () => {
-  it('names every script main imports and lists the notebook code beyond it, once however often it runs', () => {
+  it('names every script main imports and lists the notebook code beyond it, and each lazily fetched kind’s, once however often it runs', () => {
     const dir = builtApp();
     const result = addPreloads(dir);
     expect(new Set(result.initial)).toEqual(new Set(['scripts-S.js', 'main-M.js', 'chunk-A.js', 'chunk-B.js', 'chunk-C.js']));
@@ -44,6 +48,11 @@ describe('addPreloads', () => {
     expect(new Set(JSON.parse(list![1]!))).toEqual(new Set(['chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
     // Before the scripts, so early-reads.js finds the list when it runs.
     expect(once.indexOf('lam-study-code')).toBeLessThan(once.indexOf('<script src="scripts-S.js"'));
+    // The body fetched on first use: its scripts beyond the page's, by the stem of its selector.
+    expect(result.kinds).toEqual({ 'leading-edge': expect.arrayContaining(['chunk-Q.js', 'chunk-E.js']) });
+    expect(result.kinds['leading-edge']).toHaveLength(2);
+    const kinds = /<script type="application\/json" id="lam-kind-code">(.*?)<\/script>/.exec(once);
+    expect(JSON.parse(kinds![1]!)).toEqual(result.kinds);
     addPreloads(dir);
     expect(readFileSync(path.join(dir, 'index.html'), 'utf8')).toBe(once);
   });

@@ -39,18 +39,25 @@ export function closure(scripts: ReadonlyMap<string, { imports: readonly string[
   return [...seen];
 }
 
-/** The notebook page's component and the cell bodies' (their selectors as the compiler writes them). */
-const NOTEBOOK_ROOT = /selectors:\[\["lam-(?:notebook-page|[a-z-]+-cell)"\]\]/;
+/**
+ * The notebook page's component (its selector as the compiler writes it). The bodies of the kinds a study
+ * opens with are among its static imports; the others are fetched when a cell of their kind is drawn.
+ */
+const NOTEBOOK_ROOT = /selectors:\[\["lam-notebook-page"\]\]/;
+/** A cell body's component, by the stem of its selector. */
+const KIND_ROOT = /selectors:\[\["lam-([a-z-]+)-cell"\]\]/g;
 
 /**
  * Without these hints a cold open fetches its code in rounds, one per level of imports: Angular's build
  * names at most 10 of the initial scripts in index.html (main's own imports beyond them are found when
- * main arrives), and the notebook's page and cell bodies, with the shared code they import, come a
+ * main arrives), and the notebook's page with its cell bodies and the shared code they import come a
  * level at a time after main has run. Here index.html gets a modulepreload link for every script main
  * imports, and, for a study's address (early-reads.js reads it), the list of the notebook's scripts
- * beyond those, so all of them are asked for at once. Running it again changes nothing.
+ * beyond those, so all of them are asked for at once; and the scripts of each cell kind fetched on first
+ * use, which early-reads.js asks for once the draft says which kinds the study has. Running it again
+ * changes nothing.
  */
-export function addPreloads(dist: string): { initial: string[]; notebook: string[] } {
+export function addPreloads(dist: string): { initial: string[]; notebook: string[]; kinds: Record<string, string[]> } {
   const indexFile = path.join(dist, 'index.html');
   let html = readFileSync(indexFile, 'utf8');
   const scripts = staticImports(dist);
@@ -59,15 +66,25 @@ export function addPreloads(dist: string): { initial: string[]; notebook: string
   const initialSet = new Set(initial);
   const roots = [...scripts].filter(([, s]) => NOTEBOOK_ROOT.test(s.text)).map(([file]) => file);
   const notebook = closure(scripts, roots, initialSet);
+  // The bodies fetched on first use (CELL_BODIES' LoadedBody): each kind's scripts beyond the above, by
+  // the stem of its selector (lam-leading-edge-cell: "leading-edge").
+  const withPage = new Set([...initial, ...notebook]);
+  const kinds: Record<string, string[]> = {};
+  for (const [file, script] of scripts) {
+    if (withPage.has(file)) continue;
+    for (const m of script.text.matchAll(KIND_ROOT)) kinds[m[1]!] = closure(scripts, [file], withPage);
+  }
 
   const linked = new Set([...html.matchAll(/<link rel="modulepreload" href="([\w-]+\.js)"/g)].map((m) => m[1]!));
   const links = initial.filter((file) => !linked.has(file) && !entries.includes(file)).map((file) => `<link rel="modulepreload" href="${file}">`);
-  const list = `<script type="application/json" id="lam-study-code">${JSON.stringify(notebook)}</script>`;
-  html = html.replace(/<script type="application\/json" id="lam-study-code">.*?<\/script>/, '');
+  const list =
+    `<script type="application/json" id="lam-study-code">${JSON.stringify(notebook)}</script>` +
+    `<script type="application/json" id="lam-kind-code">${JSON.stringify(kinds)}</script>`;
+  html = html.replace(/<script type="application\/json" id="lam-(?:study|kind)-code">.*?<\/script>/g, '');
   // Beside Angular's own links, before the scripts (early-reads.js reads the list once the page is parsed).
   const firstScript = html.indexOf('<script src="');
   if (firstScript < 0) throw new Error(`${indexFile} names no script`);
   html = `${html.slice(0, firstScript)}${links.join('')}${list}${html.slice(firstScript)}`;
   writeFileSync(indexFile, html);
-  return { initial, notebook };
+  return { initial, notebook, kinds };
 }

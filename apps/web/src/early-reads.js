@@ -22,6 +22,22 @@
     reads.set(url, answer);
     return answer;
   }
+  // Asks for built scripts now, at low priority (after the reads: over the six connections a browser
+  // keeps to a server, a read is not queued behind them).
+  function preload(files) {
+    var links = document.createDocumentFragment();
+    files.forEach(function (file) {
+      var link = document.createElement('link');
+      link.rel = 'modulepreload';
+      link.fetchPriority = 'low';
+      link.href = file;
+      links.appendChild(link);
+    });
+    document.head.appendChild(links);
+  }
+  function listed(id) {
+    return JSON.parse(document.getElementById(id).textContent);
+  }
   function json(answer) {
     return answer.then(function (a) {
       return a.status === 200 ? JSON.parse(a.body) : null;
@@ -36,7 +52,27 @@
     // NotebookApi.opening writes it): the branch is chosen by the server, so the draft does not wait
     // for the branches to answer first.
     var readStudy = function () {
-      read('/api/studies/' + studyId + '/opening' + (wanted ? '?branch=' + encodeURIComponent(wanted) : ''));
+      var opening = read('/api/studies/' + studyId + '/opening' + (wanted ? '?branch=' + encodeURIComponent(wanted) : ''));
+      // The code of the cell kinds the draft has that does not come with the page (a polar, a sweep…;
+      // listed by kind in index.html): asked for as soon as the draft says which kinds it has. The
+      // answer's text is searched rather than parsed twice; a kind named elsewhere in it costs a fetch.
+      opening
+        .then(function (answer) {
+          if (answer.status !== 200) return;
+          var byKind = listed('lam-kind-code');
+          var asked = {};
+          var kind = /"kind":"([A-Za-z]+)"/g;
+          for (var m = kind.exec(answer.body); m; m = kind.exec(answer.body)) {
+            var stem = m[1].replace(/[A-Z]/g, function (c) {
+              return '-' + c.toLowerCase();
+            });
+            if (byKind[stem] && !asked[stem]) {
+              asked[stem] = true;
+              preload(byKind[stem]);
+            }
+          }
+        })
+        .catch(function () {});
     };
     // The anti-forgery cookie is set at sign-in: with it, the study is read beside the sign-in check
     // rather than after it (it outlives a session that ended, which costs a refused read at most).
@@ -48,20 +84,11 @@
           if (person) readStudy();
         })
         .catch(function () {});
-    // The notebook's code beyond main's (its page, the cell bodies and what they import), listed in
-    // index.html by the build (scripts/lib/web-build.ts): asked for now, all at once, rather than a
-    // level of imports at a time once main has run. At low priority, after the reads above: over the
-    // six connections a browser keeps to a server, the draft's read is not queued behind them.
+    // The notebook's code beyond main's (its page, the bodies of the kinds a study opens with and what
+    // they import), listed in index.html by the build (scripts/lib/web-build.ts): asked for now, all at
+    // once, rather than a level of imports at a time once main has run.
     try {
-      var code = document.createDocumentFragment();
-      JSON.parse(document.getElementById('lam-study-code').textContent).forEach(function (file) {
-        var link = document.createElement('link');
-        link.rel = 'modulepreload';
-        link.fetchPriority = 'low';
-        link.href = file;
-        code.appendChild(link);
-      });
-      document.head.appendChild(code);
+      preload(listed('lam-study-code'));
     } catch (e) {}
   }
   // The first screen's other fonts (the bold of the titles and the icons): a browser asks for a font

@@ -1,11 +1,12 @@
 import { NgComponentOutlet } from '@angular/common';
-import { ChangeDetectionStrategy, Component, type Type, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, type Type, computed, input, resource } from '@angular/core';
 import type { DraftCell } from '@laminote/contracts';
-import { CELL_BODIES, type CellBodyComponent } from './cell-bodies';
+import { CELL_BODIES, type CellBodyComponent, type LoadedBody } from './cell-bodies';
 
 /**
  * A cell's body: its kind's component (`CELL_BODIES`), given the cell. While the page holds the body
- * back (`held`: cells below the first screen are drawn while the browser is idle) it says it is drawing.
+ * back (`held`: cells below the first screen are drawn while the browser is idle), or the kind's code is
+ * still being fetched, it says it is drawing; a fetch that failed is said.
  */
 @Component({
   selector: 'lam-cell-body',
@@ -14,6 +15,8 @@ import { CELL_BODIES, type CellBodyComponent } from './cell-bodies';
   template: `
     @if (body(); as component) {
       <ng-container *ngComponentOutlet="component; inputs: inputs()" />
+    } @else if (loaded.error()) {
+      <p class="body-pending" role="alert">This cell could not be drawn: its code did not load. Reload the page to try again.</p>
     } @else {
       <p class="body-pending" aria-busy="true" [style.min-height.px]="placeholderHeight()">Drawing…</p>
     }
@@ -33,7 +36,22 @@ export class CellBody {
   readonly held = input(false);
 
   private readonly kind = computed(() => this.cell().kind);
-  protected readonly body = computed((): Type<CellBodyComponent> | null => (this.held() ? null : CELL_BODIES[this.kind()]));
+  private readonly entry = computed(() => CELL_BODIES[this.kind()]);
+  /** The code of a kind fetched on first use, once the body is to be drawn. */
+  protected readonly loaded = resource<Type<CellBodyComponent>, LoadedBody | undefined>({
+    params: () => {
+      const entry = this.entry();
+      return !this.held() && 'load' in entry ? entry : undefined;
+    },
+    loader: ({ params }) => params.load(),
+  });
+  protected readonly body = computed((): Type<CellBodyComponent> | null => {
+    if (this.held()) return null;
+    const entry = this.entry();
+    // A resource in its error state throws when its value is read: the template says the error instead.
+    if ('load' in entry) return this.loaded.hasValue() ? this.loaded.value() : null;
+    return entry;
+  });
   protected readonly inputs = computed(() => ({ cell: this.cell() }));
   /** About the drawn body's height, so the page does not jump as the bodies come and the first screen is measured right. */
   protected readonly placeholderHeight = computed(() => {

@@ -1,6 +1,6 @@
 /**
- * The notebook's code, fetched when the app starts on a study's address: the page with the body of every
- * cell kind (`CELL_BODIES`), rather than after the sign-in check. The schemas its forms check with come
+ * The notebook's code, fetched when the app starts on a study's address: the page with the bodies of the
+ * kinds a study opens with (`CELL_BODIES`), rather than after the sign-in check. The schemas its forms check with come
  * once the first screen is drawn (`loadRuntimeChecksWhenIdle`).
  */
 export function prefetchNotebook(): void {
