@@ -1,12 +1,23 @@
-import { Injectable, inject } from '@angular/core';
+import { Injectable, Injector, PendingTasks, inject } from '@angular/core';
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import type { AbstractControl } from '@angular/forms';
-import { MatSnackBar } from '@angular/material/snack-bar';
+import type { MatSnackBarConfig } from '@angular/material/snack-bar';
+import { lazyModule } from '../shared/lazy-module';
 import { applyProblemToControls, problemMessage, toProblem } from './problem';
+
+/** Material's snackbar, fetched once the first screen is drawn (or at the first message, if sooner). */
+const snackBarCode = lazyModule(() => import('@angular/material/snack-bar'));
 
 /** Short, non-blocking messages at the bottom of the page. */
 @Injectable({ providedIn: 'root' })
 export class Notifier {
-  private readonly snackBar = inject(MatSnackBar);
+  private readonly injector = inject(Injector);
+  private readonly pendingTasks = inject(PendingTasks);
+  private readonly announcer = inject(LiveAnnouncer);
+
+  constructor() {
+    void snackBarCode.loadWhenIdle().catch(() => undefined);
+  }
 
   /** Reports a failed request: the problem's title and detail. */
   problem(error: unknown): void {
@@ -23,10 +34,22 @@ export class Notifier {
   }
 
   done(message: string): void {
-    this.snackBar.open(message, undefined, { duration: 4000 });
+    this.show(message, undefined, { duration: 4000 });
   }
 
   private showProblem(message: string): void {
-    this.snackBar.open(message, 'Dismiss', { duration: 8000, politeness: 'assertive' });
+    this.show(message, 'Dismiss', { duration: 8000, politeness: 'assertive' });
+  }
+
+  /** The message in the snackbar; if its code cannot be fetched (offline), read out instead. */
+  private show(message: string, action: string | undefined, config: MatSnackBarConfig): void {
+    const done = this.pendingTasks.add();
+    snackBarCode
+      .load()
+      .then(
+        ({ MatSnackBar }) => void this.injector.get(MatSnackBar).open(message, action, config),
+        () => void this.announcer.announce(message, config.politeness ?? 'polite'),
+      )
+      .finally(done);
   }
 }

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDividerModule } from '@angular/material/divider';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { MatProgressSpinner } from '@angular/material/progress-spinner';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import type { DraftCell, Problem } from '@laminote/contracts';
 import { fieldPathLabel, readableMessage } from '@laminote/contracts/field-words';
@@ -19,7 +19,7 @@ import { RUN_STATE_INFO, cellKindInfo } from '../shared/cell-kinds';
  */
 @Component({
   selector: 'lam-cell-frame',
-  imports: [CdkDragHandle, CellThreads, CellThreadsButton, MatButtonModule, MatDividerModule, MatIconModule, MatMenuModule, MatProgressSpinnerModule, MatTooltipModule],
+  imports: [CdkDragHandle, CellThreads, CellThreadsButton, MatButtonModule, MatDividerModule, MatIconModule, MatMenuModule, MatProgressSpinner, MatTooltipModule],
   templateUrl: './cell-frame.html',
   styleUrl: './cell-frame.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

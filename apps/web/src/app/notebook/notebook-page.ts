@@ -17,11 +17,9 @@ import {
   signal,
   viewChildren,
 } from '@angular/core';
-import { MatBottomSheet } from '@angular/material/bottom-sheet';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialog, type MatDialogRef } from '@angular/material/dialog';
+import type { MatDialogRef } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
@@ -36,9 +34,10 @@ import { ProblemBanner } from '../shared/problem-banner';
 import { roleLabel } from '../shared/role-label';
 import { AddCell } from './add-cell';
 import { CellBody } from './cell-body';
+import { fetchBodiesOf } from './cell-bodies';
 import { CellFrame } from './cell-frame';
 import { cellKindInfo } from '../shared/cell-kinds';
-import { type ConflictChoice, ConflictDialog } from './conflict-dialog';
+import type { ConflictChoice, ConflictDialog } from './conflict-dialog';
 import { DraftSession } from '../shared/draft-session';
 import { BranchJobs } from './branch-jobs';
 import { CellProgress } from './cell-progress';
@@ -46,9 +45,10 @@ import { RunProgress } from './run-progress';
 import { NotebookApi } from '../shared/notebook-api';
 import { RemovedCells } from './removed-cells';
 import { SaveIndicator } from './save-indicator';
-import { Shortcuts } from './shortcuts';
 import { VersionBar } from '../versions/version-bar';
 import { SinceLastLook } from './since-last-look';
+import { DIALOG_NOT_LOADED, openLazyBottomSheet, openLazyDialog } from '../shared/lazy-dialog';
+import { Notifier } from '../core/notifier';
 
 interface OpenedStudy {
   readonly study: Study;
@@ -84,7 +84,6 @@ function isTextEntry(target: EventTarget | null): boolean {
     CellProgress,
     MatButtonModule,
     MatIconModule,
-    MatProgressBarModule,
     MatTooltipModule,
     NotFound,
     ProblemBanner,
@@ -108,9 +107,8 @@ export class NotebookPage {
   private readonly api = inject(NotebookApi);
   private readonly auth = inject(Auth);
   private readonly title = inject(Title);
-  private readonly dialog = inject(MatDialog);
-  private readonly bottomSheet = inject(MatBottomSheet);
   private readonly announcer = inject(LiveAnnouncer);
+  private readonly notifier = inject(Notifier);
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   private readonly injector = inject(Injector);
   private readonly destroyRef = inject(DestroyRef);
@@ -197,13 +195,15 @@ export class NotebookPage {
   private readonly pendingTasks = inject(PendingTasks);
 
   private readonly addControls = viewChildren(AddCell);
-  private conflictRef: MatDialogRef<ConflictDialog, ConflictChoice> | null = null;
+  /** The conflict dialog while it is open (or its code is being fetched). */
+  private conflictRef: Promise<MatDialogRef<ConflictDialog, ConflictChoice>> | null = null;
 
   constructor() {
     effect(() => {
       const opened = this.opened();
       if (!opened) return;
       this.session.open(opened.branch.id, opened.draft);
+      fetchBodiesOf(opened.draft.cells.map((cell) => cell.kind));
       this.drawBodiesProgressively(opened.draft.cells);
     });
     effect(() => {
@@ -387,23 +387,33 @@ export class NotebookPage {
   }
 
   protected showShortcuts(): void {
-    this.bottomSheet.open(Shortcuts, { ariaLabel: 'Keyboard shortcuts' });
+    openLazyBottomSheet(this.injector, () => import('./shortcuts').then((m) => m.Shortcuts), { ariaLabel: 'Keyboard shortcuts' }).catch(() =>
+      this.notifier.problem(DIALOG_NOT_LOADED),
+    );
   }
 
   protected showConflict(): void {
     const conflict = this.session.conflict();
     if (!conflict || this.conflictRef) return;
-    this.conflictRef = this.dialog.open<ConflictDialog, typeof conflict, ConflictChoice>(ConflictDialog, {
+    this.conflictRef = openLazyDialog<ConflictDialog, typeof conflict, ConflictChoice>(this.injector, () => import('./conflict-dialog').then((m) => m.ConflictDialog), {
       data: conflict,
       disableClose: true,
       width: '44rem',
       maxWidth: '95vw',
     });
-    this.conflictRef.afterClosed().subscribe((choice) => {
-      this.conflictRef = null;
-      if (choice === 'mine') this.session.keepMine();
-      else if (choice === 'theirs') this.session.takeTheirs();
-    });
+    this.conflictRef.then(
+      (ref) =>
+        ref.afterClosed().subscribe((choice) => {
+          this.conflictRef = null;
+          if (choice === 'mine') this.session.keepMine();
+          else if (choice === 'theirs') this.session.takeTheirs();
+        }),
+      () => {
+        // The save indicator still offers to resolve the conflict: that tries again.
+        this.conflictRef = null;
+        this.notifier.problem(DIALOG_NOT_LOADED);
+      },
+    );
   }
 
   // ── Keyboard ─────────────────────────────────────────────────────────────────────────────────

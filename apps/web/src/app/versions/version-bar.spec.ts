@@ -203,9 +203,10 @@ describe('VersionBar', () => {
 
   /** Answers the send-for-review dialog's look-up of the project's reviewers, then picks Lotte and sends. */
   async function sendToLotte(root: ReturnType<typeof TestbedHarnessEnvironment.documentRootLoader>, versionId: string) {
+    // The dialog's code is fetched on first use: it asks for the reviewers once it is open.
+    const dialog = await root.getHarness(MatDialogHarness.with({ selector: '.mat-mdc-dialog-container:has(lam-send-for-review-dialog)' }));
     for (const r of http.match(`/api/studies/${STUDY_ID}`)) r.flush(study({ id: STUDY_ID }));
     for (const r of http.match(`/api/projects/${PROJECT_ID}/members`)) r.flush(MEMBERS);
-    const dialog = await root.getHarness(MatDialogHarness.with({ selector: '.mat-mdc-dialog-container:has(lam-send-for-review-dialog)' }));
     const reviewers = await dialog.getHarness(MatSelectHarness);
     await reviewers.open();
     expect(await Promise.all((await reviewers.getOptions()).map((o) => o.getText()))).toEqual(['Lotte Brandvik']);

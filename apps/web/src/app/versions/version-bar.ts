@@ -1,6 +1,7 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, Injector, computed, inject, input, linkedSignal, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialog } from '@angular/material/dialog';
+import type { ComponentType } from '@angular/cdk/portal';
+import type { MatDialogConfig, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
@@ -10,15 +11,16 @@ import type { Branch, BranchOverview, ProjectAccess, VersionSummary } from '@lam
 import { can } from '@laminote/contracts/access';
 import { firstValueFrom } from 'rxjs';
 import { Notifier } from '../core/notifier';
-import { ConfirmDialog, type ConfirmDialogData } from '../shared/confirm-dialog';
+import type { ConfirmDialog, ConfirmDialogData } from '../shared/confirm-dialog';
 import { NotebookApi } from '../shared/notebook-api';
 import { DraftSession } from '../shared/draft-session';
-import { BranchDialog, type BranchDialogData, type VersionRef } from './branch-dialog';
-import { type HistoryChoice, HistoryDrawer, type HistoryDrawerData } from './history-drawer';
-import { SaveVersionDialog, type SaveVersionData, type SavedVersion } from './save-version-dialog';
+import { DIALOG_NOT_LOADED, openLazyDialog } from '../shared/lazy-dialog';
+import type { BranchDialog, BranchDialogData, VersionRef } from './branch-dialog';
+import type { HistoryChoice, HistoryDrawer, HistoryDrawerData } from './history-drawer';
+import type { SaveVersionData, SaveVersionDialog, SavedVersion } from './save-version-dialog';
 import { VersionApi } from './version-api';
 import { StudyReviewState } from '../review/study-review-state';
-import { SendForReviewDialog, type SendForReviewData } from '../review/send-for-review-dialog';
+import type { SendForReviewData, SendForReviewDialog } from '../review/send-for-review-dialog';
 
 /**
  * The notebook header's version bar: which branch this is (and a switch to the others), its head
@@ -37,7 +39,7 @@ import { SendForReviewDialog, type SendForReviewData } from '../review/send-for-
 export class VersionBar {
   private readonly api = inject(VersionApi);
   private readonly notebook = inject(NotebookApi);
-  private readonly dialog = inject(MatDialog);
+  private readonly injector = inject(Injector);
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   /** Present over the notebook page: flushed before saving, reopened after a restore. */
@@ -95,16 +97,19 @@ export class VersionBar {
       session: this.session,
       mayRequestReview: this.mayRequestReview(),
     };
-    this.dialog
-      .open<SaveVersionDialog, SaveVersionData, SavedVersion>(SaveVersionDialog, { data, width: '44rem', maxWidth: '94vw' })
-      .afterClosed()
-      .subscribe((saved) => {
+    void this.openDialog<SaveVersionDialog, SaveVersionData, SavedVersion>(() => import('./save-version-dialog').then((m) => m.SaveVersionDialog), {
+      data,
+      width: '44rem',
+      maxWidth: '94vw',
+    }).then((ref) =>
+      ref?.afterClosed().subscribe((saved) => {
         if (!saved) return;
         const { version } = saved;
         this.heads.update((heads) => new Map(heads).set(version.branchId, { id: version.id, number: version.number }));
         this.notifier.done(`Saved version ${version.number} of ${version.branchName}.`);
         if (saved.sendForReview) this.sendForReview({ id: version.id, number: version.number, branchName: version.branchName });
-      });
+      }),
+    );
   }
 
   protected sendHeadForReview(): void {
@@ -114,31 +119,33 @@ export class VersionBar {
 
   private sendForReview(version: VersionRef): void {
     const data: SendForReviewData = { studyId: this.studyId(), versionId: version.id, versionNumber: version.number, branchName: version.branchName };
-    this.dialog
-      .open<SendForReviewDialog, SendForReviewData, unknown>(SendForReviewDialog, { data, width: '34rem', maxWidth: '94vw' })
-      .afterClosed()
-      .subscribe((review) => {
+    void this.openDialog<SendForReviewDialog, SendForReviewData, unknown>(() => import('../review/send-for-review-dialog').then((m) => m.SendForReviewDialog), {
+      data,
+      width: '34rem',
+      maxWidth: '94vw',
+    }).then((ref) =>
+      ref?.afterClosed().subscribe((review) => {
         if (review) this.reviewsSent.update((n) => n + 1);
-      });
+      }),
+    );
   }
 
   protected openHistory(): void {
     const data: HistoryDrawerData = { studyId: this.studyId(), branchId: this.branchId(), draftOpen: this.session !== null && this.writable() };
-    this.dialog
-      .open<HistoryDrawer, HistoryDrawerData, HistoryChoice>(HistoryDrawer, {
-        data,
-        position: { right: '0', top: '0' },
-        height: '100vh',
-        width: '30rem',
-        maxWidth: '100vw',
-        panelClass: 'lam-history-drawer',
-        autoFocus: 'dialog',
-      })
-      .afterClosed()
-      .subscribe((choice) => {
+    void this.openDialog<HistoryDrawer, HistoryDrawerData, HistoryChoice>(() => import('./history-drawer').then((m) => m.HistoryDrawer), {
+      data,
+      position: { right: '0', top: '0' },
+      height: '100vh',
+      width: '30rem',
+      maxWidth: '100vw',
+      panelClass: 'lam-history-drawer',
+      autoFocus: 'dialog',
+    }).then((ref) =>
+      ref?.afterClosed().subscribe((choice) => {
         if (choice?.action === 'branch') this.branchFrom(choice.version);
         if (choice?.action === 'restore') void this.restore(choice.version);
-      });
+      }),
+    );
   }
 
   protected branchFromHead(): void {
@@ -147,32 +154,33 @@ export class VersionBar {
   }
 
   private branchFrom(version: VersionRef): void {
-    this.dialog
-      .open<BranchDialog, BranchDialogData, BranchOverview>(BranchDialog, { data: { version }, width: '32rem', maxWidth: '94vw' })
-      .afterClosed()
-      .subscribe(async (branch) => {
+    void this.openDialog<BranchDialog, BranchDialogData, BranchOverview>(() => import('./branch-dialog').then((m) => m.BranchDialog), {
+      data: { version },
+      width: '32rem',
+      maxWidth: '94vw',
+    }).then((ref) =>
+      ref?.afterClosed().subscribe(async (branch) => {
         if (!branch) return;
         this.notifier.done(`Branch “${branch.name}” starts from version ${version.number} of ${version.branchName}.`);
         await this.session?.flush();
         await this.router.navigate(['/studies', this.studyId()], { queryParams: { branch: branch.id } });
-      });
+      }),
+    );
   }
 
   /** Replaces the draft's cells by a version's, as one draft change; the person confirms first. */
   private async restore(version: VersionSummary): Promise<void> {
     const session = this.session;
     if (!session) return;
-    const confirmed = await firstValueFrom(
-      this.dialog
-        .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, {
-          data: {
-            title: `Restore version ${version.number}?`,
-            message: `The draft’s cells become those of version ${version.number} (“${version.message}”). Cells it does not have go to Recently removed. The restore is a draft change: save a version afterwards to keep it.`,
-            confirmLabel: 'Restore into the draft',
-          },
-        })
-        .afterClosed(),
-    );
+    const confirm = await this.openDialog<ConfirmDialog, ConfirmDialogData, boolean>(() => import('../shared/confirm-dialog').then((m) => m.ConfirmDialog), {
+      data: {
+        title: `Restore version ${version.number}?`,
+        message: `The draft’s cells become those of version ${version.number} (“${version.message}”). Cells it does not have go to Recently removed. The restore is a draft change: save a version afterwards to keep it.`,
+        confirmLabel: 'Restore into the draft',
+      },
+    });
+    if (!confirm) return;
+    const confirmed = await firstValueFrom(confirm.afterClosed());
     if (!confirmed) return;
     if (!(await session.flush())) {
       this.notifier.problem({ type: 'about:blank', status: 409, title: 'The draft has unsaved edits', detail: 'Resolve the draft’s save problem first, then restore.' });
@@ -187,5 +195,19 @@ export class VersionBar {
       },
       error: (error: unknown) => this.notifier.problem(error),
     });
+  }
+
+  /**
+   * Opens a dialog whose code is fetched the first time it is asked for (`openLazyDialog`): the
+   * notebook's first screen does without the version dialogs. When the code cannot be fetched, the
+   * person is told and null is returned.
+   */
+  private async openDialog<C, D, R>(load: () => Promise<ComponentType<C>>, config: MatDialogConfig<D>): Promise<MatDialogRef<C, R> | null> {
+    try {
+      return await openLazyDialog<C, D, R>(this.injector, load, config);
+    } catch {
+      this.notifier.problem(DIALOG_NOT_LOADED);
+      return null;
+    }
   }
 }
