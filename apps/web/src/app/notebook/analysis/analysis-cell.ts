@@ -7,7 +7,6 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { ENGINE_CAUTION } from '@laminote/aero/caution';
 import type { AnalysisInputs, DraftCell, EngineResult } from '@laminote/contracts';
 import { TRANSITION_CRITERIA, type TransitionCriterion } from '@laminote/contracts/cell-kinds';
@@ -53,7 +52,6 @@ type Governing = AnalysisInputs['governing'];
     MatInputModule,
     MatSelectModule,
     MatSlideToggleModule,
-    MatTableModule,
     Plot,
     ReactiveFormsModule,
     ScrollCue,
@@ -167,16 +165,6 @@ export class AnalysisCell {
     const result = this.result();
     return result !== null && isBodyResult(result);
   });
-  protected readonly columns = computed(() => [
-    'surface',
-    ...this.resultCriteria(),
-    'governing',
-    'spread',
-    'laminarSeparation',
-    'turbulentSeparation',
-    'laminarExtent',
-    ...(this.body() ? [] : ['cd']),
-  ]);
   protected readonly figures = computed(() => {
     const result = this.result();
     return result ? analysisFigures(result) : [];
