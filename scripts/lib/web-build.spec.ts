@@ -46,8 +46,13 @@ describe('addPreloads', () => {
     expect(preloaded.sort()).toEqual(['chunk-A.js', 'chunk-B.js', 'chunk-C.js']);
     const list = /<script type="application\/json" id="lam-study-code">(.*?)<\/script>/.exec(once);
     expect(new Set(JSON.parse(list![1]!))).toEqual(new Set(['chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
-    // Before the scripts, so early-reads.js finds the list when it runs.
+    // The global scripts (early-reads.js) run from the head, not deferred, after the lists they read.
+    expect(once).toContain('<script src="scripts-S.js"></script></head>');
+    expect(once).not.toContain('defer');
     expect(once.indexOf('lam-study-code')).toBeLessThan(once.indexOf('<script src="scripts-S.js"'));
+    expect(once.indexOf('lam-kind-code')).toBeLessThan(once.indexOf('<script src="scripts-S.js"'));
+    // The app's own script stays last, after every modulepreload link.
+    expect(once.lastIndexOf('modulepreload')).toBeLessThan(once.indexOf('<script src="main-M.js"'));
     // The body fetched on first use: its scripts beyond the page's, by the stem of its selector.
     expect(result.kinds).toEqual({ 'leading-edge': expect.arrayContaining(['chunk-Q.js', 'chunk-E.js']) });
     expect(result.kinds['leading-edge']).toHaveLength(2);

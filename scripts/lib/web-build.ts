@@ -81,10 +81,21 @@ export function addPreloads(dist: string): { initial: string[]; notebook: string
     `<script type="application/json" id="lam-study-code">${JSON.stringify(notebook)}</script>` +
     `<script type="application/json" id="lam-kind-code">${JSON.stringify(kinds)}</script>`;
   html = html.replace(/<script type="application\/json" id="lam-(?:study|kind)-code">.*?<\/script>/g, '');
-  // Beside Angular's own links, before the scripts (early-reads.js reads the list once the page is parsed).
-  const firstScript = html.indexOf('<script src="');
+  // The global scripts bundle (early-reads.js) goes into the head, after the style sheet and the lists it
+  // reads, as a plain script rather than Angular's deferred one at the end of the body: it then runs as
+  // soon as the style sheet has loaded, and the first reads leave before the dozens of scripts the body
+  // names (a deferred script runs once the body is parsed, and is fetched at low priority behind them).
+  const global = /<script src="(scripts-[\w-]+\.js)"(?: defer)?><\/script>/.exec(html);
+  if (global) {
+    html = html.replace(global[0], '');
+    const head = html.indexOf('</head>');
+    if (head < 0) throw new Error(`${indexFile} has no head`);
+    html = `${html.slice(0, head)}${list}<script src="${global[1]}"></script>${html.slice(head)}`;
+  }
+  // Angular's own links and these, before the app's script.
+  const firstScript = html.indexOf('<script src="', html.indexOf('<body'));
   if (firstScript < 0) throw new Error(`${indexFile} names no script`);
-  html = `${html.slice(0, firstScript)}${links.join('')}${list}${html.slice(firstScript)}`;
+  html = `${html.slice(0, firstScript)}${links.join('')}${global ? '' : list}${html.slice(firstScript)}`;
   writeFileSync(indexFile, html);
   return { initial, notebook, kinds };
 }

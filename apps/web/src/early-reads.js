@@ -6,7 +6,9 @@
 // the server itself for anything not here. So a wrong guess here costs a wasted read, never a wrong
 // screen.
 //
-// A plain script (angular.json "scripts"), not a module: it runs before the module graph has loaded.
+// A plain script (angular.json "scripts"), not a module: it runs before the module graph has loaded. The
+// build moves it into the head as a plain (not deferred) script (scripts/lib/web-build.ts addPreloads),
+// so it runs once the style sheet has loaded, before the body's scripts are asked for.
 (function () {
   'use strict';
   var reads = new Map();
