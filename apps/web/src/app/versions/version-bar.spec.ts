@@ -48,6 +48,15 @@ describe('VersionBar', () => {
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture), root: TestbedHarnessEnvironment.documentRootLoader(fixture) };
   }
 
+  it('opens one dialog for two quick clicks while its code is on its way', async () => {
+    const { fixture, root } = await render(lead);
+    const button = Array.from((fixture.nativeElement as HTMLElement).querySelectorAll('button')).find((b) => /Save version/.test(b.textContent ?? ''))!;
+    button.click();
+    button.click();
+    await fixture.whenStable();
+    expect(await root.getAllHarnesses(MatDialogHarness)).toHaveLength(1);
+  });
+
   it('shows the branch and its head, and saves the draft as the next version', async () => {
     const { fixture, loader, root } = await render(lead);
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('v2');

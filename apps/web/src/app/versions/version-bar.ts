@@ -40,6 +40,7 @@ export class VersionBar {
   private readonly api = inject(VersionApi);
   private readonly notebook = inject(NotebookApi);
   private readonly injector = inject(Injector);
+  private dialogOnItsWay = false;
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   /** Present over the notebook page: flushed before saving, reopened after a restore. */
@@ -203,11 +204,17 @@ export class VersionBar {
    * person is told and null is returned.
    */
   private async openDialog<C, D, R>(load: () => Promise<ComponentType<C>>, config: MatDialogConfig<D>): Promise<MatDialogRef<C, R> | null> {
+    // A second click while the first dialog's code is on its way opens nothing more (an open dialog
+    // covers the bar itself).
+    if (this.dialogOnItsWay) return null;
+    this.dialogOnItsWay = true;
     try {
       return await openLazyDialog<C, D, R>(this.injector, load, config);
     } catch {
       this.notifier.problem(DIALOG_NOT_LOADED);
       return null;
+    } finally {
+      this.dialogOnItsWay = false;
     }
   }
 }
