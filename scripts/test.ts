@@ -12,7 +12,7 @@
 import { spawn } from 'node:child_process';
 import { startTestStack, type TestStack } from './lib/stack';
 import { NG, ROOT, TSX, VITEST, WEB_DIST, webBuildIsCurrent } from './lib/paths';
-import { addPreloads } from './lib/web-build';
+import { finishWebBuild, WEB_BUILD_ENV } from './lib/web-build';
 
 const PHASES = ['unit', 'api', 'web', 'e2e'] as const;
 type Phase = (typeof PHASES)[number];
@@ -63,8 +63,8 @@ async function main(): Promise<void> {
   if (phases.has('e2e')) {
     if (!webBuildIsCurrent()) {
       log('building the web app for the browser tests …');
-      if (!(await run('build', NG, ['build', 'web'], base))) return;
-      addPreloads(WEB_DIST);
+      if (!(await run('build', NG, ['build', 'web'], { ...base, ...WEB_BUILD_ENV }))) return;
+      finishWebBuild(WEB_DIST);
     }
     await stack!.startServer();
     await run('e2e', VITEST, ['run', '--project', 'e2e', ...fileFilters], stack!.env);

@@ -1,15 +1,22 @@
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
-import { addPreloads } from './web-build';
+import { addPreloads, finishWebBuild, nameMainByContent } from './web-build';
 
-let dist = '';
-afterEach(() => rmSync(dist, { recursive: true, force: true }));
+const made: string[] = [];
+afterEach(() => {
+  for (const dir of made.splice(0)) rmSync(dir, { recursive: true, force: true });
+});
+function tempDir(): string {
+  const dir = mkdtempSync(path.join(tmpdir(), 'web-build-'));
+  made.push(dir);
+  return dir;
+}
 
 /** A built app in the shape esbuild writes it: main imports two chunks, one of which imports a third. */
 function builtApp(): string {
-  dist = mkdtempSync(path.join(tmpdir(), 'web-build-'));
+  const dist = tempDir();
   const files: Record<string, string> = {
     'main-M.js': 'import{a as x}from"./chunk-A.js";import"./chunk-B.js";const r=()=>import("./chunk-P.js");',
     'chunk-A.js': 'import{c}from"./chunk-C.js";export{c as a};',
@@ -60,5 +67,56 @@ describe('addPreloads', () => {
     expect(JSON.parse(kinds![1]!)).toEqual(result.kinds);
     addPreloads(dir);
     expect(readFileSync(path.join(dir, 'index.html'), 'utf8')).toBe(once);
+  });
+});
+
+/**
+ * A built app in the shape Angular's chunk optimizer (rolldown) leaves it: chunks named in base 64 for
+ * URLs, selectors in backquotes, and the chunks importing what they share from main.
+ */
+function optimizedApp(): string {
+  const dist = tempDir();
+  const files: Record<string, string> = {
+    'main-OLDNAME1.js': 'var core=1;export{core as c};const r=()=>import(`./chunk-Pa_ge-1x.js`);',
+    'main-OLDNAME1.js.map': '{"file":"main-OLDNAME1.js"}',
+    'chunk-Pa_ge-1x.js': 'import{c}from"./main-OLDNAME1.js";import{f}from"./chunk--fLow_2.js";var s={selectors:[[`lam-notebook-page`]]};const q=()=>import(`./chunk-qLead-E0.js`);',
+    'chunk--fLow_2.js': 'import{c}from"./main-OLDNAME1.js";var s={selectors:[[`lam-flow-cell`]]};export const f=1;',
+    'chunk-qLead-E0.js': 'import{c}from"./main-OLDNAME1.js";var s={selectors:[[`lam-leading-edge-cell`]]};',
+  };
+  for (const [file, text] of Object.entries(files)) writeFileSync(path.join(dist, file), text);
+  writeFileSync(path.join(dist, 'index.html'), '<!doctype html><html><head><title>t</title></head><body><lam-root></lam-root><script src="main-OLDNAME1.js" type="module"></script></body></html>');
+  return dist;
+}
+
+describe('finishWebBuild', () => {
+  it('names main after its content, rewrites every script that imports it, and finds the notebook and kinds by backquoted selectors', () => {
+    const dir = optimizedApp();
+    finishWebBuild(dir);
+    const mains = readdirSync(dir).filter((f) => /^main-.*\.js$/.test(f));
+    expect(mains).toHaveLength(1);
+    const main = mains[0]!;
+    expect(main).toMatch(/^main-[A-Z2-7]{8}\.js$/);
+    expect(main).not.toBe('main-OLDNAME1.js');
+    expect(existsSync(path.join(dir, `${main}.map`))).toBe(true);
+    for (const file of readdirSync(dir)) expect(readFileSync(path.join(dir, file), 'utf8')).not.toContain('OLDNAME1');
+    expect(readFileSync(path.join(dir, 'chunk-qLead-E0.js'), 'utf8')).toContain(`from"./${main}"`);
+    const html = readFileSync(path.join(dir, 'index.html'), 'utf8');
+    expect(html).toContain(`<script src="${main}" type="module">`);
+    const list = /<script type="application\/json" id="lam-study-code">(.*?)<\/script>/.exec(html);
+    expect(new Set(JSON.parse(list![1]!))).toEqual(new Set(['chunk-Pa_ge-1x.js', 'chunk--fLow_2.js']));
+    const kinds = /<script type="application\/json" id="lam-kind-code">(.*?)<\/script>/.exec(html);
+    expect(JSON.parse(kinds![1]!)).toEqual({ 'leading-edge': ['chunk-qLead-E0.js'] });
+    // Again: the same name, nothing rewritten.
+    const files = Object.fromEntries(readdirSync(dir).map((f) => [f, readFileSync(path.join(dir, f), 'utf8')]));
+    expect(nameMainByContent(dir)).toBe(main);
+    finishWebBuild(dir);
+    expect(Object.fromEntries(readdirSync(dir).map((f) => [f, readFileSync(path.join(dir, f), 'utf8')]))).toEqual(files);
+  });
+
+  it('gives two different mains two different names', () => {
+    const first = nameMainByContent(optimizedApp());
+    const other = optimizedApp();
+    writeFileSync(path.join(other, 'main-OLDNAME1.js'), 'var core=2;export{core as c};');
+    expect(nameMainByContent(other)).not.toBe(first);
   });
 });

@@ -1,17 +1,75 @@
 import { spawnSync } from 'node:child_process';
-import { readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { existsSync, readFileSync, readdirSync, renameSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { NG, ROOT, WEB_DIST } from './paths';
 
 /**
- * Builds the web app (`ng build web`) and then names, in its index.html, the code a first screen needs
- * so the browser asks for it at once (`addPreloads`). Returns whether the build succeeded.
+ * Builds the web app (`ng build web` with WEB_BUILD_ENV) and then names main by its content and, in
+ * index.html, the code a first screen needs so the browser asks for it at once (`finishWebBuild`).
+ * Returns whether the build succeeded.
  */
 export function buildWeb(env: NodeJS.ProcessEnv = process.env): boolean {
-  const build = spawnSync(NG, ['build', 'web'], { cwd: ROOT, stdio: 'inherit', env });
+  const build = spawnSync(NG, ['build', 'web'], { cwd: ROOT, stdio: 'inherit', env: { ...env, ...WEB_BUILD_ENV } });
   if (build.status !== 0) return false;
-  addPreloads(WEB_DIST);
+  finishWebBuild(WEB_DIST);
   return true;
+}
+
+/**
+ * What every build of the web app runs with. Angular's chunk optimizer (NG_BUILD_OPTIMIZE_CHUNKS, rolldown
+ * over esbuild's output) merges the many small shared chunks esbuild splits the code into at each lazy
+ * import: the first screen of a study went from 63 scripts to 38 (issue 15; a cold open fetches them over
+ * six HTTP/1.1 connections).
+ */
+export const WEB_BUILD_ENV: Readonly<Record<string, string>> = { NG_BUILD_OPTIMIZE_CHUNKS: '1' };
+
+/** After `ng build web`: main named by its content, then the first screens' code named in index.html. */
+export function finishWebBuild(dist: string): void {
+  nameMainByContent(dist);
+  addPreloads(dist);
+}
+
+/**
+ * Renames main-*.js after a hash of what it holds, rewriting the scripts that import it and index.html.
+ * esbuild names main before the chunk optimizer rewrites it, so the same sources built with and without
+ * the optimizer give two different files of one name; browsers keep the app's hashed files a year
+ * without asking again. Chunks keep their names: each one's already covers its own code and main's
+ * esbuild name. Running it again changes nothing.
+ */
+export function nameMainByContent(dist: string): string {
+  const indexFile = path.join(dist, 'index.html');
+  const html = readFileSync(indexFile, 'utf8');
+  const current = /<script src="(main-[\w-]+)\.js" type="module">/.exec(html)?.[1];
+  if (!current) throw new Error(`${indexFile} names no main script`);
+  const text = readFileSync(path.join(dist, `${current}.js`));
+  const named = `main-${base32(createHash('sha256').update(text).digest()).slice(0, 8)}`;
+  if (named === current) return `${named}.js`;
+  renameSync(path.join(dist, `${current}.js`), path.join(dist, `${named}.js`));
+  if (existsSync(path.join(dist, `${current}.js.map`))) renameSync(path.join(dist, `${current}.js.map`), path.join(dist, `${named}.js.map`));
+  for (const file of readdirSync(dist).filter((f) => f.endsWith('.js') || f.endsWith('.js.map') || f === 'index.html')) {
+    const before = readFileSync(path.join(dist, file), 'utf8');
+    const after = before.replaceAll(`${current}.js`, `${named}.js`);
+    if (after !== before) writeFileSync(path.join(dist, file), after);
+  }
+  return `${named}.js`;
+}
+
+/** RFC 4648 base 32 (A–Z, 2–7), the alphabet of esbuild's hashes. */
+function base32(bytes: Uint8Array): string {
+  const alphabet = 'ABCDEFGHIJKLMNOPQRSTUVWXYZ234567';
+  let out = '';
+  let bits = 0;
+  let value = 0;
+  for (const byte of bytes) {
+    value = (value << 8) | byte;
+    bits += 8;
+    while (bits >= 5) {
+      out += alphabet[(value >>> (bits - 5)) & 31];
+      bits -= 5;
+    }
+  }
+  return out;
 }
 
 /** The built scripts a built script imports statically (esbuild's output: `import … from "./chunk-X.js"`). */
@@ -40,12 +98,13 @@ export function closure(scripts: ReadonlyMap<string, { imports: readonly string[
 }
 
 /**
- * The notebook page's component (its selector as the compiler writes it). The bodies of the kinds a study
- * opens with are among its static imports; the others are fetched when a cell of their kind is drawn.
+ * The notebook page's component (its selector as the compiler writes it, in double quotes, or in
+ * backquotes once the chunk optimizer has rewritten it). The bodies of the kinds a study opens with are
+ * among its static imports; the others are fetched when a cell of their kind is drawn.
  */
-const NOTEBOOK_ROOT = /selectors:\[\["lam-notebook-page"\]\]/;
+const NOTEBOOK_ROOT = /selectors:\[\[(["`])lam-notebook-page\1\]\]/;
 /** A cell body's component, by the stem of its selector. */
-const KIND_ROOT = /selectors:\[\["lam-([a-z-]+)-cell"\]\]/g;
+const KIND_ROOT = /selectors:\[\[(["`])lam-([a-z-]+)-cell\1\]\]/g;
 
 /**
  * Without these hints a cold open fetches its code in rounds, one per level of imports: Angular's build
@@ -72,7 +131,7 @@ export function addPreloads(dist: string): { initial: string[]; notebook: string
   const kinds: Record<string, string[]> = {};
   for (const [file, script] of scripts) {
     if (withPage.has(file)) continue;
-    for (const m of script.text.matchAll(KIND_ROOT)) kinds[m[1]!] = closure(scripts, [file], withPage);
+    for (const m of script.text.matchAll(KIND_ROOT)) kinds[m[2]!] = closure(scripts, [file], withPage);
   }
 
   const linked = new Set([...html.matchAll(/<link rel="modulepreload" href="([\w-]+\.js)"/g)].map((m) => m[1]!));

@@ -33,7 +33,7 @@ import { devMailRouter } from './mail/dev-routes';
 import { methodsRouter } from './methods/routes';
 import { openapiRouter } from './openapi/routes';
 import { bearerAuth } from './tokens/bearer';
-import { compressedFiles } from './web-static/compressed-files';
+import { compressedFiles, HASHED_NAME } from './web-static/compressed-files';
 
 export interface AppDeps {
   config: Config;
@@ -45,9 +45,6 @@ export interface AppDeps {
   /** The job queue (pg-boss, started by the owner) and the ear on the workers' notices. */
   jobs: { boss: PgBoss; events: JobEvents };
 }
-
-/** A built file named with its content hash (`chunk-2LGABYPY.js`, `media/Lato-latin-400-3JH3X7QK.woff2`). */
-const HASHED_FILE = /-[A-Z0-9]{8}\.[a-z0-9]+$/;
 
 /**
  * Builds the Express app without listening, so tests mount it with supertest. main.ts starts it.
@@ -106,7 +103,7 @@ export function createApp(deps: AppDeps): Express {
     appFiles.use(
       express.static(web, {
         index: false,
-        setHeaders: (res, file) => res.setHeader('cache-control', HASHED_FILE.test(path.basename(file)) ? 'public, max-age=31536000, immutable' : 'no-cache'),
+        setHeaders: (res, file) => res.setHeader('cache-control', HASHED_NAME.test(path.basename(file)) ? 'public, max-age=31536000, immutable' : 'no-cache'),
       }),
     );
     appFiles.get(/^\/(?!api\/|auth\/).*/, (_req, res) => {

@@ -20,6 +20,8 @@ beforeAll(async () => {
   const web = mkdtempSync(path.join(tmpdir(), 'laminote-web-'));
   writeFileSync(path.join(web, 'index.html'), '<!doctype html><title>Laminote</title><lam-root></lam-root>');
   writeFileSync(path.join(web, 'chunk-2LGABYPY.js'), script);
+  writeFileSync(path.join(web, 'chunk--jPw_8K-.js'), script);
+  writeFileSync(path.join(web, 'favicon.svg'), '<svg xmlns="http://www.w3.org/2000/svg"/>');
   t = await createTestApp({ WEB_DIST: web }, { worker: false });
 });
 afterAll(async () => t?.close());
@@ -56,6 +58,20 @@ describe('the web app’s files', () => {
     const gzipped = await request(t.app).get('/chunk-2LGABYPY.js').set('accept-encoding', 'gzip').expect(200);
     expect(gzipped.headers['content-encoding']).toBe('gzip');
     expect(gzipped.text).toBe(script);
+  });
+
+  it('keeps the chunk optimizer’s names (base 64 for URLs) a year too, and a file named without a hash asks again', async () => {
+    let res = await request(t.app).get('/chunk--jPw_8K-.js').set('accept-encoding', 'gzip').expect(200);
+    for (let tries = 0; tries < 50 && res.headers['transfer-encoding'] !== undefined; tries++) {
+      await new Promise((resolve) => setTimeout(resolve, 20));
+      res = await request(t.app).get('/chunk--jPw_8K-.js').set('accept-encoding', 'gzip').expect(200);
+    }
+    expect(res.headers['transfer-encoding']).toBeUndefined();
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(res.headers['content-encoding']).toBe('gzip');
+    expect(res.text).toBe(script);
+    const icon = await request(t.app).get('/favicon.svg').expect(200);
+    expect(icon.headers['cache-control']).toBe('no-cache');
   });
 
   it('answers an address of the app with index.html, asked for again every time', async () => {

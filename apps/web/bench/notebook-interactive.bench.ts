@@ -76,7 +76,7 @@ function readChunks(): Map<string, Chunk> {
   for (const file of readdirSync(DIST).filter((f) => f.endsWith('.js'))) {
     const buffer = readFileSync(path.join(DIST, file));
     const text = buffer.toString('utf8');
-    const dynamicImports = [...text.matchAll(/import\(\s*["']\.\/([\w-]+\.js)["']\s*\)/g)].map((m) => m[1]!);
+    const dynamicImports = [...text.matchAll(/import\(\s*(["'`])\.\/([\w-]+\.js)\1\s*\)/g)].map((m) => m[2]!);
     chunks.set(file, { file, bytes: buffer.length, gzip: gzipSync(buffer).length, imports: staticImportsOf(text), dynamicImports, text });
   }
   return chunks;

@@ -15,8 +15,14 @@ import type { RequestHandler } from 'express';
  * the ordinary path (compressed on the fly) and lose nothing.
  */
 
-/** `name-HASH8.ext`, as the Angular build names every file it hashes. */
-const HASHED = /^\/([\w.-]+-[A-Z0-9]{8}\.(?:js|css|svg|json|txt|map))$/;
+/**
+ * A file named after its content: `name-HASH8.ext` as esbuild names what the Angular build hashes (base
+ * 32, upper case), or `chunk-hash8.js` as the chunk optimizer (rolldown) names its chunks (base 64 for
+ * URLs: letters of both cases, digits, `-` and `_`).
+ */
+export const HASHED_NAME = /^(?:[\w.-]+-[A-Z0-9]{8}|chunk-[\w-]{8})\.[a-z0-9]+$/;
+/** A request for such a file, of a kind compressed here. */
+const HASHED = /^\/((?:[\w.-]+-[A-Z0-9]{8}|chunk-[\w-]{8})\.(?:js|css|svg|json|txt|map))$/;
 const brotli = promisify(zlib.brotliCompress);
 const gzip = promisify(zlib.gzip);
 
