@@ -110,9 +110,10 @@ function bundleReport(): { plotChunks: Set<string>; firstScreenGzip: number; zod
   const notebookRoot = [...chunks.values()].find((c) => c.text.includes('lam-notebook-page'))?.file;
   if (!notebookRoot) throw new Error('no chunk holds the notebook page');
   const notebook = closureSet(chunks, [notebookRoot], initial);
-  // angular-plotly.js's component (its selector as the compiler writes it; the app's own plot wrapper names
-  // the graph's class, js-plotly-plot, and comes with the bodies) and plotly.js itself.
-  const plotRoots = [...chunks.values()].filter((c) => c.text.includes('selectors:[["plotly-plot"]]') || /plotly\.js v\d|Plotly\.version|plotly\.js-style-/.test(c.text)).map((c) => c.file);
+  // angular-plotly.js's component (its selector as the compiler writes it, in double quotes or, after the
+  // chunk optimizer, backquotes; the app's own plot wrapper names the graph's class, js-plotly-plot, and
+  // comes with the bodies) and plotly.js itself.
+  const plotRoots = [...chunks.values()].filter((c) => /selectors:\[\[(["`])plotly-plot\1\]\]/.test(c.text) || /plotly\.js v\d|Plotly\.version|plotly\.js-style-/.test(c.text)).map((c) => c.file);
   const plot = closureSet(chunks, plotRoots, new Set([...initial, ...notebook]));
   // Lazy: outside the first screen's static imports, and fetched by a dynamic import (from the notebook
   // or from a cell body the notebook defers).
