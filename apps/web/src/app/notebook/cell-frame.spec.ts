@@ -1,4 +1,4 @@
-import { TestBed } from '@angular/core/testing';
+import { DeferBlockBehavior, DeferBlockState, TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import type { DraftCell } from '@laminote/contracts';
 import { beforeEach, describe, expect, it } from 'vitest';
@@ -118,5 +118,35 @@ describe('CellFrame', () => {
     expect(await harness.getTitle()).toBe('Cruise');
     expect(await harness.hasActions()).toBe(false);
     expect(await harness.canRun()).toBe(false);
+  });
+});
+
+describe('CellFrame, when code fetched on first use does not load', () => {
+  beforeEach(async () => {
+    // The deferred blocks are put in each state by the test (DeferBlockFixture.render).
+    TestBed.configureTestingModule({ imports: [CellFrame], providers: provideTestApp(), deferBlockBehavior: DeferBlockBehavior.Manual });
+    await TestBed.compileComponents();
+  });
+
+  it('keeps the run state’s icon in place of the spinner and says the comments could not be shown', async () => {
+    const fixture = TestBed.createComponent(CellFrame);
+    fixture.componentRef.setInput('cell', cell('analysis', FLOW_ID, { title: 'Free transition' }));
+    fixture.componentRef.setInput('index', 0);
+    fixture.componentRef.setInput('count', 1);
+    fixture.componentRef.setInput('editable', true);
+    fixture.componentRef.setInput('mayRun', true);
+    fixture.componentRef.setInput('running', true);
+    fixture.detectChanges();
+    const element = fixture.nativeElement as HTMLElement;
+    // In template order: the running spinner, the comment button, the comments.
+    const [spinner, , comments] = await fixture.getDeferBlocks();
+    await spinner!.render(DeferBlockState.Error);
+    await comments!.render(DeferBlockState.Error);
+    expect(element.querySelector('.run-state mat-icon')?.textContent?.trim()).toBeTruthy();
+    expect(element.querySelector('mat-spinner')).toBeNull();
+    expect(element.querySelector('.run-state-label')?.textContent).toContain('Computing');
+    expect(element.querySelector('.lam-load-failed')?.textContent).toContain(
+      'The comments on this cell could not be shown: their code did not load. Reload the page to see them.',
+    );
   });
 });

@@ -1,4 +1,4 @@
-import { TestBed } from '@angular/core/testing';
+import { DeferBlockBehavior, DeferBlockState, TestBed } from '@angular/core/testing';
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestKey } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
@@ -10,6 +10,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, STUDY_ID, me, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
 import { AUTOSAVE_DELAY_MS } from '../shared/draft-session';
+import { BranchJobs } from './branch-jobs';
 import { NotebookPage } from './notebook-page';
 import { CellFrameHarness } from './testing/cell-frame-harness';
 import { ANALYSIS_ID, BRANCH_ID, FLOW_ID, NOTE_ID, PRESSURE_ID, cell, draft } from '../../testing/notebook-fixtures';
@@ -350,4 +351,48 @@ describe('NotebookPage', () => {
       expect(await (await loader.getHarness(MatInputHarness.with({ selector: 'textarea' }))).isDisabled()).toBe(true);
     });
   }
+});
+
+describe('NotebookPage, when code fetched on first use does not load', () => {
+  beforeEach(async () => {
+    TestBed.configureTestingModule({
+      imports: [NotebookPage],
+      providers: [...provideTestApp(), { provide: PLOT_RENDERER, useValue: () => new Promise<never>(() => undefined) }],
+      // The deferred blocks are put in each state by the test (DeferBlockFixture.render).
+      deferBlockBehavior: DeferBlockBehavior.Manual,
+    });
+    await TestBed.compileComponents();
+  });
+
+  it('says so in place of a run’s progress and of the recently removed cells', async () => {
+    await signInAs(asRole('engineer'));
+    const fixture = TestBed.createComponent(NotebookPage);
+    fixture.componentRef.setInput('studyId', STUDY_ID);
+    fixture.detectChanges();
+    const removed = { cellId: NOTE_ID, kind: 'note' as const, title: 'Old note', collapsed: false, inputs: {}, deletedAt: '2026-03-03T11:00:00.000Z', deletedBy: null };
+    TestBed.inject(HttpTestingController)
+      .expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}/opening` })
+      .flush({ study: study(), branches: [branch], draft: { ...stack(), trash: [removed] } });
+    await fixture.whenStable();
+    fixture.debugElement.injector.get(BranchJobs).add({
+      jobId: '11111111-2222-4333-8444-5555555555aa',
+      branchId: BRANCH_ID,
+      studyId: STUDY_ID,
+      state: 'running',
+      done: 1,
+      total: 10,
+      cells: [{ cellId: ANALYSIS_ID, kind: 'analysis', done: 1, total: 10 }],
+      createdAt: '2026-03-03T11:05:00.000Z',
+      finishedAt: null,
+      createdBy: null,
+    });
+    fixture.detectChanges();
+    // Every deferred block that has words for a failed load shows them (the others show nothing).
+    for (const block of await fixture.getDeferBlocks()) await block.render(DeferBlockState.Error).catch(() => undefined);
+    const said = Array.from((fixture.nativeElement as HTMLElement).querySelectorAll('.lam-load-failed[role="alert"]'), (p) => p.textContent?.trim());
+    expect(said).toEqual([
+      'A run is under way, but its progress could not be shown: its code did not load. Reload the page to follow it or stop it.',
+      'The recently removed cells could not be listed: their code did not load. Reload the page to see them.',
+    ]);
+  });
 });
