@@ -14,15 +14,18 @@ function tempDir(): string {
   return dir;
 }
 
-/** A built app in the shape esbuild writes it: main imports two chunks, one of which imports a third. */
+/**
+ * A built app in the shape esbuild writes it: main imports two chunks, one of which imports a third, and
+ * the notebook page, which comes with main.
+ */
 function builtApp(): string {
   const dist = tempDir();
   const files: Record<string, string> = {
-    'main-M.js': 'import{a as x}from"./chunk-A.js";import"./chunk-B.js";const r=()=>import("./chunk-P.js");',
+    'main-M.js': 'import{a as x}from"./chunk-A.js";import"./chunk-B.js";import{p}from"./chunk-P.js";',
     'chunk-A.js': 'import{c}from"./chunk-C.js";export{c as a};',
     'chunk-B.js': 'export const b=1;',
     'chunk-C.js': 'export const c=1;',
-    // The notebook page (lazy) with a cell body it draws itself, a chunk of their own and one shared with main.
+    // The notebook page with a cell body it draws itself, a chunk of its own and one shared with main.
     'chunk-P.js':
       'import{d}from"./chunk-D.js";import{a}from"./chunk-A.js";import{f}from"./chunk-F.js";var s={selectors:[["lam-notebook-page"]]};const p=()=>import("./chunk-L.js");const q=()=>import("./chunk-Q.js");',
     'chunk-F.js': 'import{d}from"./chunk-D.js";var s={selectors:[["lam-flow-cell"]]};export const f=1;',
@@ -43,24 +46,20 @@ function builtApp(): string {
 }
 
 describe('addPreloads', () => {
-  it('names every script main imports and lists the notebook code beyond it, and each lazily fetched kind’s, once however often it runs', () => {
+  it('names every script main imports and lists each lazily fetched kind’s scripts beyond them, once however often it runs', () => {
     const dir = builtApp();
     const result = addPreloads(dir);
-    expect(new Set(result.initial)).toEqual(new Set(['scripts-S.js', 'main-M.js', 'chunk-A.js', 'chunk-B.js', 'chunk-C.js']));
-    expect(new Set(result.notebook)).toEqual(new Set(['chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
+    expect(new Set(result.initial)).toEqual(new Set(['scripts-S.js', 'main-M.js', 'chunk-A.js', 'chunk-B.js', 'chunk-C.js', 'chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
     const once = readFileSync(path.join(dir, 'index.html'), 'utf8');
     const preloaded = [...once.matchAll(/<link rel="modulepreload" href="([\w-]+\.js)">/g)].map((m) => m[1]);
-    expect(preloaded.sort()).toEqual(['chunk-A.js', 'chunk-B.js', 'chunk-C.js']);
-    const list = /<script type="application\/json" id="lam-study-code">(.*?)<\/script>/.exec(once);
-    expect(new Set(JSON.parse(list![1]!))).toEqual(new Set(['chunk-P.js', 'chunk-F.js', 'chunk-D.js']));
-    // The global scripts (early-reads.js) run from the head, not deferred, after the lists they read.
+    expect(preloaded.sort()).toEqual(['chunk-A.js', 'chunk-B.js', 'chunk-C.js', 'chunk-D.js', 'chunk-F.js', 'chunk-P.js']);
+    // The global scripts (early-reads.js) run from the head, not deferred, after the list they read.
     expect(once).toContain('<script src="scripts-S.js"></script></head>');
     expect(once).not.toContain('defer');
-    expect(once.indexOf('lam-study-code')).toBeLessThan(once.indexOf('<script src="scripts-S.js"'));
     expect(once.indexOf('lam-kind-code')).toBeLessThan(once.indexOf('<script src="scripts-S.js"'));
     // The app's own script stays last, after every modulepreload link.
     expect(once.lastIndexOf('modulepreload')).toBeLessThan(once.indexOf('<script src="main-M.js"'));
-    // The body fetched on first use: its scripts beyond the page's, by the stem of its selector.
+    // The body fetched on first use: its scripts beyond main's, by the stem of its selector.
     expect(result.kinds).toEqual({ 'leading-edge': expect.arrayContaining(['chunk-Q.js', 'chunk-E.js']) });
     expect(result.kinds['leading-edge']).toHaveLength(2);
     const kinds = /<script type="application\/json" id="lam-kind-code">(.*?)<\/script>/.exec(once);
@@ -77,7 +76,7 @@ describe('addPreloads', () => {
 function optimizedApp(): string {
   const dist = tempDir();
   const files: Record<string, string> = {
-    'main-OLDNAME1.js': 'var core=1;export{core as c};const r=()=>import(`./chunk-Pa_ge-1x.js`);',
+    'main-OLDNAME1.js': 'import{p}from"./chunk-Pa_ge-1x.js";var core=1;export{core as c};',
     'main-OLDNAME1.js.map': '{"file":"main-OLDNAME1.js"}',
     'chunk-Pa_ge-1x.js': 'import{c}from"./main-OLDNAME1.js";import{f}from"./chunk--fLow_2.js";var s={selectors:[[`lam-notebook-page`]]};const q=()=>import(`./chunk-qLead-E0.js`);',
     'chunk--fLow_2.js': 'import{c}from"./main-OLDNAME1.js";var s={selectors:[[`lam-flow-cell`]]};export const f=1;',
@@ -89,7 +88,7 @@ function optimizedApp(): string {
 }
 
 describe('finishWebBuild', () => {
-  it('names main after its content, rewrites every script that imports it, and finds the notebook and kinds by backquoted selectors', () => {
+  it('names main after its content, rewrites every script that imports it, and finds the kinds by backquoted selectors', () => {
     const dir = optimizedApp();
     finishWebBuild(dir);
     const mains = readdirSync(dir).filter((f) => /^main-.*\.js$/.test(f));
@@ -102,8 +101,8 @@ describe('finishWebBuild', () => {
     expect(readFileSync(path.join(dir, 'chunk-qLead-E0.js'), 'utf8')).toContain(`from"./${main}"`);
     const html = readFileSync(path.join(dir, 'index.html'), 'utf8');
     expect(html).toContain(`<script src="${main}" type="module">`);
-    const list = /<script type="application\/json" id="lam-study-code">(.*?)<\/script>/.exec(html);
-    expect(new Set(JSON.parse(list![1]!))).toEqual(new Set(['chunk-Pa_ge-1x.js', 'chunk--fLow_2.js']));
+    expect(html).toContain('<link rel="modulepreload" href="chunk-Pa_ge-1x.js">');
+    expect(html).toContain('<link rel="modulepreload" href="chunk--fLow_2.js">');
     const kinds = /<script type="application\/json" id="lam-kind-code">(.*?)<\/script>/.exec(html);
     expect(JSON.parse(kinds![1]!)).toEqual({ 'leading-edge': ['chunk-qLead-E0.js'] });
     // Again: the same name, nothing rewritten.

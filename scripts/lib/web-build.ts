@@ -98,52 +98,42 @@ export function closure(scripts: ReadonlyMap<string, { imports: readonly string[
 }
 
 /**
- * The notebook page's component (its selector as the compiler writes it, in double quotes, or in
- * backquotes once the chunk optimizer has rewritten it). The bodies of the kinds a study opens with are
- * among its static imports; the others are fetched when a cell of their kind is drawn.
+ * A cell body's component, by the stem of its selector (as the compiler writes it, in double quotes, or in
+ * backquotes once the chunk optimizer has rewritten it).
  */
-const NOTEBOOK_ROOT = /selectors:\[\[(["`])lam-notebook-page\1\]\]/;
-/** A cell body's component, by the stem of its selector. */
 const KIND_ROOT = /selectors:\[\[(["`])lam-([a-z-]+)-cell\1\]\]/g;
 
 /**
  * Without these hints a cold open fetches its code in rounds, one per level of imports: Angular's build
  * names at most 10 of the initial scripts in index.html (main's own imports beyond them are found when
- * main arrives), and the notebook's page with its cell bodies and the shared code they import come a
- * level at a time after main has run. Here index.html gets a modulepreload link for every script main
- * imports, and, for a study's address (early-reads.js reads it), the list of the notebook's scripts
- * beyond those, so all of them are asked for at once; and the scripts of each cell kind fetched on first
+ * main arrives). Here index.html gets a modulepreload link for every script main imports (the notebook
+ * page comes with main: app-routes.ts), and the list of the scripts of each cell kind fetched on first
  * use, which early-reads.js asks for once the draft says which kinds the study has. Running it again
  * changes nothing.
  */
-export function addPreloads(dist: string): { initial: string[]; notebook: string[]; kinds: Record<string, string[]> } {
+export function addPreloads(dist: string): { initial: string[]; kinds: Record<string, string[]> } {
   const indexFile = path.join(dist, 'index.html');
   let html = readFileSync(indexFile, 'utf8');
   const scripts = staticImports(dist);
   const entries = [...html.matchAll(/<script src="([\w-]+\.js)"[^>]*>/g)].map((m) => m[1]!);
   const initial = closure(scripts, entries);
   const initialSet = new Set(initial);
-  const roots = [...scripts].filter(([, s]) => NOTEBOOK_ROOT.test(s.text)).map(([file]) => file);
-  const notebook = closure(scripts, roots, initialSet);
-  // The bodies fetched on first use (CELL_BODIES' LoadedBody): each kind's scripts beyond the above, by
-  // the stem of its selector (lam-leading-edge-cell: "leading-edge").
-  const withPage = new Set([...initial, ...notebook]);
+  // The bodies fetched on first use (CELL_BODIES' LoadedBody): each kind's scripts beyond main's, by the
+  // stem of its selector (lam-leading-edge-cell: "leading-edge").
   const kinds: Record<string, string[]> = {};
   for (const [file, script] of scripts) {
-    if (withPage.has(file)) continue;
-    for (const m of script.text.matchAll(KIND_ROOT)) kinds[m[2]!] = closure(scripts, [file], withPage);
+    if (initialSet.has(file)) continue;
+    for (const m of script.text.matchAll(KIND_ROOT)) kinds[m[2]!] = closure(scripts, [file], initialSet);
   }
 
   const linked = new Set([...html.matchAll(/<link rel="modulepreload" href="([\w-]+\.js)"/g)].map((m) => m[1]!));
   const links = initial.filter((file) => !linked.has(file) && !entries.includes(file)).map((file) => `<link rel="modulepreload" href="${file}">`);
-  const list =
-    `<script type="application/json" id="lam-study-code">${JSON.stringify(notebook)}</script>` +
-    `<script type="application/json" id="lam-kind-code">${JSON.stringify(kinds)}</script>`;
-  html = html.replace(/<script type="application\/json" id="lam-(?:study|kind)-code">.*?<\/script>/g, '');
-  // The global scripts bundle (early-reads.js) goes into the head, after the style sheet and the lists it
+  const list = `<script type="application/json" id="lam-kind-code">${JSON.stringify(kinds)}</script>`;
+  html = html.replace(/<script type="application\/json" id="lam-kind-code">.*?<\/script>/g, '');
+  // The global scripts bundle (early-reads.js) goes into the head, after the style sheet and the list it
   // reads, as a plain script rather than Angular's deferred one at the end of the body: it then runs as
-  // soon as the style sheet has loaded, and the first reads leave before the dozens of scripts the body
-  // names (a deferred script runs once the body is parsed, and is fetched at low priority behind them).
+  // soon as the style sheet has loaded, and the first reads leave before the scripts the body names (a
+  // deferred script runs once the body is parsed, and is fetched at low priority behind them).
   const global = /<script src="(scripts-[\w-]+\.js)"(?: defer)?><\/script>/.exec(html);
   if (global) {
     html = html.replace(global[0], '');
@@ -156,5 +146,5 @@ export function addPreloads(dist: string): { initial: string[]; notebook: string
   if (firstScript < 0) throw new Error(`${indexFile} names no script`);
   html = `${html.slice(0, firstScript)}${links.join('')}${global ? '' : list}${html.slice(firstScript)}`;
   writeFileSync(indexFile, html);
-  return { initial, notebook, kinds };
+  return { initial, kinds };
 }

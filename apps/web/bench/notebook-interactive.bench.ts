@@ -124,7 +124,11 @@ function bundleReport(): { plotChunks: Set<string>; firstScreenGzip: number; zod
   const p = total(chunks, plot);
   out('Built app (dist/web/browser), raw / gzip:');
   out(`  initial JS (main + static imports, ${initial.size} files)     ${kb(i.bytes)} / ${kb(i.gzip)}`);
-  out(`  notebook route (${notebook.size} more files)                     ${kb(n.bytes)} / ${kb(n.gzip)}`);
+  out(
+    initial.has(notebookRoot)
+      ? `  notebook page: comes with main (${notebook.size} more files)`
+      : `  notebook route (${notebook.size} more files)                     ${kb(n.bytes)} / ${kb(n.gzip)}`,
+  );
   out(`  first screen of a study without the plot chunk          ${kb(i.bytes + n.bytes)} / ${kb(i.gzip + n.gzip)}`);
   out(`  lazy plot chunk (plotly.js cartesian + angular-plotly.js, ${plot.size} files) ${kb(p.bytes)} / ${kb(p.gzip)}`);
   out(`  first screen with the plot chunk                         ${kb(i.bytes + n.bytes + p.bytes)} / ${kb(i.gzip + n.gzip + p.gzip)}`);

@@ -86,12 +86,6 @@
           if (person) readStudy();
         })
         .catch(function () {});
-    // The notebook's code beyond main's (its page, the bodies of the kinds a study opens with and what
-    // they import), listed in index.html by the build (scripts/lib/web-build.ts): asked for now, all at
-    // once, rather than a level of imports at a time once main has run.
-    try {
-      preload(listed('lam-study-code'));
-    } catch (e) {}
   }
   // The first screen's other fonts (the bold of the titles and the icons): a browser asks for a font
   // only when styled text first needs it, which on a study is half a second after this point. The
