@@ -20,7 +20,8 @@ export function buildWeb(env: NodeJS.ProcessEnv = process.env): boolean {
  * What every build of the web app runs with. Angular's chunk optimizer (NG_BUILD_OPTIMIZE_CHUNKS, rolldown
  * over esbuild's output) merges the many small shared chunks esbuild splits the code into at each lazy
  * import: the first screen of a study went from 63 scripts to 38 (issue 15; a cold open fetches them over
- * six HTTP/1.1 connections).
+ * six HTTP/1.1 connections), and to 2 once the notebook page came with main (app-routes.ts). It also
+ * merges the chunks of each page and body fetched on first use.
  */
 export const WEB_BUILD_ENV: Readonly<Record<string, string>> = { NG_BUILD_OPTIMIZE_CHUNKS: '1' };
 
