@@ -20,9 +20,10 @@ import type { RequestHandler } from 'express';
  * 32, upper case), or `chunk-hash8.js` as the chunk optimizer (rolldown) names its chunks (base 64 for
  * URLs: letters of both cases, digits, `-` and `_`).
  */
-export const HASHED_NAME = /^(?:[\w.-]+-[A-Z0-9]{8}|chunk-[\w-]{8})\.[a-z0-9]+$/;
+const HASHED_STEM = String.raw`(?:[\w.-]+-[A-Z0-9]{8}|chunk-[\w-]{8})`;
+export const HASHED_NAME = new RegExp(String.raw`^${HASHED_STEM}\.[a-z0-9]+$`);
 /** A request for such a file, of a kind compressed here. */
-const HASHED = /^\/((?:[\w.-]+-[A-Z0-9]{8}|chunk-[\w-]{8})\.(?:js|css|svg|json|txt|map))$/;
+const HASHED = new RegExp(String.raw`^\/(${HASHED_STEM}\.(?:js|css|svg|json|txt|map))$`);
 const brotli = promisify(zlib.brotliCompress);
 const gzip = promisify(zlib.gzip);
 
