@@ -5,7 +5,7 @@ import { jobIsActive } from '@laminote/contracts/limits';
 import { Observable, firstValueFrom } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
-import { type RuntimeChecks, loadRuntimeChecks, runtimeChecks } from './runtime-checks';
+import { type RuntimeChecks, loadRuntimeChecksWhenIdle, runtimeChecks } from './runtime-checks';
 
 /** Runs as jobs: how far one is, cancelling it, and a branch's jobs as they move (server-sent events). */
 @Injectable({ providedIn: 'root' })
@@ -53,9 +53,11 @@ export class JobsApi {
         const parsed = checks.jobEventSchema.safeParse(data);
         if (parsed.success) this.zone.run(() => subscriber.next(parsed.data));
       };
-      // Each event is checked with its schema, loaded apart from the first screen: the few that come
-      // before it has loaded wait for it, in order.
-      let ready: Promise<unknown> = loadRuntimeChecks().catch((error: unknown) => subscriber.error(error));
+      // Each event is checked with its schema, loaded apart from the first screen once the browser is
+      // next idle (a study's page follows its jobs from the start, and running zod's 470 kB inside the
+      // first drawing held that drawing up by about 50 ms): the few events that come before it has
+      // loaded wait for it, in order.
+      let ready: Promise<unknown> = loadRuntimeChecksWhenIdle().catch((error: unknown) => subscriber.error(error));
       source.onmessage = (message: MessageEvent<string>) => {
         const data: unknown = JSON.parse(message.data);
         const checks = runtimeChecks();

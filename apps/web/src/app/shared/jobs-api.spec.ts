@@ -1,0 +1,78 @@
+import { provideHttpClient } from '@angular/common/http';
+import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import type { JobEvent } from '@laminote/contracts';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { JobsApi } from './jobs-api';
+import { runtimeChecks } from './runtime-checks';
+
+/** A stand-in for the browser's EventSource: the test sends the server's messages itself. */
+class FakeEventSource {
+  static opened: FakeEventSource[] = [];
+  onmessage: ((message: MessageEvent<string>) => void) | null = null;
+  closed = false;
+  constructor(
+    readonly url: string,
+    readonly init?: EventSourceInit,
+  ) {
+    FakeEventSource.opened.push(this);
+  }
+  send(data: unknown): void {
+    this.onmessage?.({ data: JSON.stringify(data) } as MessageEvent<string>);
+  }
+  close(): void {
+    this.closed = true;
+  }
+}
+
+const BRANCH = '11111111-2222-4333-8444-555555555501';
+const JOB = '11111111-2222-4333-8444-5555555555aa';
+const CELL = '11111111-2222-4333-8444-555555555505';
+
+describe('JobsApi.events', () => {
+  let idle: (() => void)[];
+
+  beforeEach(() => {
+    FakeEventSource.opened = [];
+    idle = [];
+    vi.stubGlobal('EventSource', FakeEventSource);
+    vi.stubGlobal('requestIdleCallback', (run: () => void) => idle.push(run));
+    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+  });
+
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('holds the events that come before the browser is idle, then delivers them checked and in order', async () => {
+    const seen: JobEvent[] = [];
+    const subscription = TestBed.inject(JobsApi)
+      .events(BRANCH)
+      .subscribe((event) => seen.push(event));
+    const [source] = FakeEventSource.opened;
+    expect(source!.url).toBe(`/api/branches/${BRANCH}/events`);
+    expect(source!.init).toEqual({ withCredentials: true });
+
+    // The page is still drawing its first screen: the schemas are not fetched yet, nothing is delivered.
+    source!.send({ type: 'snapshot', jobs: [] });
+    source!.send({ type: 'output', jobId: 'not a uuid', cellId: CELL });
+    source!.send({ type: 'output', jobId: JOB, cellId: CELL });
+    await Promise.resolve();
+    expect(runtimeChecks()).toBeNull();
+    expect(seen).toEqual([]);
+    expect(idle.length).toBeGreaterThan(0);
+
+    // Idle: the schemas load; the two well-formed events arrive in the order sent, the malformed one not at all.
+    for (const run of idle.splice(0)) run();
+    await vi.waitFor(() => expect(seen).toHaveLength(2));
+    expect(seen).toEqual([
+      { type: 'snapshot', jobs: [] },
+      { type: 'output', jobId: JOB, cellId: CELL },
+    ]);
+
+    // Once loaded, an event is checked and delivered as it comes.
+    source!.send({ type: 'output', jobId: JOB, cellId: CELL });
+    expect(seen).toHaveLength(3);
+
+    subscription.unsubscribe();
+    expect(source!.closed).toBe(true);
+  });
+});
