@@ -1,6 +1,6 @@
 import { TestBed } from '@angular/core/testing';
 import { HttpTestingController } from '@angular/common/http/testing';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { me, provideTestApp, signInAs } from '../../testing/test-app';
 import { FLOW_ID, NOTE_ID, cell, draft } from '../../testing/notebook-fixtures';
 import { DraftSession } from '../shared/draft-session';
@@ -48,7 +48,10 @@ describe('SinceLastLook', () => {
       new Date('2026-03-05T08:00:00.000Z'),
     );
     const fixture = await open(before);
-    http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history());
+    // The comparison waits for the browser's first idle moment after the first drawing.
+    expect(localStorage.getItem(`laminote.lastLook.${me().user.id}.${MAIN_ID}`)).toContain('"revision":3');
+    const request = await vi.waitFor(() => http.expectOne(`/api/studies/${STUDY_ID}/versions`));
+    request.flush(history());
     await fixture.whenStable();
     const text = (fixture.nativeElement as HTMLElement).textContent!.replace(/\s+/g, ' ');
     expect(text).toContain('Since you last looked');
@@ -62,8 +65,38 @@ describe('SinceLastLook', () => {
 
   it('says nothing on a first visit, and remembers it for the next', async () => {
     const fixture = await open(null);
+    await vi.waitFor(() => expect(localStorage.getItem(`laminote.lastLook.${me().user.id}.${MAIN_ID}`)).toContain('"revision":7'));
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).textContent!.trim()).toBe('');
-    expect(localStorage.getItem(`laminote.lastLook.${me().user.id}.${MAIN_ID}`)).toContain('"revision":7');
+  });
+
+  it('compares with what was seen before even when an edit comes before the browser is idle, and remembers the edit after', async () => {
+    const idle: (() => void)[] = [];
+    vi.useFakeTimers();
+    vi.stubGlobal('requestIdleCallback', (run: () => void) => idle.push(run));
+    try {
+      const key = `laminote.lastLook.${me().user.id}.${MAIN_ID}`;
+      const before = snapshotOf([cell('flow', FLOW_ID, { title: 'Cruise', inputs: { mode: 'reynolds', reynolds: 4e6, mach: 0, turbulenceMode: 'nCrit', nCrit: 9 } })], 3, new Date('2026-03-05T08:00:00.000Z'));
+      const fixture = await open(before);
+      TestBed.inject(DraftSession).setTitle(NOTE_ID, 'Why Re 8 million, edited');
+      fixture.detectChanges();
+      // The edit's snapshot is due after 500 ms, but the browser has not been idle yet: what was seen stays.
+      await vi.advanceTimersByTimeAsync(600);
+      expect(JSON.parse(localStorage.getItem(key)!)).toMatchObject({ revision: 3 });
+      for (const run of idle.splice(0)) run();
+      await vi.advanceTimersByTimeAsync(0);
+      http.expectOne(`/api/studies/${STUDY_ID}/versions`).flush(history());
+      fixture.detectChanges();
+      const text = (fixture.nativeElement as HTMLElement).textContent!.replace(/\s+/g, ' ');
+      // Compared with the draft as opened (the note's first title), then the edit remembered.
+      expect(text).toContain('changed: Cruise');
+      expect(text).toContain('added: Why Re 8 million');
+      expect(text).not.toContain('edited');
+      const kept = JSON.parse(localStorage.getItem(key)!) as ReturnType<typeof snapshotOf>;
+      expect(kept.cells[NOTE_ID]!.title).toBe('Why Re 8 million, edited');
+    } finally {
+      vi.useRealTimers();
+      vi.unstubAllGlobals();
+    }
   });
 });
