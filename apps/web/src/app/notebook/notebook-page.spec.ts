@@ -5,6 +5,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
+import { MatMenuItemHarness } from '@angular/material/menu/testing';
 import type { Branch, Draft, Me } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, STUDY_ID, me, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
@@ -263,6 +264,36 @@ describe('NotebookPage', () => {
     expect(run.request.body).toEqual({ cellIds: [PRESSURE_ID] });
     run.flush({ ...stack(), revision: 4, ran: [] });
     await fixture.whenStable();
+  });
+
+  it('adds the kind picked from one shared list where the control that opened it stands, and opens it below a cell with Alt+Enter', async () => {
+    const { fixture, loader, root } = await open(asRole('engineer'));
+    const page = fixture.nativeElement as HTMLElement;
+    // One list of kinds for the page, whichever of its five controls opens it.
+    expect(page.querySelectorAll('lam-add-cell')).toHaveLength(4);
+    expect(page.querySelectorAll('lam-add-cell-menu')).toHaveLength(1);
+    // The kinds are enabled once their schemas have loaded (at the first idle moment).
+    await settle();
+    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Insert a cell at position 3"]' }))).click();
+    await (await root.getHarness(MatMenuItemHarness.with({ text: /Note\s*Markdown text/ }))).click();
+    await fixture.whenStable();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Add cell/ }))).click();
+    await (await root.getHarness(MatMenuItemHarness.with({ text: /Flow condition/ }))).click();
+    await fixture.whenStable();
+
+    // Alt+Enter in the first cell opens the list from the line below it (position 2).
+    const flow = await loader.getHarness(CellFrameHarness.with({ title: 'Cruise, M 0.78' }));
+    await flow.pressInTitle({ alt: true }, TestKey.ENTER);
+    await (await root.getHarness(MatMenuItemHarness.with({ text: /Note\s*Markdown text/ }))).click();
+    await fixture.whenStable();
+    // The edits are saved one after another: the last save holds all three.
+    let saved: { baseRevision: number; cells: { kind: string }[] } | null = null;
+    for (let save; await settle(), (save = http.match({ method: 'PUT' })[0]); ) {
+      saved = save.request.body;
+      save.flush({ ...stack(), revision: saved!.baseRevision + 1, cells: saved!.cells });
+      await fixture.whenStable();
+    }
+    expect(saved!.cells.map((c) => c.kind)).toEqual(['flow', 'note', 'pressure', 'note', 'analysis', 'flow']);
   });
 
   it('draws every frame of a long study at once and the bodies below the first screen soon after', async () => {

@@ -32,7 +32,7 @@ import { loader } from '../shared/load-state';
 import { NotFound } from '../shared/not-found';
 import { ProblemBanner } from '../shared/problem-banner';
 import { roleLabel } from '../shared/role-label';
-import { AddCell } from './add-cell';
+import { AddCell, AddCellMenu } from './add-cell';
 import { CellBody } from './cell-body';
 import { fetchBodiesOf } from './cell-bodies';
 import { CellFrame } from './cell-frame';
@@ -77,6 +77,7 @@ function isTextEntry(target: EventTarget | null): boolean {
   selector: 'lam-notebook-page',
   imports: [
     AddCell,
+    AddCellMenu,
     CdkDrag,
     CdkDropList,
     CellBody,
