@@ -1,4 +1,4 @@
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
@@ -66,6 +66,24 @@ describe('addPreloads', () => {
     expect(JSON.parse(kinds![1]!)).toEqual(result.kinds);
     addPreloads(dir);
     expect(readFileSync(path.join(dir, 'index.html'), 'utf8')).toBe(once);
+  });
+});
+
+describe('addPreloads, fonts', () => {
+  it('asks at once for the latin files of the fonts a first screen draws with, before the style sheet, once however often it runs', () => {
+    const dir = builtApp();
+    mkdirSync(path.join(dir, 'media'));
+    for (const file of ['lato-latin-400-normal-AB12CD34.woff2', 'lato-latin-400-normal-EF56GH78.woff', 'lato-latin-ext-400-normal-ZZ11YY22.woff2', 'lato-latin-700-normal-QQ33RR44.woff2', 'jetbrains-mono-latin-400-normal-MM55NN66.woff2', 'jetbrains-mono-greek-400-normal-KK77LL88.woff2', 'symbols-7HRS4YW6.woff2', 'KaTeX_Main-Regular-ARRPAO67.woff2'])
+      writeFileSync(path.join(dir, 'media', file), '');
+    const index = path.join(dir, 'index.html');
+    writeFileSync(index, readFileSync(index, 'utf8').replace('<title>t</title>', '<title>t</title><link rel="stylesheet" href="styles-X.css">'));
+    addPreloads(dir);
+    const once = readFileSync(index, 'utf8');
+    const fonts = [...once.matchAll(/<link rel="preload" href="media\/([^"]+)" as="font" type="font\/woff2" crossorigin>/g)].map((m) => m[1]);
+    expect(fonts).toEqual(['lato-latin-400-normal-AB12CD34.woff2', 'lato-latin-700-normal-QQ33RR44.woff2', 'jetbrains-mono-latin-400-normal-MM55NN66.woff2', 'symbols-7HRS4YW6.woff2']);
+    expect(once.lastIndexOf('as="font"')).toBeLessThan(once.indexOf('<link rel="stylesheet"'));
+    addPreloads(dir);
+    expect(readFileSync(index, 'utf8')).toBe(once);
   });
 });
 

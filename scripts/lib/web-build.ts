@@ -146,6 +146,29 @@ export function addPreloads(dist: string): { initial: string[]; kinds: Record<st
   const firstScript = html.indexOf('<script src="', html.indexOf('<body'));
   if (firstScript < 0) throw new Error(`${indexFile} names no script`);
   html = `${html.slice(0, firstScript)}${links.join('')}${global ? '' : list}${html.slice(firstScript)}`;
+  html = addFontPreloads(dist, html);
   writeFileSync(indexFile, html);
   return { initial, kinds };
+}
+
+/**
+ * The fonts every study's first screen draws with (Lato regular and bold, JetBrains Mono and the icon
+ * subset, latin only), by the stem of their built names in media/. Without a hint the browser asks for
+ * each font only once the page's text needs it: JetBrains Mono, which the cells' figures use, arrived
+ * after the first drawing and laid the page out again inside the first keystroke (33 ms, traced). A/B,
+ * 8 + 8 cold opens, twice: median 1016 → 954 ms and 1186 → 1034 ms.
+ */
+const FIRST_SCREEN_FONTS = ['lato-latin-400-normal', 'lato-latin-700-normal', 'jetbrains-mono-latin-400-normal', 'symbols'];
+
+function addFontPreloads(dist: string, page: string): string {
+  const media = path.join(dist, 'media');
+  const files = existsSync(media) ? readdirSync(media) : [];
+  const links = FIRST_SCREEN_FONTS.flatMap((stem) => files.filter((f) => new RegExp(`^${stem}-[\\w-]+\\.woff2$`).test(f)).slice(0, 1)).map(
+    (file) => `<link rel="preload" href="media/${file}" as="font" type="font/woff2" crossorigin>`,
+  );
+  const html = page.replace(/<link rel="preload" href="media\/[^"]+" as="font" type="font\/woff2" crossorigin>/g, '');
+  const sheet = html.indexOf('<link rel="stylesheet"');
+  const at = sheet >= 0 ? sheet : html.indexOf('</head>');
+  if (at < 0) throw new Error('index.html has no head');
+  return `${html.slice(0, at)}${links.join('')}${html.slice(at)}`;
 }
