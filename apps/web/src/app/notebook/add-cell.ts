@@ -46,7 +46,7 @@ export class AddCellMenu {
 
 /**
  * Adds a cell at one place in the stack: a thin insertion line between cells, or the full button at
- * the end. Both open the page's list of kinds (`menu`, an `AddCellMenu`).
+ * the end. Both open the page's one list of kinds, an `AddCellMenu` given as an input.
  */
 @Component({
   selector: 'lam-add-cell',
