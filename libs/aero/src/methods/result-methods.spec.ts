@@ -1,7 +1,7 @@
 import { TRANSITION_CRITERIA } from '@laminote/contracts';
 import { describe, expect, it } from 'vitest';
 import { findMethod } from './index';
-import { CRITERION_METHODS, resultMethods } from './result-methods';
+import { CRITERION_METHODS, resultMethodIds, resultMethods } from './result-methods';
 
 const ids = (kind: string, result: unknown) => resultMethods(kind, result).map((m) => m.id);
 
@@ -53,5 +53,25 @@ describe('resultMethods (the "Methods" links under each result)', () => {
     expect(ids('leadingEdge', {})).toEqual(['poll']);
     expect(ids('analysis', null)).toEqual([]);
     expect(ids('note', { text: 'x' })).toEqual([]);
+  });
+
+  it('names by id, without the catalogue, exactly the methods it links (the notebook keeps their line while the catalogue loads)', () => {
+    const results: [string, unknown][] = [
+      ['flow', { temperature_K: 223.15 }],
+      ['flow', { temperature_K: null }],
+      ['pressure', { layout: 'closedLoop' }],
+      ['pressure', { layout: 'surfaces' }],
+      ['analysis', { flow: { mach: 0.7 }, surfaces: [{ transition: { criteria: { eN: 0.4, crossflowC1: 0.2, hRx: 0.3, granville: 0.3 } } }], attachmentLine: { reBar: 90 } }],
+      ['sweep', {}],
+      ['section', {}],
+      ['body', {}],
+      ['polar', { points: [{ surfaces: [{ criteria: { eN: 0.3 } }] }] }],
+      ['flatPlate', {}],
+      ['leadingEdge', {}],
+      ['note', { text: 'x' }],
+      ['comparison', {}],
+      ['analysis', null],
+    ];
+    for (const [kind, result] of results) expect(resultMethodIds(kind, result), kind).toEqual(ids(kind, result));
   });
 });

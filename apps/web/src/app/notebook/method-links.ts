@@ -1,16 +1,24 @@
-import { ChangeDetectionStrategy, Component, PendingTasks, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, InjectionToken, PendingTasks, computed, inject, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
+import { resultMethodIds } from '@laminote/aero/methods/result-method-ids';
 import type { CellOutput } from '@laminote/contracts';
-import { lazyModule } from '../shared/lazy-module';
+import { type LazyModule, lazyModule } from '../shared/lazy-module';
+
+type Catalogue = typeof import('@laminote/aero/methods/result-methods');
 
 /** The methods catalogue (every method's formula and sources), fetched once, after the first screen. */
-const catalogue = lazyModule(() => import('@laminote/aero/methods/result-methods'));
+export const METHOD_CATALOGUE = new InjectionToken<LazyModule<Catalogue>>('methods catalogue', {
+  providedIn: 'root',
+  factory: () => lazyModule(() => import('@laminote/aero/methods/result-methods')),
+});
 
 /**
  * The "Methods" line under a cell's result: one link per method its numbers come from, to the page with
  * the formula, symbols, validity, sources and limits — so every number on the screen can be traced.
  * The same list the report prints per cell (`resultMethods` in libs/aero). The catalogue loads apart
- * from the first screen, so the line appears a moment after the result.
+ * from the first screen, so the links appear a moment after the result; until then the line's place is
+ * kept (which methods a result has is known without the catalogue), so nothing below it moves when
+ * they come, and the first screen is measured as it will stay.
  */
 @Component({
   selector: 'lam-method-links',
@@ -24,6 +32,8 @@ const catalogue = lazyModule(() => import('@laminote/aero/methods/result-methods
           <a [routerLink]="['/methods', method.id]" [attr.title]="method.purpose">{{ method.name }}</a>
         }
       </p>
+    } @else if (keepPlace()) {
+      <p class="method-links method-links-coming" aria-hidden="true"><span class="method-links-label">Methods</span></p>
     }
   `,
   styles: `
@@ -42,6 +52,9 @@ const catalogue = lazyModule(() => import('@laminote/aero/methods/result-methods
     .method-links a {
       color: var(--mat-sys-primary);
     }
+    .method-links-coming {
+      visibility: hidden;
+    }
   `,
 })
 export class MethodLinks {
@@ -49,13 +62,20 @@ export class MethodLinks {
   /** The output on show: the newest one when it succeeded, else the last good one kept below a failure. */
   readonly output = input<CellOutput | null>(null);
 
+  private readonly catalogue = inject(METHOD_CATALOGUE);
+  private readonly ids = computed(() => {
+    const output = this.output();
+    return output?.status === 'ok' ? resultMethodIds(this.kind(), output.result) : [];
+  });
   protected readonly methods = computed(() => {
     const output = this.output();
-    const methods = catalogue.module();
-    return methods && output && output.status === 'ok' ? methods.resultMethods(this.kind(), output.result) : [];
+    const catalogue = this.catalogue.module();
+    return catalogue && output && this.ids().length > 0 ? catalogue.resultMethods(this.kind(), output.result) : [];
   });
+  /** The catalogue is still coming and the result has methods: their line's place is kept, empty. */
+  protected readonly keepPlace = computed(() => !this.catalogue.module() && this.ids().length > 0);
 
   constructor() {
-    if (!catalogue.module()) inject(PendingTasks).run(catalogue.loadWhenIdle);
+    if (!this.catalogue.module()) inject(PendingTasks).run(this.catalogue.loadWhenIdle);
   }
 }
