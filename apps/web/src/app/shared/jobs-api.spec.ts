@@ -4,7 +4,8 @@ import { TestBed } from '@angular/core/testing';
 import type { JobEvent } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { JobsApi } from './jobs-api';
-import { runtimeChecks } from './runtime-checks';
+import { type LazyModule, lazyModule } from './lazy-module';
+import { RUNTIME_CHECKS, type RuntimeChecks } from './runtime-checks';
 
 /** A stand-in for the browser's EventSource: the test sends the server's messages itself. */
 class FakeEventSource {
@@ -31,13 +32,16 @@ const CELL = '11111111-2222-4333-8444-555555555505';
 
 describe('JobsApi.events', () => {
   let idle: (() => void)[];
+  /** This spec's own copy of the schemas' loader: the module shared by the suite may be loaded already. */
+  let checks: LazyModule<RuntimeChecks>;
 
   beforeEach(() => {
     FakeEventSource.opened = [];
     idle = [];
     vi.stubGlobal('EventSource', FakeEventSource);
     vi.stubGlobal('requestIdleCallback', (run: () => void) => idle.push(run));
-    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+    checks = lazyModule(() => import('./runtime-schemas'));
+    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), { provide: RUNTIME_CHECKS, useValue: checks }] });
   });
 
   afterEach(() => vi.unstubAllGlobals());
@@ -51,19 +55,14 @@ describe('JobsApi.events', () => {
     expect(source!.url).toBe(`/api/branches/${BRANCH}/events`);
     expect(source!.init).toEqual({ withCredentials: true });
 
-    // The schemas load at the browser's first idle moment (lazy-module.spec covers that wait). Specs
-    // share one copy of the module, so an earlier one may have loaded them already: only where it has
-    // not can this one see the events held back before the idle moment.
-    const loadedBefore = runtimeChecks() !== null;
+    // The schemas load at the browser's first idle moment: until then the events are held back.
     source!.send({ type: 'snapshot', jobs: [] });
     source!.send({ type: 'output', jobId: 'not a uuid', cellId: CELL });
     source!.send({ type: 'output', jobId: JOB, cellId: CELL });
-    await Promise.resolve();
-    if (!loadedBefore) {
-      expect(runtimeChecks()).toBeNull();
-      expect(seen).toEqual([]);
-      expect(idle.length).toBeGreaterThan(0);
-    }
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    expect(checks.module()).toBeNull();
+    expect(seen).toEqual([]);
+    expect(idle).toHaveLength(1);
 
     // Idle: the two well-formed events arrive in the order sent, the malformed one not at all.
     for (const run of idle.splice(0)) run();

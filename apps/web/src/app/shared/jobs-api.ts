@@ -5,7 +5,7 @@ import { jobIsActive } from '@laminote/contracts/limits';
 import { Observable, firstValueFrom } from 'rxjs';
 import { API_BASE } from '../core/api-base';
 import { checked } from '../core/checked';
-import { type RuntimeChecks, loadRuntimeChecksWhenIdle, runtimeChecks } from './runtime-checks';
+import { RUNTIME_CHECKS, type RuntimeChecks } from './runtime-checks';
 
 /** Runs as jobs: how far one is, cancelling it, and a branch's jobs as they move (server-sent events). */
 @Injectable({ providedIn: 'root' })
@@ -13,6 +13,7 @@ export class JobsApi {
   private readonly http = inject(HttpClient);
   private readonly base = inject(API_BASE);
   private readonly zone = inject(NgZone);
+  private readonly checks = inject(RUNTIME_CHECKS);
 
   job(jobId: string): Observable<Job> {
     return this.http.get(`${this.base}/jobs/${encodeURIComponent(jobId)}`).pipe(checked('job', 'GET /jobs/:jobId'));
@@ -57,14 +58,14 @@ export class JobsApi {
       // next idle (a study's page follows its jobs from the start, and running zod's 470 kB inside the
       // first drawing held that drawing up by about 50 ms): the few events that come before it has
       // loaded wait for it, in order.
-      let ready: Promise<unknown> = loadRuntimeChecksWhenIdle().catch((error: unknown) => subscriber.error(error));
+      let ready: Promise<unknown> = this.checks.loadWhenIdle().catch((error: unknown) => subscriber.error(error));
       source.onmessage = (message: MessageEvent<string>) => {
         const data: unknown = JSON.parse(message.data);
-        const checks = runtimeChecks();
+        const checks = this.checks.module();
         if (checks) deliver(checks, data);
         else
           ready = ready.then(() => {
-            const loaded = runtimeChecks();
+            const loaded = this.checks.module();
             if (loaded) deliver(loaded, data);
           });
       };

@@ -1,4 +1,5 @@
-import { lazyModule } from './lazy-module';
+import { InjectionToken } from '@angular/core';
+import { type LazyModule, lazyModule } from './lazy-module';
 
 export type RuntimeChecks = typeof import('./runtime-schemas');
 
@@ -20,3 +21,6 @@ export const loadRuntimeChecksWhenIdle = checks.loadWhenIdle;
 
 /** The schemas once loaded (a signal); null before. */
 export const runtimeChecks = checks.module;
+
+/** The same loader, injected where a test gives its own (one whose module comes when the test says). */
+export const RUNTIME_CHECKS = new InjectionToken<LazyModule<RuntimeChecks>>('runtime checks', { providedIn: 'root', factory: () => checks });
