@@ -1,6 +1,7 @@
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Comparison, Draft, VersionSummary } from '@laminote/contracts';
+import type { Comparison, Draft, VersionDetail, VersionSummary } from '@laminote/contracts';
+import { compareVersions } from '../../server/src/versions/compare';
 import { createTestApp, type TestApp } from '../support/app';
 import { testEnv } from '../support/env';
 import { runAndWait } from '../support/run';
@@ -116,5 +117,27 @@ describe('the PDF report of a comparison', () => {
     expect(flat).toContain(comparison.caution.replace(/\s+/g, ' ').slice(0, 60));
     expect(flat).toContain(`page ${pdf.numPages} of ${pdf.numPages}`);
     await pdf.destroy();
+  });
+});
+
+describe('the comparison as GET /api/compare answers it (its analyses written once per pair of outputs, then reused)', () => {
+  const ask = async () => (await as['viewer']!.get(`/api/compare?a=${a.id}&b=${b.id}`).expect(200)).body as Comparison;
+  const fresh = async () => JSON.parse(JSON.stringify(await compareVersions(t.database.db, a.id, b.id))) as Comparison;
+
+  it('is the comparison worked out afresh, on the first ask and on a later one', async () => {
+    expect(comparison.results.length).toBeGreaterThan(0);
+    expect(comparison.results.every((r) => r.statusA === 'ok' && r.statusB === 'ok')).toBe(true);
+    expect(comparison).toEqual(await fresh());
+    expect(await ask()).toEqual(await fresh());
+  });
+
+  it('reads a side as not run once its output is gone, not as the text kept from before', async () => {
+    const { cells } = (await as['viewer']!.get(`/api/versions/${b.id}`).expect(200)).body as VersionDetail;
+    const analysis = cells.find((c) => c.cellId === comparison.results[0]!.cellId)!;
+    expect(analysis.outputKey).toBeTruthy();
+    await t.database.pool.query('delete from outputs where key = $1', [analysis.outputKey]);
+    const after = await ask();
+    expect(after.results[0]).toMatchObject({ cellId: analysis.cellId, statusA: 'ok', statusB: 'notRun' });
+    expect(after).toEqual(await fresh());
   });
 });

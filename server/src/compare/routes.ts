@@ -10,7 +10,7 @@ import { renderCompareReportHtml } from '../reports/compare-html';
 import { buildCompareReport } from '../reports/compare-model';
 import { renderPdfOffThread } from '../reports/pdf-pool';
 import { disposition } from '../reports/respond';
-import { compareVersions, studiesOf } from '../versions/compare';
+import { compareVersions, compareVersionsJson, studiesOf } from '../versions/compare';
 
 /** /api/compare?a=…&b=…: two versions of one study side by side, cell by cell. */
 export function compareRouter({ db }: { db: Db }): Router {
@@ -34,7 +34,7 @@ export function compareRouter({ db }: { db: Db }): Router {
 
   router.get('/', async (req, res) => {
     const { a, b } = await access(req);
-    res.json(await compareVersions(db, a, b));
+    res.type('json').send(await compareVersionsJson(db, a, b));
   });
 
   /** The comparison as a report: one self-contained HTML file to send on or print, or a PDF of the same (?download=1 to save it). */

@@ -7,11 +7,18 @@ import { compareAnalysis, sideOf, type Side, type StoredOutput } from './result-
 import { compareSweep, type SweepSide, sweepSideOf } from './sweep-diff';
 import { toSnapshot, versionCellsOf, versionSummary } from './service';
 
-/**
- * Two versions of one study, compared: cells matched by id with field-level differences, and the
- * results of every analysis cell side by side with their deltas and overlay data.
- */
-export async function compareVersions(tx: Tx, aId: string, bId: string): Promise<Comparison> {
+/** A pair of analysis sides and what they name: the stored output's key, or the state without one. */
+interface AnalysisPair {
+  cellId: string;
+  title: string;
+  a: Side;
+  b: Side;
+  /** What the pair is computed from, as text: the cell, its title and each side's output key or state. */
+  key: string;
+}
+
+/** Everything of a comparison but its analyses' results, and the analyses' sides to compare. */
+async function gather(tx: Tx, aId: string, bId: string): Promise<{ rest: Omit<Comparison, 'results'>; pairs: AnalysisPair[] }> {
   const [a, b] = [await versionSummary(tx, aId), await versionSummary(tx, bId)];
   const cellsOf = await versionCellsOf(tx, [...new Set([aId, bId])]);
   const cellsA = cellsOf.get(aId) ?? [];
@@ -25,8 +32,18 @@ export async function compareVersions(tx: Tx, aId: string, bId: string): Promise
     tx,
     analyses.flatMap((d) => [mapA.get(d.cellId)?.outputKey, mapB.get(d.cellId)?.outputKey]),
   );
-  const side = (cell: VersionCell | undefined): Side => (!cell ? { state: 'absent' } : (sides.get(cell.outputKey ?? '') ?? { state: 'notRun' }));
-  const results = analyses.map((d) => compareAnalysis(d.cellId, d.titleB ?? d.titleA ?? 'Transition analysis', side(mapA.get(d.cellId)), side(mapB.get(d.cellId))));
+  // A side is its stored output's when that output is there, else the state it is in.
+  const sideOfCell = (cell: VersionCell | undefined): { side: Side; key: string } => {
+    if (!cell) return { side: { state: 'absent' }, key: 'absent' };
+    const stored = sides.get(cell.outputKey ?? '');
+    return stored ? { side: stored, key: `output ${cell.outputKey}` } : { side: { state: 'notRun' }, key: 'notRun' };
+  };
+  const pairs = analyses.map((d) => {
+    const title = d.titleB ?? d.titleA ?? 'Transition analysis';
+    const a = sideOfCell(mapA.get(d.cellId));
+    const b = sideOfCell(mapB.get(d.cellId));
+    return { cellId: d.cellId, title, a: a.side, b: b.side, key: JSON.stringify([d.cellId, title, a.key, b.key]) };
+  });
   const sweepCells = cells.filter((d) => d.kind === 'sweep');
   const sweepOutputs = await storedOutputs(tx, sweepCells.flatMap((d) => [mapA.get(d.cellId)?.outputKey, mapB.get(d.cellId)?.outputKey]));
   const sweepSide = (cell: VersionCell | undefined): SweepSide => {
@@ -35,8 +52,46 @@ export async function compareVersions(tx: Tx, aId: string, bId: string): Promise
     return sweepSideOf(true, stored ?? null);
   };
   const sweeps = sweepCells.map((d) => compareSweep(d.cellId, d.titleB ?? d.titleA ?? 'Parameter sweep', sweepSide(mapA.get(d.cellId)), sweepSide(mapB.get(d.cellId))));
-  return { studyId: a.studyId, a, b, summary: summarise(cells), cells, results, sweeps, caution: COMPARISON_CAUTION };
+  return { rest: { studyId: a.studyId, a, b, summary: summarise(cells), cells, sweeps, caution: COMPARISON_CAUTION }, pairs };
 }
+
+/**
+ * Two versions of one study, compared: cells matched by id with field-level differences, and the
+ * results of every analysis cell side by side with their deltas and overlay data.
+ */
+export async function compareVersions(tx: Tx, aId: string, bId: string): Promise<Comparison> {
+  const { rest, pairs } = await gather(tx, aId, bId);
+  const { studyId, a, b, summary, cells, sweeps, caution } = rest;
+  return { studyId, a, b, summary, cells, results: pairs.map((p) => compareAnalysis(p.cellId, p.title, p.a, p.b)), sweeps, caution };
+}
+
+/**
+ * The same comparison as JSON text, for GET /api/compare. An analysis compared is written once per
+ * pair of sides and its text reused: a stored output never changes (its key hashes everything it was
+ * computed from), so the same cell, title and outputs compare the same. For a 200-cell study the 75
+ * analyses are 94 % of the answer's megabyte, and comparing and writing them took about 20 ms of
+ * every ask. The results come last in the text; everything else is written afresh each time.
+ */
+export async function compareVersionsJson(tx: Tx, aId: string, bId: string): Promise<string> {
+  const { rest, pairs } = await gather(tx, aId, bId);
+  const results = pairs.map((p) => {
+    const kept = comparedAnalyses.get(p.key);
+    if (kept !== undefined) {
+      comparedAnalyses.delete(p.key);
+      comparedAnalyses.set(p.key, kept);
+      return kept;
+    }
+    const text = JSON.stringify(compareAnalysis(p.cellId, p.title, p.a, p.b));
+    comparedAnalyses.set(p.key, text);
+    while (comparedAnalyses.size > COMPARED_ANALYSES) comparedAnalyses.delete(comparedAnalyses.keys().next().value!);
+    return text;
+  });
+  return `${JSON.stringify(rest).slice(0, -1)},"results":[${results.join(',')}]}`;
+}
+
+/** Analyses compared, as JSON text, by what they are computed from; the least recently asked go first beyond this many (a 2 × 70-station analysis is about 13 kB: some 5 MB at most). */
+const COMPARED_ANALYSES = 400;
+const comparedAnalyses = new Map<string, string>();
 
 /**
  * Analysis outputs read and checked against the engine's result schema, by output key. A stored
