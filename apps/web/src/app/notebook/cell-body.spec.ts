@@ -14,10 +14,9 @@ describe('CellBody', () => {
   });
   afterEach(() => vi.restoreAllMocks());
 
-  function render(kind: Parameters<typeof cell>[0], held = false) {
+  function render(kind: Parameters<typeof cell>[0]) {
     const fixture = TestBed.createComponent(CellBody);
     fixture.componentRef.setInput('cell', cell(kind, LEADING_EDGE_ID, { title: 'Nose' }));
-    fixture.componentRef.setInput('held', held);
     fixture.detectChanges();
     return fixture;
   }
@@ -34,14 +33,6 @@ describe('CellBody', () => {
     await fixture.whenStable();
     expect(host.querySelector('lam-leading-edge-cell')).not.toBeNull();
     expect(host.querySelector('.body-pending')).toBeNull();
-  });
-
-  it('does not fetch the code of a body the page holds back', async () => {
-    const load = vi.spyOn(CELL_BODIES.leadingEdge as LoadedBody, 'load');
-    const fixture = render('leadingEdge', true);
-    await fixture.whenStable();
-    expect(load).not.toHaveBeenCalled();
-    expect((fixture.nativeElement as HTMLElement).querySelector('.body-pending')?.textContent).toContain('Drawing');
   });
 
   it('says so when the code of a kind does not load', async () => {

@@ -4,9 +4,10 @@ import type { DraftCell } from '@laminote/contracts';
 import { CELL_BODIES, type CellBodyComponent, type LoadedBody } from './cell-bodies';
 
 /**
- * A cell's body: its kind's component (`CELL_BODIES`), given the cell. While the page holds the body
- * back (`held`: cells below the first screen are drawn while the browser is idle), or the kind's code is
- * still being fetched, it says it is drawing; a fetch that failed is said.
+ * A cell's body: its kind's component (`CELL_BODIES`), given the cell. While the kind's code is still
+ * being fetched it says it is drawing; a fetch that failed is said. The page makes it once the body is
+ * to be drawn (cells below the first screen are drawn while the browser is idle); until then the page
+ * shows the same placeholder, `bodyPlaceholderHeight` tall.
  */
 @Component({
   selector: 'lam-cell-body',
@@ -21,19 +22,9 @@ import { CELL_BODIES, type CellBodyComponent, type LoadedBody } from './cell-bod
       <p class="body-pending" aria-busy="true" [style.min-height.px]="placeholderHeight()">Drawing…</p>
     }
   `,
-  styles: `
-    .body-pending {
-      min-height: 6rem;
-      margin: 0;
-      color: var(--mat-sys-on-surface-variant);
-      font: var(--mat-sys-body-small);
-    }
-  `,
 })
 export class CellBody {
   readonly cell = input.required<DraftCell>();
-  /** Not drawn yet: the page draws the cells below the first screen a few at a time. */
-  readonly held = input(false);
 
   private readonly kind = computed(() => this.cell().kind);
   private readonly entry = computed(() => CELL_BODIES[this.kind()]);
@@ -41,24 +32,24 @@ export class CellBody {
   protected readonly loaded = resource<Type<CellBodyComponent>, LoadedBody | undefined>({
     params: () => {
       const entry = this.entry();
-      return !this.held() && 'load' in entry ? entry : undefined;
+      return 'load' in entry ? entry : undefined;
     },
     loader: ({ params }) => params.load(),
   });
   protected readonly body = computed((): Type<CellBodyComponent> | null => {
-    if (this.held()) return null;
     const entry = this.entry();
     // A resource in its error state throws when its value is read: the template says the error instead.
     if ('load' in entry) return this.loaded.hasValue() ? this.loaded.value() : null;
     return entry;
   });
   protected readonly inputs = computed(() => ({ cell: this.cell() }));
-  /** About the drawn body's height, so the page does not jump as the bodies come and the first screen is measured right. */
-  protected readonly placeholderHeight = computed(() => {
-    const cell = this.cell();
-    const [withResult, withoutResult] = BODY_HEIGHTS[cell.kind];
-    return cell.output || cell.lastGoodOutput ? withResult : withoutResult;
-  });
+  protected readonly placeholderHeight = computed(() => bodyPlaceholderHeight(this.cell()));
+}
+
+/** About the drawn body's height, so the page does not jump as the bodies come and the first screen is measured right. */
+export function bodyPlaceholderHeight(cell: DraftCell): number {
+  const [withResult, withoutResult] = BODY_HEIGHTS[cell.kind];
+  return cell.output || cell.lastGoodOutput ? withResult : withoutResult;
 }
 
 /**

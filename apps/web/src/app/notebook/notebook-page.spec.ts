@@ -340,6 +340,14 @@ describe('NotebookPage', () => {
       expect(page.textContent).toContain('Reading 2');
       expect(page.textContent).not.toContain('Reading 3');
       expect(page.querySelectorAll('.body-pending')).toHaveLength(3);
+      // The insertion lines below the held cells come with their bodies; their places are kept meanwhile
+      // (the top line, two below drawn cells, the end button; held places below cells 3 and 4).
+      expect(page.querySelectorAll('lam-add-cell')).toHaveLength(4);
+      expect(page.querySelectorAll('.add-held')).toHaveLength(2);
+      // A held body is only its placeholder, as tall as a drawn note: its component (and its kind's code) comes when drawn.
+      const held = page.querySelectorAll('lam-cell-frame')[4]!;
+      expect(held.querySelector('lam-cell-body')).toBeNull();
+      expect(held.querySelector<HTMLElement>('.body .body-pending')!.style.minHeight).toBe('90px');
       // Each idle moment draws one more body.
       const idleMoment = async () => {
         const before = pending();
@@ -351,13 +359,21 @@ describe('NotebookPage', () => {
       expect(frames[2]!.querySelector('.body-pending')).toBeNull();
       expect(frames[3]!.querySelector('.body-pending')).not.toBeNull();
       expect(pending()).toBe(2);
-      await idleMoment();
-      expect(pending()).toBe(1);
+      expect(page.querySelectorAll('.add-held')).toHaveLength(1);
+      // Alt+Enter in a held cell draws it, with the line below it, and opens the list from that line.
+      const title = frames[3]!.querySelector<HTMLInputElement>('input.title-input')!;
+      title.focus();
+      title.dispatchEvent(new KeyboardEvent('keydown', { key: 'Enter', altKey: true, bubbles: true }));
+      await until(() => document.querySelector('.lam-add-cell-menu') !== null);
+      expect(frames[3]!.querySelector('.body-pending')).toBeNull();
+      expect(page.querySelectorAll('.add-held')).toHaveLength(0);
+      expect(page.querySelector('[aria-label="Insert a cell at position 5"]')!.getAttribute('aria-expanded')).toBe('true');
       for (const next of idle.splice(0)) next();
       await until(() => pending() === 0);
       for (const next of idle.splice(0)) next();
       await fixture.whenStable();
       expect(pending()).toBe(0);
+      expect(page.querySelectorAll('lam-add-cell')).toHaveLength(6);
       expect(page.textContent).toContain('Reading 5');
     } finally {
       rect.mockRestore();

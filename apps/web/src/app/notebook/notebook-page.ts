@@ -33,7 +33,7 @@ import { NotFound } from '../shared/not-found';
 import { ProblemBanner } from '../shared/problem-banner';
 import { roleLabel } from '../shared/role-label';
 import { AddCell, AddCellMenu } from './add-cell';
-import { CellBody } from './cell-body';
+import { CellBody, bodyPlaceholderHeight } from './cell-body';
 import { fetchBodiesOf } from './cell-bodies';
 import { CellFrame } from './cell-frame';
 import { cellKindInfo } from '../shared/cell-kinds';
@@ -193,6 +193,7 @@ export class NotebookPage {
    * is drawn at once, with the cells above it; and a cell added above drawn ones leaves them drawn.
    */
   protected readonly drawn = signal<ReadonlySet<string>>(new Set());
+  protected readonly placeholderHeight = bodyPlaceholderHeight;
   private readonly pendingTasks = inject(PendingTasks);
 
   private readonly addControls = viewChildren(AddCell);
@@ -473,8 +474,9 @@ export class NotebookPage {
   /** Opens the add-cell list just below a cell (the insertion line after it, or the end button). */
   private openAddBelow(cellId: string): void {
     const index = this.cells().findIndex((cell) => cell.cellId === cellId);
-    const control = this.addControls().find((c) => c.index() === index + 1);
-    control?.open();
+    // A cell not drawn yet has no insertion line below it: drawn, it gets one.
+    this.drawDownTo(cellId);
+    afterNextRender(() => this.addControls().find((c) => c.index() === index + 1)?.open(), { injector: this.injector });
   }
 
   /** Puts the focus in a cell once it is on screen: on its first field, or on the frame itself. */
