@@ -1,10 +1,11 @@
 import type { MethodEntry } from './method';
+import { METHOD_NAMES } from './method-names';
 
 /** Laminar and turbulent boundary layer, drag and friction. */
 export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   {
     id: 'thwaites',
-    name: 'Thwaites’ laminar method',
+    name: METHOD_NAMES['thwaites'],
     purpose: 'Momentum thickness, shape factor and skin friction of the laminar layer from the attachment line, and laminar separation.',
     module: 'thwaites.ts',
     formulas: [
@@ -37,7 +38,7 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   },
   {
     id: 'compressible-thwaites',
-    name: 'Compressible laminar layer (Stewartson–Illingworth, Eckert’s reference temperature)',
+    name: METHOD_NAMES['compressible-thwaites'],
     purpose: 'For M∞ > 0: Thwaites’ method carried through the Stewartson–Illingworth transformation on an adiabatic wall.',
     module: 'compressible-laminar.ts',
     formulas: [
@@ -65,7 +66,7 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   },
   {
     id: 'falkner-skan-cooke',
-    name: 'Falkner–Skan–Cooke profiles (infinite swept wing)',
+    name: METHOD_NAMES['falkner-skan-cooke'],
     purpose: 'The chordwise and spanwise similarity profiles the crossflow criteria read, tabulated once by shooting.',
     module: 'falkner-skan-cooke.ts',
     formulas: [
@@ -83,7 +84,7 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   },
   {
     id: 'mangler',
-    name: 'Mangler transformation (bodies of revolution)',
+    name: METHOD_NAMES['mangler'],
     purpose: 'Carries Thwaites’ method over to axisymmetric bodies such as nacelles.',
     module: 'thwaites.ts',
     formulas: ['\\theta^2 = \\frac{0.45\\,\\nu}{r^2 U_e^6} \\int_0^s r^2 U_e^5\\, ds, \\qquad \\text{pointed nose } (r = s): \\; \\theta^2 = 0.05625\\,\\nu/a'],
@@ -95,7 +96,7 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   },
   {
     id: 'head',
-    name: 'Head’s entrainment method',
+    name: METHOD_NAMES['head'],
     purpose: 'The turbulent layer from transition to the trailing edge, turbulent separation and the trailing-edge state for the drag.',
     module: 'head.ts',
     formulas: [
@@ -124,7 +125,7 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   },
   {
     id: 'squire-young',
-    name: 'Squire–Young profile drag',
+    name: METHOD_NAMES['squire-young'],
     purpose: 'Profile drag of each surface from its trailing-edge boundary layer.',
     module: 'squire-young.ts',
     formulas: ['\\theta_\\infty = \\theta_{TE} \\left(\\frac{U_{e,TE}}{V_\\infty}\\right)^{(H_{TE} + 5)/2}, \\qquad c_d = \\frac{2\\,\\theta_\\infty}{L}'],
@@ -139,7 +140,7 @@ export const BOUNDARY_LAYER_METHODS: MethodEntry[] = [
   },
   {
     id: 'flat-plate',
-    name: 'Flat-plate friction estimates',
+    name: METHOD_NAMES['flat-plate'],
     purpose: 'Quick laminar, turbulent and mixed friction of a plate, and the saving of a laminar run.',
     module: 'flat-plate.ts',
     formulas: [

@@ -1,10 +1,11 @@
 import type { MethodEntry } from './method';
+import { METHOD_NAMES } from './method-names';
 
 /** Flow conditions and the preparation of a pressure distribution. */
 export const FLOW_METHODS: MethodEntry[] = [
   {
     id: 'isa',
-    name: 'International Standard Atmosphere',
+    name: METHOD_NAMES['isa'],
     purpose: 'Temperature, pressure, density and speed of sound at a pressure altitude, for the flow condition’s Reynolds number.',
     module: 'atmosphere.ts',
     formulas: [
@@ -28,7 +29,7 @@ export const FLOW_METHODS: MethodEntry[] = [
   },
   {
     id: 'sutherland',
-    name: 'Sutherland’s viscosity law',
+    name: METHOD_NAMES['sutherland'],
     purpose: 'Dynamic viscosity of air from temperature.',
     module: 'atmosphere.ts',
     formulas: ['\\mu = \\frac{\\beta\\, T^{3/2}}{T + S}, \\qquad \\nu = \\frac{\\mu}{\\rho}, \\qquad Re = \\frac{V_\\infty L}{\\nu}'],
@@ -46,7 +47,7 @@ export const FLOW_METHODS: MethodEntry[] = [
   },
   {
     id: 'isentropic',
-    name: 'Isentropic Cp and edge velocity',
+    name: METHOD_NAMES['isentropic'],
     purpose: 'Converts a pressure coefficient to the edge velocity ratio Ue/V∞ at the free-stream Mach number.',
     module: 'compressible.ts',
     formulas: [
@@ -65,7 +66,7 @@ export const FLOW_METHODS: MethodEntry[] = [
   },
   {
     id: 'stagnation',
-    name: 'Stagnation point and arc length',
+    name: METHOD_NAMES['stagnation'],
     purpose: 'Finds the attachment point on a closed loop and splits it into upper and lower surfaces.',
     module: 'stagnation.ts',
     formulas: ['s_i = \\sum_{k \\le i} \\sqrt{\\Delta x_k^2 + \\Delta y_k^2}', 'U_{\\mathrm{signed}}(s) \\approx c_0 + c_1 s + c_2 s^2 + c_3 s^3, \\quad U_{\\mathrm{signed}}(s_{\\mathrm{stag}}) = 0, \\quad g = \\left.\\frac{dU_e}{ds}\\right|_{s_{\\mathrm{stag}}}'],
@@ -80,7 +81,7 @@ export const FLOW_METHODS: MethodEntry[] = [
   },
   {
     id: 'simple-sweep',
-    name: 'Simple sweep theory (infinite swept wing)',
+    name: METHOD_NAMES['simple-sweep'],
     purpose: 'The chordwise edge velocity of a swept wing from Cp on the free stream.',
     module: 'swept-wing.ts',
     formulas: ['\\frac{U_e}{V_\\infty} = \\sqrt{\\left(\\frac{Q_e}{V_\\infty}\\right)^2 - \\sin^2\\Lambda} = \\cos\\Lambda\\, \\frac{U_{e,n}}{V_n}\\Big(C_{p,n} = \\frac{C_p}{\\cos^2\\Lambda},\\, M_n = M_\\infty \\cos\\Lambda\\Big)'],
@@ -95,7 +96,7 @@ export const FLOW_METHODS: MethodEntry[] = [
   },
   {
     id: 'smoothing',
-    name: 'Least-squares smoothing and differentiation',
+    name: METHOD_NAMES['smoothing'],
     purpose: 'Smooths measured Ue(s) with scatter before its slope enters the boundary-layer march.',
     module: 'smoothing.ts',
     formulas: [

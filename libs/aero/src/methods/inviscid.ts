@@ -1,10 +1,11 @@
 import type { MethodEntry } from './method';
+import { METHOD_NAMES } from './method-names';
 
 /** From a shape to its pressures: section definitions, panel methods and compressibility corrections. */
 export const INVISCID_METHODS: MethodEntry[] = [
   {
     id: 'naca-sections',
-    name: 'NACA four- and five-digit sections',
+    name: METHOD_NAMES['naca-sections'],
     purpose: 'Generates a section’s coordinates from its NACA designation.',
     module: 'naca-sections.ts',
     formulas: [
@@ -30,7 +31,7 @@ export const INVISCID_METHODS: MethodEntry[] = [
   },
   {
     id: 'vortex-panel',
-    name: 'Linear-strength vortex panel method',
+    name: METHOD_NAMES['vortex-panel'],
     purpose: 'Inviscid incompressible pressure distribution, lift and moment of a section at an incidence or a target lift coefficient.',
     module: 'vortex-panel.ts',
     formulas: [
@@ -56,7 +57,7 @@ export const INVISCID_METHODS: MethodEntry[] = [
   },
   {
     id: 'compressibility-correction',
-    name: 'Kármán–Tsien and Prandtl–Glauert corrections',
+    name: METHOD_NAMES['compressibility-correction'],
     purpose: 'Corrects an incompressible pressure coefficient to the free-stream Mach number and finds the critical Mach number.',
     module: 'compressibility-correction.ts',
     formulas: [
@@ -79,7 +80,7 @@ export const INVISCID_METHODS: MethodEntry[] = [
   },
   {
     id: 'source-ring-panel',
-    name: 'Source-ring panel method for bodies of revolution',
+    name: METHOD_NAMES['source-ring-panel'],
     purpose: 'Inviscid incompressible pressure distribution and radius along a body of revolution at zero incidence.',
     module: 'axisymmetric-panel.ts',
     formulas: [

@@ -1,11 +1,19 @@
 import { TRANSITION_CRITERIA } from '@laminote/contracts';
 import { describe, expect, it } from 'vitest';
-import { findMethod } from './index';
+import { METHODS, findMethod } from './index';
+import { METHOD_NAMES, isMethodId } from './method-names';
 import { CRITERION_METHODS, resultMethodIds, resultMethods } from './result-methods';
 
 const ids = (kind: string, result: unknown) => resultMethods(kind, result).map((m) => m.id);
 
 describe('resultMethods (the "Methods" links under each result)', () => {
+  it('names every catalogued method from the names kept apart from the catalogue, and no other', () => {
+    expect(METHODS.map((m) => m.id).sort()).toEqual(Object.keys(METHOD_NAMES).sort());
+    for (const method of METHODS) expect(method.name, method.id).toBe(METHOD_NAMES[method.id as keyof typeof METHOD_NAMES]);
+    expect(isMethodId('thwaites')).toBe(true);
+    expect(isMethodId('toString')).toBe(false);
+  });
+
   it('names a catalogued method for every transition criterion an analysis can evaluate', () => {
     for (const criterion of TRANSITION_CRITERIA) {
       expect(CRITERION_METHODS[criterion], criterion).toBeDefined();

@@ -1,10 +1,11 @@
 import type { MethodEntry } from './method';
+import { METHOD_NAMES } from './method-names';
 
 /** Transition criteria and the attachment-line check. */
 export const TRANSITION_METHODS: MethodEntry[] = [
   {
     id: 'envelope-en',
-    name: 'Envelope eᴺ method',
+    name: METHOD_NAMES['envelope-en'],
     purpose: 'Amplification N of the most unstable Tollmien–Schlichting wave along the laminar layer; transition where N reaches N_crit. Governs by default.',
     module: 'envelope-en.ts',
     formulas: [
@@ -29,7 +30,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'mack',
-    name: 'Mack’s relation for the critical N',
+    name: METHOD_NAMES['mack'],
     purpose: 'N_crit from the free-stream turbulence intensity.',
     module: 'envelope-en.ts',
     formulas: ['N_{crit} = -8.43 - 2.4 \\ln Tu'],
@@ -41,7 +42,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'michel',
-    name: 'Michel’s criterion',
+    name: METHOD_NAMES['michel'],
     purpose: 'A single-point cross-check: transition where Re_θ first reaches a function of Re_x.',
     module: 'michel.ts',
     formulas: ['Re_{\\theta,tr} = 1.174\\left(1 + \\frac{22\\,400}{Re_x}\\right) Re_x^{0.46}'],
@@ -56,7 +57,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'h-rex',
-    name: 'H–Re_x correlation',
+    name: METHOD_NAMES['h-rex'],
     purpose: 'A single-point cross-check: transition Reynolds number from the local shape factor.',
     module: 'h-rex.ts',
     formulas: ['\\log_{10} Re_{x,tr} = -40.4557 + 64.8066\\,H - 26.7538\\,H^2 + 3.3819\\,H^3'],
@@ -68,7 +69,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'granville',
-    name: 'Granville’s criterion',
+    name: METHOD_NAMES['granville'],
     purpose: 'A cross-check from the instability point and the mean pressure gradient behind it.',
     module: 'granville.ts',
     formulas: ['Re_{\\theta,tr} - Re_{\\theta,i} = 375 + \\exp\\!\\left(6.1 + 55\\,\\bar\\lambda\\right), \\qquad \\bar\\lambda = \\frac{1}{x - x_i}\\int_{x_i}^{x} \\lambda\\, dx'],
@@ -83,7 +84,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'owen-randall',
-    name: 'Crossflow Reynolds number (Owen–Randall)',
+    name: METHOD_NAMES['owen-randall'],
     purpose: 'On a swept wing: transition where the crossflow Reynolds number reaches its critical value. With eᴺ it sets the governing transition by default.',
     module: 'crossflow.ts',
     formulas: [
@@ -110,7 +111,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'arnal-c1',
-    name: 'Arnal’s C1 crossflow criterion',
+    name: METHOD_NAMES['arnal-c1'],
     purpose: 'On a swept wing: transition where the crossflow displacement-thickness Reynolds number reaches a function of the streamwise shape factor (cross-check of R_cf).',
     module: 'crossflow.ts',
     formulas: [
@@ -128,7 +129,7 @@ export const TRANSITION_METHODS: MethodEntry[] = [
   },
   {
     id: 'poll',
-    name: 'Poll’s attachment-line criterion',
+    name: METHOD_NAMES['poll'],
     purpose: 'Whether the swept leading edge’s attachment line stays laminar or is contaminated by turbulence.',
     module: 'attachment-line.ts',
     formulas: ['\\bar R = \\frac{W_e\\,\\eta}{\\nu}, \\quad \\eta = \\sqrt{\\frac{\\nu}{dU_e/dx}}, \\quad W_e = V_\\infty \\sin\\Lambda \\;\\Rightarrow\\; \\bar R = \\sin\\Lambda\\sqrt{\\frac{Re}{g}} = \\sqrt{\\frac{Re\\, r \\sin\\Lambda \\tan\\Lambda}{2}}'],

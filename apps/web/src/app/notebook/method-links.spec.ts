@@ -35,35 +35,37 @@ describe('MethodLinks (the Methods line under a result)', () => {
     expect((await render('note', output('ok', { text: 'x' }))).querySelector('.method-links')).toBeNull();
   });
 
-  it('keeps the line in its place, hidden, until the catalogue has come, so nothing below it moves', async () => {
+  it('draws the links with the result, before the catalogue has come, which only adds their purposes', async () => {
     type Catalogue = typeof import('@laminote/aero/methods/result-methods');
     let arrive: ((module: Catalogue) => void) | undefined;
     const catalogue = lazyModule(() => new Promise<Catalogue>((resolve) => (arrive = resolve)));
     TestBed.configureTestingModule({ imports: [MethodLinks], providers: [provideRouter([]), { provide: METHOD_CATALOGUE, useValue: catalogue }] });
     const fixture = TestBed.createComponent(MethodLinks);
-    fixture.componentRef.setInput('kind', 'flow');
-    fixture.componentRef.setInput('output', output('ok', { temperature_K: 216.65 }));
+    fixture.componentRef.setInput('kind', 'analysis');
+    // A swept-wing analysis lists a dozen methods, on several lines: the line is as long from the first drawing.
+    const swept = { flow: { reynolds: 2e7, mach: 0.7, nCrit: 9 }, surfaces: [{ transition: { criteria: { eN: 0.4, crossflow: 0.1, crossflowC1: 0.2, michel: 0.3, hRx: 0.3, granville: 0.3 } } }], attachmentLine: { reBar: 180 } };
+    fixture.componentRef.setInput('output', output('ok', swept));
     fixture.detectChanges();
     const el = fixture.nativeElement as HTMLElement;
-    const kept = el.querySelector<HTMLElement>('.method-links')!;
-    expect(kept.getAttribute('aria-hidden')).toBe('true');
-    expect(getComputedStyle(kept).visibility).toBe('hidden');
-    expect(el.querySelectorAll('a').length).toBe(0);
-    // The same line as the one that comes (its label, its class), so it takes the same height in a
-    // browser (this test's DOM does no layout; the benchmark's study shows the first frame keeps its height).
-    expect(kept.textContent?.trim()).toBe('Methods');
+    const links = () => Array.from(el.querySelectorAll('a'));
+    const before = links().map((a) => [a.getAttribute('href'), a.textContent]);
+    expect(before).toHaveLength(13);
+    expect(before[0]).toEqual(['/methods/thwaites', 'Thwaites’ laminar method']);
+    expect(links().every((a) => a.getAttribute('title') === null)).toBe(true);
 
     const loading = catalogue.load();
-    arrive!(await import('@laminote/aero/methods/result-methods'));
+    const module = await import('@laminote/aero/methods/result-methods');
+    arrive!(module);
     await loading;
     fixture.detectChanges();
-    const line = el.querySelector<HTMLElement>('.method-links')!;
-    expect(line.getAttribute('aria-hidden')).toBeNull();
-    expect(Array.from(line.querySelectorAll('a')).map((a) => a.getAttribute('href'))).toEqual(['/methods/isa', '/methods/sutherland', '/methods/mack']);
-    expect(line.querySelector('.method-links-label')?.textContent).toBe('Methods');
+    // The same links, names and order as the catalogue gives (what the report prints), now with their purposes.
+    expect(links().map((a) => [a.getAttribute('href'), a.textContent])).toEqual(before);
+    expect(links().map((a) => a.textContent)).toEqual(module.resultMethods('analysis', swept).map((m) => m.name));
+    expect(links().map((a) => a.getAttribute('title'))).toEqual(module.resultMethods('analysis', swept).map((m) => m.purpose));
+    expect(el.querySelector('.method-links-label')?.textContent).toBe('Methods');
   });
 
-  it('keeps no place for a result without methods or a failed run', () => {
+  it('draws no line for a result without methods or a failed run, before the catalogue too', () => {
     TestBed.configureTestingModule({ imports: [MethodLinks], providers: [provideRouter([]), { provide: METHOD_CATALOGUE, useValue: lazyModule(() => new Promise<never>(() => undefined)) }] });
     const fixture = TestBed.createComponent(MethodLinks);
     fixture.componentRef.setInput('kind', 'note');

@@ -1,12 +1,13 @@
 import { ChangeDetectionStrategy, Component, InjectionToken, PendingTasks, computed, inject, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
+import { METHOD_NAMES, isMethodId } from '@laminote/aero/methods/method-names';
 import { resultMethodIds } from '@laminote/aero/methods/result-method-ids';
 import type { CellOutput } from '@laminote/contracts';
 import { type LazyModule, lazyModule } from '../shared/lazy-module';
 
 type Catalogue = typeof import('@laminote/aero/methods/result-methods');
 
-/** The methods catalogue (every method's formula and sources), fetched once, after the first screen. */
+/** The methods catalogue (every method's purpose, formula and sources), fetched once, after the first screen. */
 export const METHOD_CATALOGUE = new InjectionToken<LazyModule<Catalogue>>('methods catalogue', {
   providedIn: 'root',
   factory: () => lazyModule(() => import('@laminote/aero/methods/result-methods')),
@@ -15,10 +16,10 @@ export const METHOD_CATALOGUE = new InjectionToken<LazyModule<Catalogue>>('metho
 /**
  * The "Methods" line under a cell's result: one link per method its numbers come from, to the page with
  * the formula, symbols, validity, sources and limits — so every number on the screen can be traced.
- * The same list the report prints per cell (`resultMethods` in libs/aero). The catalogue loads apart
- * from the first screen, so the links appear a moment after the result; until then the line's place is
- * kept (which methods a result has is known without the catalogue), so nothing below it moves when
- * they come, and the first screen is measured as it will stay.
+ * The same list the report prints per cell (`resultMethods` in libs/aero). The links are drawn with the
+ * result: which methods a result has, and their names, are known without the catalogue. The catalogue
+ * loads apart from the first screen and only adds each link's one-sentence purpose (its title), so the
+ * line does not change size when it comes.
  */
 @Component({
   selector: 'lam-method-links',
@@ -29,11 +30,9 @@ export const METHOD_CATALOGUE = new InjectionToken<LazyModule<Catalogue>>('metho
       <p class="method-links">
         <span class="method-links-label">Methods</span>
         @for (method of methods(); track method.id) {
-          <a [routerLink]="['/methods', method.id]" [attr.title]="method.purpose">{{ method.name }}</a>
+          <a [routerLink]="['/methods', method.id]" [attr.title]="purposes()?.get(method.id) ?? null">{{ method.name }}</a>
         }
       </p>
-    } @else if (keepPlace()) {
-      <p class="method-links method-links-coming" aria-hidden="true"><span class="method-links-label">Methods</span></p>
     }
   `,
   styles: `
@@ -52,9 +51,6 @@ export const METHOD_CATALOGUE = new InjectionToken<LazyModule<Catalogue>>('metho
     .method-links a {
       color: var(--mat-sys-primary);
     }
-    .method-links-coming {
-      visibility: hidden;
-    }
   `,
 })
 export class MethodLinks {
@@ -63,17 +59,18 @@ export class MethodLinks {
   readonly output = input<CellOutput | null>(null);
 
   private readonly catalogue = inject(METHOD_CATALOGUE);
-  private readonly ids = computed(() => {
-    const output = this.output();
-    return output?.status === 'ok' ? resultMethodIds(this.kind(), output.result) : [];
-  });
+  /** Ids not in the catalogue (a kind whose methods have no page yet) are left out, never shown as dead links. */
   protected readonly methods = computed(() => {
     const output = this.output();
-    const catalogue = this.catalogue.module();
-    return catalogue && output && this.ids().length > 0 ? catalogue.resultMethods(this.kind(), output.result) : [];
+    const ids = output?.status === 'ok' ? resultMethodIds(this.kind(), output.result) : [];
+    return ids.filter(isMethodId).map((id) => ({ id, name: METHOD_NAMES[id] }));
   });
-  /** The catalogue is still coming and the result has methods: their line's place is kept, empty. */
-  protected readonly keepPlace = computed(() => !this.catalogue.module() && this.ids().length > 0);
+  /** Each method's purpose, once the catalogue has come. */
+  protected readonly purposes = computed(() => {
+    const catalogue = this.catalogue.module();
+    const output = this.output();
+    return catalogue && output && this.methods().length > 0 ? new Map(catalogue.resultMethods(this.kind(), output.result).map((m) => [m.id, m.purpose])) : null;
+  });
 
   constructor() {
     if (!this.catalogue.module()) inject(PendingTasks).run(this.catalogue.loadWhenIdle);
