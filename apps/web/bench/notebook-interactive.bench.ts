@@ -10,7 +10,7 @@
  * cells on the first screen drawn, and the page answering a keystroke in a cell title (the save
  * indicator changes). Targets (issue 15): cold median ≤ 1000 ms and max ≤ 1200 ms, warm median
  * ≤ 500 ms; the first screen's JS ≤ 300 kB gzip; the icon font only the icons the app uses. Also
- * timed: every body drawn, and the first screen's plot drawn.
+ * timed: every body drawn, and the pressure cell's plot drawn (half a screen below the window).
  *
  * Two ways of noticing "interactive" are timed, in alternate opens (5 cold and 5 warm each), and both
  * are printed:
@@ -355,8 +355,27 @@ interface Measure {
   fontsBeforeInteractive: number;
 }
 
+/**
+ * In the page: notes the page's clock when the first plot appears (as `__lamPlotMs`). Plain source
+ * text, as pageWatch: the page gets no bundler helpers.
+ */
+const WATCH_FIRST_PLOT = `(() => {
+  window.__lamPlotMs = null;
+  const seen = () => {
+    if (window.__lamPlotMs !== null || !document.querySelector('lam-plot .main-svg')) return false;
+    window.__lamPlotMs = performance.now();
+    return true;
+  };
+  if (!seen()) {
+    const observer = new MutationObserver(() => seen() && observer.disconnect());
+    observer.observe(document, { subtree: true, childList: true });
+  }
+})()`;
+
 async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, reload: boolean, way: Way, cells = CELLS): Promise<Measure> {
   const { framesMs, interactiveMs, interactiveOnPage, started } = await openAndMeasure(page, reload ? null : `${APP}/studies/${studyId}`, cells, way);
+  // The plot is never drawn before interactive: the page watches for it from here (see below).
+  if (cells > 1) await page.evaluate(WATCH_FIRST_PLOT);
   // The space typed is taken back, so the title stays as it was.
   await page.focus('lam-cell-frame input.title-input');
   await page.keyboard.press('End');
@@ -367,13 +386,18 @@ async function openStudy(page: Page, studyId: string, plotChunks: Set<string>, r
     performance.getEntriesByType('resource').map((r) => ({ name: (r as PerformanceResourceTiming).name, end: r.responseEnd, size: (r as PerformanceResourceTiming).encodedBodySize })),
   );
   const plotEntry = resources.find((r) => plotChunks.has(r.name.split('/').pop() ?? ''));
-  // The first screen has one plot (the pressure cell's); the analyses' plots are drawn when scrolled to.
-  // A study of one cell (a flow condition) has none.
+  // The pressure cell's plot is within half a screen of the window, so it is drawn without scrolling;
+  // the analyses' plots are drawn when scrolled to. A study of one cell (a flow condition) has none.
+  // The page notes when the plot appears (its clock: from the start of the navigation) and this process
+  // asks twice a second: asking each animation frame (Playwright's default) keeps the page drawing a
+  // frame every 16 ms, so it never has the idle periods plot-schedule.ts waits for before it starts the
+  // plotting library, and the plot came at that schedule's 5-s limit (about 7.7 s, against 4.4 to 4.8 s
+  // noticed in the page with nothing asking each frame, in cold opens of this study).
   let plotsDrawnMs: number | null = null;
   if (cells > 1) {
     try {
-      await page.waitForFunction(() => document.querySelectorAll('lam-plot .main-svg').length >= 1, undefined, { timeout: 15_000 });
-      plotsDrawnMs = Date.now() - started;
+      const handle = await page.waitForFunction(() => (window as unknown as { __lamPlotMs?: number | null }).__lamPlotMs ?? null, undefined, { timeout: 15_000, polling: 500 });
+      plotsDrawnMs = (await handle.jsonValue()) as number;
     } catch {
       plotsDrawnMs = null;
     }
@@ -594,7 +618,7 @@ try {
   const allCold = [...cold.page, ...cold.playwright];
   out(`  every cell body drawn (the rest while the browser is idle), cold: ${stats(allCold.map((m) => m.allBodiesMs))}`);
   const drawn = allCold.map((m) => m.plotsDrawnMs).filter((v): v is number => v !== null);
-  out(`  first-screen plot drawn (after the lazy chunk), cold: ${drawn.length ? stats(drawn) : 'not within 15 s'}`);
+  out(`  pressure plot drawn (after the lazy chunk; noticed in the page, from the start of the navigation), cold: ${drawn.length ? stats(drawn) : 'not within 15 s'}`);
   out(`  JS fetched by a cold open, plots drawn (encoded): ${kb(allCold[0]!.jsBytes)}`);
   out(`  plot chunk fetched before interactive: ${allCold.some((m) => m.plotFetchedBeforeInteractive) ? 'yes (in some rounds)' : 'no'}`);
   out(`  JS and fonts fetched before interactive, cold (as sent): JS ${kb(median(cold.page.map((m) => m.jsBeforeInteractive)))}, fonts ${kb(median(cold.page.map((m) => m.fontsBeforeInteractive)))}`);
