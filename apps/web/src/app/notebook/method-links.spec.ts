@@ -8,9 +8,14 @@ function output(status: 'ok' | 'error', result: unknown): CellOutput {
   return { key: 'k', status, result, error: status === 'error' ? { message: 'stopped', field: null } : null, engineVersion: '1', durationMs: 1, computedAt: '2026-12-01T00:00:00Z' } as CellOutput;
 }
 
-/** The line as drawn once the methods catalogue, loaded apart from the first screen, has come. */
+/**
+ * The line as drawn once the methods catalogue, loaded apart from the first screen, has come (loaded
+ * here first, so the test does not wait on the browser's idle callbacks, which other specs stub).
+ */
 async function render(kind: string, out: CellOutput | null): Promise<HTMLElement> {
-  TestBed.configureTestingModule({ imports: [MethodLinks], providers: [provideRouter([])] });
+  const catalogue = lazyModule(() => import('@laminote/aero/methods/result-methods'));
+  await catalogue.load();
+  TestBed.configureTestingModule({ imports: [MethodLinks], providers: [provideRouter([]), { provide: METHOD_CATALOGUE, useValue: catalogue }] });
   const fixture = TestBed.createComponent(MethodLinks);
   fixture.componentRef.setInput('kind', kind);
   fixture.componentRef.setInput('output', out);
