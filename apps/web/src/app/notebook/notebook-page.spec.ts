@@ -10,6 +10,7 @@ import type { Branch, Draft, Me } from '@laminote/contracts';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PROJECT_ID, STUDY_ID, me, problemResponse, provideTestApp, signInAs, study } from '../../testing/test-app';
 import { PLOT_RENDERER } from '../shared/plot';
+import { resetPlotScheduleForTests, scheduleDraw } from '../shared/plot-schedule';
 import { AUTOSAVE_DELAY_MS } from '../shared/draft-session';
 import { BranchJobs } from './branch-jobs';
 import { NotebookPage } from './notebook-page';
@@ -43,6 +44,21 @@ function asRole(role: 'engineer' | 'viewer' | 'reviewer'): Me {
 
 const settle = (ms = 20) => new Promise((resolve) => setTimeout(resolve, ms));
 
+/** Frames laid out 500 px apart in a 768-px window (this test DOM does no layout): the first two start on the screen. */
+function layOutFrames500PxApart(): void {
+  vi.spyOn(HTMLElement.prototype, 'getBoundingClientRect').mockImplementation(function (this: HTMLElement) {
+    const frames = Array.from(document.querySelectorAll('lam-cell-frame'));
+    const top = this.tagName === 'LAM-CELL-FRAME' ? frames.indexOf(this) * 500 : 0;
+    return { top, bottom: top + 400, left: 0, right: 800, width: 800, height: 400, x: 0, y: top, toJSON: () => ({}) } as DOMRect;
+  });
+  vi.spyOn(window, 'innerHeight', 'get').mockReturnValue(768);
+}
+
+/** Five notes, `Note 1` … `Note 5` reading `Reading 1` …, ids ending in `idTail` and their index. */
+function fiveNotes(idTail: string) {
+  return Array.from({ length: 5 }, (_, i) => cell('note', `11111111-2222-4333-8444-555555555${idTail}${String(i).padStart(2, '0')}`, { title: `Note ${i + 1}`, inputs: { markdown: `Reading ${i + 1}` } }));
+}
+
 describe('NotebookPage', () => {
   let http: HttpTestingController;
 
@@ -67,13 +83,19 @@ describe('NotebookPage', () => {
     expect(open.map((r) => `${r.request.method} ${r.request.url}`)).toEqual([]);
   });
 
-  async function open(person: Me, opened: Draft = stack()) {
+  /** The page, its study read (not waiting for it to settle: the tests that run the idle moments themselves). */
+  async function openUnsettled(person: Me, opened: Draft = stack()) {
     await signInAs(person);
     const fixture = TestBed.createComponent(NotebookPage);
     fixture.componentRef.setInput('studyId', STUDY_ID);
     fixture.detectChanges();
     // The study, its branches and the draft in one read (GET …/opening).
     http.expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}/opening` }).flush({ study: study(), branches: [branch], draft: opened });
+    return fixture;
+  }
+
+  async function open(person: Me, opened: Draft = stack()) {
+    const fixture = await openUnsettled(person, opened);
     await fixture.whenStable();
     return {
       fixture,
@@ -310,24 +332,13 @@ describe('NotebookPage', () => {
   });
 
   it('draws at once the bodies of the cells whose frames start on the screen, and the others one per idle moment', async () => {
-    // Frames laid out 500 px apart in a 768-px window: the first two start on the screen.
-    const rect = vi.spyOn(HTMLElement.prototype, 'getBoundingClientRect').mockImplementation(function (this: HTMLElement) {
-      const frames = Array.from(document.querySelectorAll('lam-cell-frame'));
-      const top = this.tagName === 'LAM-CELL-FRAME' ? frames.indexOf(this) * 500 : 0;
-      return { top, bottom: top + 400, left: 0, right: 800, width: 800, height: 400, x: 0, y: top, toJSON: () => ({}) } as DOMRect;
-    });
-    vi.spyOn(window, 'innerHeight', 'get').mockReturnValue(768);
+    layOutFrames500PxApart();
     // Idle moments come when the test says (Angular's own idle triggers wait in the same queue).
     const idle: (() => void)[] = [];
     vi.stubGlobal('requestIdleCallback', (next: () => void) => idle.push(next));
     vi.stubGlobal('cancelIdleCallback', () => undefined);
     try {
-      const cells = Array.from({ length: 5 }, (_, i) => cell('note', `11111111-2222-4333-8444-5555555557${String(i).padStart(2, '0')}`, { title: `Note ${i + 1}`, inputs: { markdown: `Reading ${i + 1}` } }));
-      await signInAs(asRole('engineer'));
-      const fixture = TestBed.createComponent(NotebookPage);
-      fixture.componentRef.setInput('studyId', STUDY_ID);
-      fixture.detectChanges();
-      http.expectOne({ method: 'GET', url: `/api/studies/${STUDY_ID}/opening` }).flush({ study: study(), branches: [branch], draft: draft(cells) });
+      const fixture = await openUnsettled(asRole('engineer'), draft(fiveNotes('7')));
       const page = fixture.nativeElement as HTMLElement;
       const pending = () => page.querySelectorAll('.body-pending').length;
       const until = async (done: () => boolean) => {
@@ -376,7 +387,47 @@ describe('NotebookPage', () => {
       expect(page.querySelectorAll('lam-add-cell')).toHaveLength(6);
       expect(page.textContent).toContain('Reading 5');
     } finally {
-      rect.mockRestore();
+      vi.restoreAllMocks();
+      vi.unstubAllGlobals();
+    }
+  });
+
+  it('holds the bodies out of sight back while a plot near the window waits for the page to go quiet', async () => {
+    layOutFrames500PxApart();
+    // Idle moments come when the test says, each a full idle period (50 ms with nothing else to do).
+    const idle: ((deadline: IdleDeadline) => void)[] = [];
+    vi.stubGlobal('requestIdleCallback', (next: (deadline: IdleDeadline) => void) => idle.push(next));
+    vi.stubGlobal('cancelIdleCallback', () => undefined);
+    resetPlotScheduleForTests();
+    try {
+      // A plot near the window has asked to be drawn (as a pressure cell's does when it comes near).
+      const plot = vi.fn();
+      scheduleDraw(plot);
+      const fixture = await openUnsettled(asRole('engineer'), draft(fiveNotes('8')));
+      const page = fixture.nativeElement as HTMLElement;
+      const pending = () => page.querySelectorAll('.body-pending').length;
+      const idleMoment = async () => {
+        for (const next of idle.splice(0)) next({ didTimeout: false, timeRemaining: () => 50 });
+        for (let i = 0; i < 5; i++) await settle(5);
+      };
+      for (let i = 0; i < 100 && !page.textContent!.includes('Reading 2'); i++) await settle(10);
+      expect(pending()).toBe(3);
+      // Quiet takes six full idle periods in a row: until then the three bodies below wait, and the plot too.
+      for (let i = 0; i < 5; i++) await idleMoment();
+      expect(pending()).toBe(3);
+      expect(plot).not.toHaveBeenCalled();
+      // Quiet: the plot is drawn at the next idle moment, and the bodies go on, one per idle moment.
+      await idleMoment();
+      await idleMoment();
+      expect(plot).toHaveBeenCalledTimes(1);
+      for (let i = 0; i < 10 && pending() > 0; i++) await idleMoment();
+      expect(pending()).toBe(0);
+      // The loop ends at its next idle moment (the page is busy until then).
+      await idleMoment();
+      await idleMoment();
+      await fixture.whenStable();
+    } finally {
+      resetPlotScheduleForTests();
       vi.restoreAllMocks();
       vi.unstubAllGlobals();
     }

@@ -49,6 +49,7 @@ import { VersionBar } from '../versions/version-bar';
 import { SinceLastLook } from './since-last-look';
 import { DIALOG_NOT_LOADED, openLazyBottomSheet, openLazyDialog } from '../shared/lazy-dialog';
 import { Notifier } from '../core/notifier';
+import { pageQuiet, plotsWaitingForQuiet } from '../shared/plot-schedule';
 
 interface OpenedStudy {
   readonly study: Study;
@@ -63,6 +64,11 @@ interface OpenedStudy {
  * follow one body per idle moment of the browser, so a keystroke never waits behind more than one body.
  */
 const FIRST_BODIES = 1;
+/**
+ * How long the bodies out of sight wait at most for plots near the window to start (the page to go
+ * quiet): a page kept busy (something drawing every frame) draws them after this anyway.
+ */
+const FAR_BODIES_WAIT_MS = 1500;
 
 function isTextEntry(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
@@ -275,6 +281,8 @@ export class NotebookPage {
     // Which frames are inside the window, as the browser tells once it has laid the page out for a frame
     // anyway: reading the frames' places after each body drawn would lay the page out again at each step.
     const inWindow = new Set<string>();
+    // Set while the bodies far below the window wait for plots near it to start (see step).
+    let resume: (() => void) | null = null;
     const watch =
       typeof IntersectionObserver === 'function'
         ? new IntersectionObserver((entries) => {
@@ -283,6 +291,8 @@ export class NotebookPage {
               if (!id) continue;
               if (entry.isIntersecting) inWindow.add(id);
               else inWindow.delete(id);
+              // A body not drawn yet came into the window (the person scrolled): it is drawn now.
+              if (entry.isIntersecting && !this.drawn().has(id)) resume?.();
             }
           })
         : null;
@@ -296,8 +306,25 @@ export class NotebookPage {
       // The person may have left the study before the browser was idle: nothing more to draw.
       if (this.destroyRef.destroyed) return done();
       const undrawn = this.cells().filter((cell) => !this.drawn().has(cell.cellId));
-      const next = (undrawn.find((cell) => inWindow.has(cell.cellId)) ?? undrawn[0])?.cellId;
+      const inSight = undrawn.find((cell) => inWindow.has(cell.cellId));
+      const next = (inSight ?? undrawn[0])?.cellId;
       if (!next) return done();
+      // Plots near the window start their library once the page is quiet, which it is not while bodies
+      // are drawn: the bodies out of sight wait for that moment (at most FAR_BODIES_WAIT_MS), so those
+      // plots come about 1.5 s sooner in the 20-cell study instead of after every body.
+      if (!inSight && plotsWaitingForQuiet()) {
+        let resumed = false;
+        resume = () => {
+          if (resumed) return;
+          resumed = true;
+          resume = null;
+          idle(step);
+        };
+        const go = resume;
+        void pageQuiet().then(go);
+        setTimeout(go, FAR_BODIES_WAIT_MS);
+        return;
+      }
       this.draw([next]);
       afterNextRender(() => idle(step), { injector: this.injector });
     };

@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { resetPlotScheduleForTests, scheduleDraw } from './plot-schedule';
+import { plotsWaitingForQuiet, resetPlotScheduleForTests, scheduleDraw } from './plot-schedule';
 
 /** The browser's idle callbacks, run by the test with the idle time it chooses. */
 class IdleBrowser {
@@ -28,6 +28,17 @@ describe('when plots are drawn', () => {
   afterEach(() => {
     (window as { requestIdleCallback?: unknown }).requestIdleCallback = saved.idle;
     resetPlotScheduleForTests();
+  });
+
+  it('says while plots wait for the page to go quiet, so other work that can wait holds back until then', async () => {
+    expect(plotsWaitingForQuiet()).toBe(false);
+    scheduleDraw(() => undefined);
+    for (let i = 0; i < 5; i++) browser.period(50);
+    await settle();
+    expect(plotsWaitingForQuiet()).toBe(true);
+    browser.period(50);
+    await settle();
+    expect(plotsWaitingForQuiet()).toBe(false);
   });
 
   it('waits while the page is busy, and starts once it has been quiet for several full idle periods in a row', async () => {

@@ -22,9 +22,12 @@ function idleApi(): Idle | null {
 }
 
 let quiet: Promise<void> | null = null;
+/** The page has been quiet once (the promise above has resolved). */
+let wasQuiet = false;
 
 /** Resolves once the page has been quiet (see above), or after QUIET_AT_MOST_MS; at once without idle callbacks. */
 export function pageQuiet(): Promise<void> {
+  const mine = generation;
   quiet ??= new Promise<void>((resolve) => {
     const idle = idleApi();
     if (!idle) return resolve();
@@ -38,8 +41,19 @@ export function pageQuiet(): Promise<void> {
       else idle(step, { timeout: Math.ceil(left) });
     };
     idle(step, { timeout: QUIET_AT_MOST_MS });
+  }).then(() => {
+    if (mine === generation) wasQuiet = true;
   });
   return quiet;
+}
+
+/**
+ * Plots asked for are waiting for the page to go quiet before the library starts. Other work that can
+ * wait (the notebook's bodies far below the window) waits for that moment too: the page cannot go
+ * quiet while it goes on, and the plots near the window would wait for all of it.
+ */
+export function plotsWaitingForQuiet(): boolean {
+  return waiting.length > 0 && !wasQuiet;
 }
 
 const waiting: (() => Promise<unknown> | void)[] = [];
@@ -93,6 +107,7 @@ function drainNext(mine: number): void {
 export function resetPlotScheduleForTests(): void {
   generation++;
   quiet = null;
+  wasQuiet = false;
   waiting.length = 0;
   draining = false;
 }
