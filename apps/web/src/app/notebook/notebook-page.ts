@@ -311,7 +311,7 @@ export class NotebookPage {
       if (!next) return done();
       // Plots near the window start their library once the page is quiet, which it is not while bodies
       // are drawn: the bodies out of sight wait for that moment (at most FAR_BODIES_WAIT_MS), so those
-      // plots come about 1.5 s sooner in the 20-cell study instead of after every body.
+      // plots come about 1 s sooner in the 20-cell study (cold) instead of after every body.
       if (!inSight && plotsWaitingForQuiet()) {
         let resumed = false;
         resume = () => {
