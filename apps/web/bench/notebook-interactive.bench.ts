@@ -314,7 +314,6 @@ interface Opened {
   interactiveMs: number;
   /** The page's clock (ms since the navigation started) at interactive. */
   interactiveOnPage: number;
-  started: number;
 }
 
 /** Opens `url` (or reloads) and measures frames drawn and interactive, either way. */
@@ -329,7 +328,7 @@ async function openAndMeasure(page: Page, url: string | null, count: number, way
       return state && state.interactiveMs !== null ? state : null;
     }, undefined, { polling: 'raf', timeout: 30_000 });
     const state = (await handle.jsonValue()) as { framesMs: number; interactiveMs: number };
-    return { framesMs: state.framesMs, interactiveMs: state.interactiveMs, interactiveOnPage: state.interactiveMs, started };
+    return { framesMs: state.framesMs, interactiveMs: state.interactiveMs, interactiveOnPage: state.interactiveMs };
   }
   await page.waitForFunction(ready, count, { polling: 'raf', timeout: 30_000 });
   const framesMs = Date.now() - started;
@@ -340,7 +339,7 @@ async function openAndMeasure(page: Page, url: string | null, count: number, way
   const interactiveMs = Date.now() - started;
   // The page's own clock at the moment it became interactive.
   const interactiveOnPage = (await page.evaluate(() => performance.now())) - (Date.now() - started - interactiveMs);
-  return { framesMs, interactiveMs, interactiveOnPage, started };
+  return { framesMs, interactiveMs, interactiveOnPage };
 }
 
 interface Measure {

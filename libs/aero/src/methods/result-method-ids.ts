@@ -38,8 +38,8 @@ function analysisMethods(result: Record<string, unknown>): string[] {
 
 /**
  * The ids of the methods a cell's computed result comes from, in the order its numbers are worked out.
- * Apart from the catalogue (its formulas and sources are tens of kB), so a screen can tell at once
- * whether a result has methods to list and keep their line's place while the catalogue loads.
+ * Apart from the catalogue (its formulas and sources are tens of kB), so a screen can list a result's
+ * methods at once, named from method-names.ts, before the catalogue has loaded.
  */
 export function resultMethodIds(kind: string, result: unknown): string[] {
   const r = record(result);
