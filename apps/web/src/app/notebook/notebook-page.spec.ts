@@ -131,6 +131,29 @@ describe('NotebookPage', () => {
     expect(await (await loader.getHarness(MatButtonHarness.with({ text: /Run study/ }))).isDisabled()).toBe(false);
   });
 
+  it('on the way out, holds the page while an edit waits and sends it at once; a saved draft lets it go', async () => {
+    const { fixture, loader } = await open(asRole('engineer'));
+    const leave = () => {
+      const event = new Event('beforeunload', { cancelable: true });
+      window.dispatchEvent(event);
+      return event.defaultPrevented;
+    };
+    expect(leave()).toBe(false);
+    const frame = await loader.getHarness(CellFrameHarness.with({ title: 'Free transition' }));
+    await frame.setTitle('Free transition, cruise');
+    // Before the autosave's pause is over: the browser is asked to hold the page, and the edit goes now.
+    expect(leave()).toBe(true);
+    const save = http.expectOne({ method: 'PUT', url: `/api/branches/${BRANCH_ID}/draft` });
+    expect(save.request.body.cells.map((c: { title: string }) => c.title)).toContain('Free transition, cruise');
+    save.flush({ ...stack(), revision: 4, cells: stack().cells.map((c) => (c.cellId === ANALYSIS_ID ? { ...c, title: 'Free transition, cruise' } : c)) });
+    await fixture.whenStable();
+    expect(leave()).toBe(false);
+    // A page that is gone no longer listens.
+    await frame.setTitle('Free transition, climb');
+    fixture.destroy();
+    expect(leave()).toBe(false);
+  });
+
   it('on 409 shows what the other person changed and, on “Keep mine”, saves again on their revision', async () => {
     const { fixture, loader, root } = await open(asRole('engineer'));
     await (await loader.getHarness(CellFrameHarness.with({ title: 'Free transition' }))).setTitle('Tripped at 5 %');

